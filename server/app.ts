@@ -1,0 +1,51 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import type { AppContext } from './context.js';
+import { apiNotFound, errorHandler } from './common/error-handler.js';
+import { buildApiRouter } from './routes.js';
+
+export interface AppOptions {
+  /** Folder of the built client (dist/); when absent only the API is served. */
+  staticDir?: string;
+}
+
+/** Builds the Express app (no listen: tests import it with supertest). */
+export function createApp(context: AppContext, opts: AppOptions = {}): Express {
+  const app = express();
+  app.locals.ctx = context;
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          'script-src': ["'self'"],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'", 'data:'],
+          'connect-src': ["'self'"],
+          'upgrade-insecure-requests': null,
+        },
+      },
+      strictTransportSecurity: false,
+    }),
+  );
+  app.use('/api', express.json({ limit: '5mb' }));
+  app.use('/api', buildApiRouter());
+  app.use('/api', apiNotFound);
+
+  const dir = opts.staticDir;
+  if (dir && existsSync(path.join(dir, 'index.html'))) {
+    app.use(express.static(dir, { index: false, maxAge: '1h' }));
+    // Single-page fallback: every non-API path gets the client, which routes itself.
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(path.join(dir, 'index.html'));
+    });
+  }
+  app.use(errorHandler);
+  return app;
+}

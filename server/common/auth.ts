@@ -1,0 +1,52 @@
+import type { RequestHandler } from 'express';
+import jwt from 'jsonwebtoken';
+import type { Role } from '../../shared/schemas/roles.js';
+import type { UserDto } from '../../shared/schemas/auth.js';
+import { ctx } from '../context.js';
+import { User } from '../features/users/user.entity.js';
+import { toUserDto } from '../features/users/user.mapper.js';
+import { AppError } from './app-error.js';
+
+const unauthorized = (message: string) => new AppError('unauthorized', message, 401, undefined, { 'WWW-Authenticate': 'Bearer' });
+
+/** Signs a session token for a user id (HS256, expiring). */
+export function signToken(userId: number, secret: string, expiresIn: string): string {
+  return jwt.sign({ sub: String(userId) }, secret, { algorithm: 'HS256', expiresIn: expiresIn as jwt.SignOptions['expiresIn'] });
+}
+
+// Verifies the bearer token and reloads the user on every request, so a deactivation takes effect at once.
+export const authenticate: RequestHandler = async (req, res, next) => {
+  const header = req.headers.authorization ?? '';
+  const m = /^Bearer\s+(\S+)$/i.exec(header);
+  if (!m) return next(unauthorized('Sign in first (no bearer token).'));
+  const { db, config } = ctx(req);
+  let sub: string;
+  try {
+    const payload = jwt.verify(m[1], config.jwtSecret, { algorithms: ['HS256'] });
+    if (typeof payload === 'string' || typeof payload.sub !== 'string') throw new Error('no subject');
+    sub = payload.sub;
+  } catch (err) {
+    const expired = err instanceof jwt.TokenExpiredError;
+    return next(unauthorized(expired ? 'Your session has expired; sign in again.' : 'The session token is not valid; sign in again.'));
+  }
+  const user = await db.getRepository(User).findOne({ where: { id: Number(sub) }, relations: { sites: true } });
+  if (!user || !user.active) return next(unauthorized('This account is not active; sign in again or ask an administrator.'));
+  res.locals.user = toUserDto(user);
+  next();
+};
+
+/** The signed-in user of a request (after authenticate). */
+export function currentUser(res: { locals: Record<string, unknown> }): UserDto {
+  return res.locals.user as UserDto;
+}
+
+// Lets the request through only when the user holds one of the roles.
+export function requireRoles(roles: readonly Role[]): RequestHandler {
+  return (_req, res, next) => {
+    const user = currentUser(res);
+    if (!user.roles.some((r) => roles.includes(r))) {
+      return next(new AppError('forbidden', `This needs one of the roles: ${roles.join(', ')}.`, 403));
+    }
+    next();
+  };
+}

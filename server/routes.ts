@@ -1,0 +1,20 @@
+import { Router } from 'express';
+import { authenticate, requireRoles } from './common/auth.js';
+import type { RouteDef } from './route-def.js';
+import { authRoutes } from './features/auth/auth.router.js';
+import { healthRoutes } from './features/health/health.router.js';
+import { outboxRoutes } from './features/outbox/outbox.router.js';
+import { userRoutes } from './features/users/users.router.js';
+
+/** Every API route with who may call it; the router is built from this table and the role-matrix test reads it. */
+export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...userRoutes, ...outboxRoutes];
+
+/** The /api router: authentication and role guards come from each row's access. */
+export function buildApiRouter(table: RouteDef[] = routeTable): Router {
+  const router = Router();
+  for (const r of table) {
+    const guards = r.access === 'public' ? [] : r.access === 'signed-in' ? [authenticate] : [authenticate, requireRoles(r.access)];
+    router[r.method](r.path, ...guards, ...r.handlers);
+  }
+  return router;
+}

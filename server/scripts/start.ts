@@ -1,0 +1,52 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { loadConfig } from '../config.js';
+import { DEMO_PASSWORD, DEMO_USERS } from '../db/seed/demo-users.js';
+import { buildClient, clientIsStale } from './build-client.js';
+import { ensureDatabaseAndUser, ensureSecretFile, mariaDbPaths, ProvisionError, startMariaDb } from './mariadb.js';
+
+// npm start: private MariaDB, migrations, demo seed, mail sink, client build, one server for app + API.
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+
+async function main(): Promise<void> {
+  process.chdir(root);
+  let config = loadConfig();
+  const p = mariaDbPaths(config.dataDir, config.DB_PORT);
+  console.log(`Data folder: ${config.dataDir}`);
+  const db0 = await startMariaDb(p);
+  console.log(db0.alreadyRunning ? `MariaDB: already running on 127.0.0.1:${p.port} (reused)` : `MariaDB: started on 127.0.0.1:${p.port}`);
+  const password = ensureDatabaseAndUser(p, config.DB_NAME, config.DB_USER, config.DB_PASSWORD);
+  process.env.DB_PASSWORD ??= password;
+  if (!process.env.JWT_SECRET) process.env.JWT_SECRET = ensureSecretFile(config.dataDir, 'jwt-secret', 48);
+  config = loadConfig();
+
+  if (clientIsStale(root)) {
+    console.log('Building the client …');
+    if (!buildClient(root)) throw new Error('The client build failed (see above).');
+  } else {
+    console.log('Client: up to date (dist/).');
+  }
+
+  const { default: db } = await import('../db/data-source.js');
+  await db.initialize();
+  const { migrateAndSeedOn } = await import('./prepare.js');
+  await migrateAndSeedOn(db, { seed: config.DEMO === 'on', log: (l) => console.log(l) });
+
+  const { serve } = await import('../index.js');
+  const running = await serve(db, config, { staticDir: path.join(root, 'dist'), handleSignals: true });
+  console.log('');
+  console.log(`Gapsight is running at ${running.url}`);
+  if (running.sink) console.log(`Mail: local sink on 127.0.0.1:${running.sink.port}; see the Outbox (admin, manager) in the app.`);
+  else console.log(`Mail: SMTP ${config.SMTP_HOST}:${config.SMTP_PORT ?? 587}`);
+  if (config.DEMO === 'on') {
+    console.log(`Demo sign-ins (invented data; password "${DEMO_PASSWORD}"):`);
+    for (const u of DEMO_USERS) console.log(`  ${u.roles.join(', ').padEnd(11)} ${u.email}`);
+  }
+  console.log('Ctrl-C stops the app; `npm run db:stop` stops the private MariaDB.');
+}
+
+main().catch((err) => {
+  console.error(`\nGapsight could not start: ${err instanceof ProvisionError || err instanceof Error ? err.message : String(err)}`);
+  process.exit(1);
+});

@@ -1,0 +1,3 @@
+// Schemas shared by the server (validation at the boundary) and the client (forms).
+export * from './roles.js';
+export * from './auth.js';

@@ -1,0 +1,77 @@
+// Zod schema and inferred types of a screening result (`gapsight-result/1`, public contract: product case-format).
+import { z } from 'zod';
+
+export const levelSchema = z.enum(['ok', 'watch', 'investigate', 'critical']);
+export const recommendationSchema = z.enum(['go', 'conditional', 'no-go']);
+export const methodSchema = z.enum([
+  'capacitance',
+  'power-factor',
+  'reactance',
+  'sweep',
+  'excitation',
+  'resistance',
+  'ratio',
+  'gas',
+  'sisters',
+  'duty',
+]);
+
+export const indicatorSchema = z
+  .looseObject({
+    key: z.string().min(1),
+    value: z.union([z.number(), z.string(), z.boolean(), z.null()]),
+    level: levelSchema,
+    rule: z.string(),
+    source: z.string(),
+    method: methodSchema,
+    note: z.string().optional(),
+    /** Optional: phase or capacitance configuration the indicator is about (used to say where methods agree). */
+    location: z.string().optional(),
+    /** Optional: what the value was compared with ("2019-05-02 baseline", "sisters' median", …). */
+    reference: z.string().optional(),
+  })
+  .refine((i) => i.value !== null || (typeof i.note === 'string' && i.note.length > 0), {
+    message: 'an indicator whose value is null needs a note',
+    path: ['note'],
+  });
+
+export const throughFaultSchema = z.looseObject({
+  category: z.enum(['I', 'II', 'III', 'IV']),
+  ratedCurrentA: z.number(),
+  currentPerUnit: z.number(),
+  maxCurrentPerUnit: z.number(),
+  forceRatioPercent: z.number(),
+  segmentStartPerUnit: z.number(),
+  highDuty: z.boolean(),
+  i2t: z.number(),
+  thermalLimitI2t: z.number(),
+  mechanicalLimitI2t: z.number(),
+  eventDutyPercent: z.number(),
+  beyondCurve: z.boolean(),
+  cumulativeI2t: z.number(),
+  cumulativeDutyPercent: z.number(),
+  shotsAboveSegment: z.number().int(),
+});
+
+export const resultSchema = z.looseObject({
+  format: z.literal('gapsight-result/1'),
+  recommendation: recommendationSchema,
+  reasons: z.array(z.string()),
+  missing: z.array(z.string()),
+  unreliable: z.array(z.string()),
+  followUps: z.array(z.string()),
+  cautions: z.array(z.string()),
+  throughFault: throughFaultSchema.nullable(),
+  indicators: z.array(indicatorSchema),
+  /** Optional additions: the overall level after corroboration and the criteria-set version used. */
+  overallLevel: levelSchema.optional(),
+  criteriaVersion: z.number().int().optional(),
+});
+
+export type Level = z.infer<typeof levelSchema>;
+export type Recommendation = z.infer<typeof recommendationSchema>;
+export type Method = z.infer<typeof methodSchema>;
+export type Indicator = z.infer<typeof indicatorSchema>;
+export type ThroughFault = z.infer<typeof throughFaultSchema>;
+export type IeeeCategory = ThroughFault['category'];
+export type GapsightResult = z.infer<typeof resultSchema>;

@@ -1,0 +1,49 @@
+// Excitation current per phase: change against baseline at the same test voltage, and the outer-phase pattern.
+import type { GapsightCase } from '../schemas/case.js';
+import type { Indicator, Level } from '../schemas/result.js';
+import type { Criteria } from './criteria.js';
+import { describeBands, indicator, levelFromBands, roundSignificant } from './levels.js';
+import { ownReferenceLabel, shiftPercent } from './reference.js';
+
+/** Difference of the two outer phases, in percent of the smaller one. */
+export function outerPhaseDifferencePercent(a: number, c: number): number {
+  return (100 * Math.abs(a - c)) / Math.min(a, c);
+}
+
+export type ExcitationOutcome = { indicators: Indicator[]; unreliable: string[] };
+
+/** Excitation indicators: `excitation.<phase>.changePercent`, `excitation.outerPhaseDifferencePercent`. */
+export function excitationIndicators(c: GapsightCase, criteria: Criteria): ExcitationOutcome {
+  const post = c.postFault?.excitationCurrentMA;
+  const out: Indicator[] = [];
+  const unreliable: string[] = [];
+  if (!post) return { indicators: out, unreliable };
+  const ec = criteria.excitation;
+  const d = criteria.rounding.significantDigits;
+  const base = c.baseline?.excitationCurrentMA;
+  const pkv = c.postFault?.excitationKV;
+  const bkv = c.baseline?.excitationKV;
+  const voltageDiffers = pkv !== undefined && bkv !== undefined && roundSignificant(pkv, d) !== roundSignificant(bkv, d);
+  if (base && voltageDiffers) unreliable.push('excitationCurrentMA');
+  for (const [phase, value] of Object.entries(post)) {
+    const b = base?.[phase];
+    if (b === undefined) continue;
+    const change = shiftPercent(value, b);
+    out.push(
+      indicator(`excitation.${phase}.changePercent`, change, voltageDiffers ? 'ok' : levelFromBands(Math.abs(change), ec.changeBands, d), 'excitation', describeBands(ec.changeBands, ' %', '|change|'), ec.changeSource, {
+        note: voltageDiffers ? `test voltage differs (baseline ${bkv} kV, post-fault ${pkv} kV): not judged` : undefined,
+        location: phase,
+        reference: ownReferenceLabel('baseline', c.baseline?.takenAt),
+      }),
+    );
+  }
+  if (c.unit.phases === 3 && post.A !== undefined && post.C !== undefined) {
+    const diff = outerPhaseDifferencePercent(post.A, post.C);
+    const limit = Math.max(post.A, post.C) < ec.outerSplitMA ? ec.outerLimitBelowSplitPercent : ec.outerLimitFromSplitPercent;
+    const level: Level = levelFromBands(diff, [{ from: limit, level: ec.outerLevel }], d);
+    out.push(
+      indicator('excitation.outerPhaseDifferencePercent', diff, level, 'excitation', `outer phases A and C differ by ≥ ${ec.outerLimitBelowSplitPercent} % (< ${ec.outerSplitMA} mA) or ≥ ${ec.outerLimitFromSplitPercent} % (≥ ${ec.outerSplitMA} mA) → ${ec.outerLevel}`, ec.outerSource),
+    );
+  }
+  return { indicators: out, unreliable };
+}

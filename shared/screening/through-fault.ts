@@ -1,0 +1,175 @@
+// Through-fault duty (IEEE C57.12.00 categories, IEEE C57.109 curves) and the Gapsight cumulative I²t tally.
+import type { Fault, PriorFault, Shot, Unit } from '../schemas/case.js';
+import type { IeeeCategory, Indicator, ThroughFault } from '../schemas/result.js';
+import { criteriaV1, type Criteria } from './criteria.js';
+import { indicator, roundSignificant } from './levels.js';
+
+/** IEEE C57.12.00 category by kVA and phases (upper-inclusive bounds; below the lowest bound counts as I). */
+export function ieeeCategory(ratedKVA: number, phases: 1 | 3, criteria: Criteria = criteriaV1): IeeeCategory {
+  const table = phases === 1 ? criteria.throughFault.categoriesSinglePhase : criteria.throughFault.categoriesThreePhase;
+  for (const row of table) if (row.maxKVA === null || ratedKVA <= row.maxKVA) return row.category;
+  return table[table.length - 1].category;
+}
+
+/** Rated line current of a side in amperes: kVA/(√3·kV) for three-phase units, kVA/kV for single-phase units. */
+export function ratedCurrentA(ratedKVA: number, kV: number, phases: 1 | 3): number {
+  return phases === 3 ? ratedKVA / (Math.sqrt(3) * kV) : ratedKVA / kV;
+}
+
+/** Largest symmetrical through-fault current in per unit: 100/Z% (I, II), 100/(Z% + Zs%) (III, IV); category I capped. */
+export function maxCurrentPerUnit(unit: Unit, category: IeeeCategory, criteria: Criteria = criteriaV1): number {
+  const tf = criteria.throughFault;
+  const z = tf.systemImpedanceCategories.includes(category)
+    ? unit.impedancePercent + (unit.systemImpedancePercent ?? 0)
+    : unit.impedancePercent;
+  const max = 100 / z;
+  return category === 'I' ? Math.min(max, tf.categoryIMaxPerUnit) : max;
+}
+
+/** Mechanical-segment constant K = 2·I_sc² (categories II–IV) or 1250 (category I). */
+export function mechanicalLimitI2t(maxPerUnit: number, category: IeeeCategory, criteria: Criteria = criteriaV1): number {
+  const tf = criteria.throughFault;
+  return category === 'I' ? tf.categoryIMechanicalI2t : tf.mechanicalFactor * maxPerUnit * maxPerUnit;
+}
+
+/** Start of the mechanical segment in per unit: 0.7·I_sc (II), 0.5·I_sc (III, IV), I_sc for category I (no segment). */
+export function segmentStartPerUnit(maxPerUnit: number, category: IeeeCategory, criteria: Criteria = criteriaV1): number {
+  if (category === 'I') return maxPerUnit;
+  return criteria.throughFault.segmentStartFraction[category] * maxPerUnit;
+}
+
+/** Allowed time (s) on the thermal curve at a current (per unit), log–log interpolation; above the top point I²t is
+ * held at the top point's value; below the lowest point there is no through-fault limit (Infinity). */
+export function thermalCurveTimeS(currentPerUnit: number, criteria: Criteria = criteriaV1): number {
+  const pts = [...criteria.throughFault.thermalCurve].sort((a, b) => a[0] - b[0]);
+  const [iLow] = pts[0];
+  const [iTop, tTop] = pts[pts.length - 1];
+  if (currentPerUnit < iLow) return Infinity;
+  if (currentPerUnit >= iTop) return (iTop * iTop * tTop) / (currentPerUnit * currentPerUnit);
+  for (let k = 0; k < pts.length - 1; k++) {
+    const [i0, t0] = pts[k];
+    const [i1, t1] = pts[k + 1];
+    if (currentPerUnit >= i0 && currentPerUnit <= i1) {
+      const f = (Math.log10(currentPerUnit) - Math.log10(i0)) / (Math.log10(i1) - Math.log10(i0));
+      return 10 ** (Math.log10(t0) + f * (Math.log10(t1) - Math.log10(t0)));
+    }
+  }
+  return Infinity;
+}
+
+/** Allowed time (s) on the mechanical segment: K/I². */
+export function mechanicalTimeS(currentPerUnit: number, k: number): number {
+  return k / (currentPerUnit * currentPerUnit);
+}
+
+/** Per-unit currents of a fault's shots (each fault on its own measured side). */
+export function shotsPerUnit(unit: Unit, fault: { side: 'hv' | 'lv'; shots: readonly Shot[] }): number[] {
+  const kV = fault.side === 'hv' ? unit.hvKV : unit.lvKV;
+  const base = ratedCurrentA(unit.ratedKVA, kV, unit.phases);
+  return fault.shots.map((s) => (s.currentKA * 1000) / base);
+}
+
+/** I²t of a fault: Σ over its shots of (per-unit current)²·duration. */
+export function faultI2t(unit: Unit, fault: { side: 'hv' | 'lv'; shots: readonly Shot[] }): number {
+  const pu = shotsPerUnit(unit, fault);
+  return fault.shots.reduce((sum, s, k) => sum + pu[k] * pu[k] * s.durationS, 0);
+}
+
+/** The `throughFault` block of a result: null when there is no fault or it has no shots. */
+export function computeThroughFault(
+  unit: Unit,
+  fault: Fault | undefined | null,
+  priorFaults: readonly PriorFault[] = [],
+  criteria: Criteria = criteriaV1,
+): ThroughFault | null {
+  if (!fault || fault.shots.length === 0) return null;
+  const digits = criteria.rounding.significantDigits;
+  const category = ieeeCategory(unit.ratedKVA, unit.phases, criteria);
+  const kV = fault.side === 'hv' ? unit.hvKV : unit.lvKV;
+  const rated = ratedCurrentA(unit.ratedKVA, kV, unit.phases);
+  const pu = shotsPerUnit(unit, fault);
+  const currentPerUnit = Math.max(...pu);
+  const maxPu = maxCurrentPerUnit(unit, category, criteria);
+  const segment = segmentStartPerUnit(maxPu, category, criteria);
+  const mech = mechanicalLimitI2t(maxPu, category, criteria);
+  const i2t = faultI2t(unit, fault);
+  const highDuty = roundSignificant(currentPerUnit, digits) >= roundSignificant(segment, digits);
+  const totalDurationS = fault.shots.reduce((s, x) => s + x.durationS, 0);
+  const beyondCurve = highDuty
+    ? roundSignificant(i2t, digits) > roundSignificant(mech, digits)
+    : roundSignificant(totalDurationS, digits) > roundSignificant(thermalCurveTimeS(currentPerUnit, criteria), digits);
+  const priorI2t = priorFaults.reduce((s, f) => s + faultI2t(unit, f), 0);
+  const cumulativeI2t = i2t + priorI2t;
+  const allPu = [...pu, ...priorFaults.flatMap((f) => shotsPerUnit(unit, f))];
+  const shotsAboveSegment = allPu.filter((x) => roundSignificant(x, digits) >= roundSignificant(segment, digits)).length;
+  return {
+    category,
+    ratedCurrentA: rated,
+    currentPerUnit,
+    maxCurrentPerUnit: maxPu,
+    forceRatioPercent: 100 * (currentPerUnit / maxPu) ** 2,
+    segmentStartPerUnit: segment,
+    highDuty,
+    i2t,
+    thermalLimitI2t: criteria.throughFault.thermalLimitI2t,
+    mechanicalLimitI2t: mech,
+    eventDutyPercent: (100 * i2t) / mech,
+    beyondCurve,
+    cumulativeI2t,
+    cumulativeDutyPercent: (100 * cumulativeI2t) / mech,
+    shotsAboveSegment,
+  };
+}
+
+/** Whether the frequent-fault count of the category is exceeded (categories II and III; IV has no count rule). */
+export function frequentFaultExceeded(tf: ThroughFault, criteria: Criteria = criteriaV1): boolean {
+  if (tf.category === 'I') return false;
+  const limit = criteria.throughFault.frequentFaultCounts[tf.category];
+  return limit !== null && tf.shotsAboveSegment > limit;
+}
+
+/** Duty indicators (method `duty`: they frame other evidence and never count for corroboration). */
+export function dutyIndicators(tf: ThroughFault | null, criteria: Criteria = criteriaV1): Indicator[] {
+  if (!tf) return [];
+  const c = criteria.throughFault;
+  const digits = criteria.rounding.significantDigits;
+  const out: Indicator[] = [];
+  out.push(
+    indicator(
+      'duty.eventDutyPercent',
+      tf.eventDutyPercent,
+      tf.beyondCurve ? c.beyondCurveLevel : 'ok',
+      'duty',
+      `beyond the through-fault curve (${tf.highDuty ? 'mechanical segment: I²t > K' : 'thermal curve: duration > allowed time'}) → ${c.beyondCurveLevel}`,
+      c.curveSource,
+      { note: tf.beyondCurve ? 'the fault lasted longer than the curve allows' : undefined },
+    ),
+  );
+  const over = roundSignificant(tf.currentPerUnit, digits) > roundSignificant(tf.maxCurrentPerUnit, digits);
+  out.push(
+    indicator(
+      'duty.forceRatioPercent',
+      tf.forceRatioPercent,
+      over ? c.overMaxCurrentLevel : 'ok',
+      'duty',
+      `current above the largest through-fault current (force ratio above 100 %) → ${c.overMaxCurrentLevel}`,
+      c.curveSource,
+      { note: over ? 'current above the design maximum: check the impedances' : undefined },
+    ),
+  );
+  const frequent = frequentFaultExceeded(tf, criteria);
+  const limit = tf.category === 'I' ? null : c.frequentFaultCounts[tf.category];
+  out.push(
+    indicator(
+      'duty.shotsAboveSegment',
+      tf.shotsAboveSegment,
+      frequent ? c.frequentFaultLevel : 'ok',
+      'duty',
+      limit === null ? `category ${tf.category}: no frequent-fault count rule` : `more than ${limit} shots at or above the segment start → ${c.frequentFaultLevel}`,
+      c.frequentFaultSource,
+      { note: frequent ? 'frequent-fault duty' : undefined },
+    ),
+  );
+  out.push(indicator('duty.cumulativeDutyPercent', tf.cumulativeDutyPercent, 'ok', 'duty', 'informative: Gapsight tally of I²t against K', c.tallySource));
+  return out;
+}

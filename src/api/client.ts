@@ -1,0 +1,164 @@
+// The one fetch wrapper of the client: base '/api', bearer token, the server's error shape, 401 handled in one place.
+
+/** Where the session token lives between page loads. */
+export const TOKEN_STORAGE_KEY = 'gapsight.token';
+
+/** Field path → what is wrong with it, as the server names them (`"shots.0.durationS": "must be above zero"`). */
+export type FieldErrors = Record<string, string>;
+
+/** An answer other than 2xx, or no answer at all (status 0), turned into one error the pages can show. */
+export class ApiError extends Error {
+  readonly status: number;
+  readonly code: string;
+  readonly fields: FieldErrors | undefined;
+  /** Seconds to wait before trying again, from a 429's `Retry-After` header. */
+  readonly retryAfterS: number | undefined;
+
+  constructor(status: number, code: string, message: string, fields?: FieldErrors, retryAfterS?: number) {
+    super(message);
+    this.name = 'ApiError';
+    this.status = status;
+    this.code = code;
+    this.fields = fields;
+    this.retryAfterS = retryAfterS;
+  }
+}
+
+// Read the stored token (null when signed out or when storage is unavailable).
+export function readStoredToken(): string | null {
+  try {
+    return globalThis.localStorage?.getItem(TOKEN_STORAGE_KEY) ?? null;
+  } catch {
+    return null;
+  }
+}
+
+// Store or forget the token; the session store is the only caller.
+export function writeStoredToken(token: string | null): void {
+  try {
+    if (token) globalThis.localStorage?.setItem(TOKEN_STORAGE_KEY, token);
+    else globalThis.localStorage?.removeItem(TOKEN_STORAGE_KEY);
+  } catch {
+    // Private mode or storage disabled: the session then lasts as long as the tab.
+  }
+}
+
+type UnauthorizedHandler = (error: ApiError) => void;
+let unauthorizedHandler: UnauthorizedHandler | null = null;
+
+// Register what happens when the server rejects our token (the router clears the session and goes to sign-in).
+export function setUnauthorizedHandler(handler: UnauthorizedHandler | null): void {
+  unauthorizedHandler = handler;
+}
+
+export type QueryValue = string | number | boolean | null | undefined;
+
+export interface RequestOptions {
+  /** JSON-serialisable body, or FormData for uploads. */
+  body?: unknown;
+  /** Added to the URL; null/undefined/'' values are left out. */
+  query?: Record<string, QueryValue>;
+  /** false for the routes that need no sign-in (health, login): no token is sent. */
+  auth?: boolean;
+  signal?: AbortSignal;
+  headers?: Record<string, string>;
+}
+
+const API_BASE = '/api';
+
+function buildUrl(path: string, query?: Record<string, QueryValue>): string {
+  const url = API_BASE + (path.startsWith('/') ? path : `/${path}`);
+  if (!query) return url;
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(query)) {
+    if (value === null || value === undefined || value === '') continue;
+    params.append(key, String(value));
+  }
+  const search = params.toString();
+  return search ? `${url}?${search}` : url;
+}
+
+function isErrorBody(value: unknown): value is { error: { code?: unknown; message?: unknown; fields?: unknown } } {
+  return typeof value === 'object' && value !== null && typeof (value as { error?: unknown }).error === 'object'
+    && (value as { error?: unknown }).error !== null;
+}
+
+async function toApiError(response: Response): Promise<ApiError> {
+  const retryHeader = response.headers.get('Retry-After');
+  const retryAfterS = retryHeader !== null && /^\d+$/.test(retryHeader.trim()) ? Number(retryHeader) : undefined;
+  let body: unknown = null;
+  try {
+    body = await response.json();
+  } catch {
+    // Not JSON (a proxy's HTML page, an empty body): fall back to the status line below.
+  }
+  if (isErrorBody(body)) {
+    const { code, message, fields } = body.error;
+    return new ApiError(
+      response.status,
+      typeof code === 'string' ? code : 'http_error',
+      typeof message === 'string' && message ? message : `The server answered ${response.status}.`,
+      typeof fields === 'object' && fields !== null ? (fields as FieldErrors) : undefined,
+      retryAfterS,
+    );
+  }
+  return new ApiError(
+    response.status,
+    'http_error',
+    `The server answered ${response.status}${response.statusText ? ` ${response.statusText}` : ''}.`,
+    undefined,
+    retryAfterS,
+  );
+}
+
+// Send one request to the API and return its parsed JSON (undefined for 204); throws ApiError on anything else.
+export async function apiRequest<T>(method: string, path: string, options: RequestOptions = {}): Promise<T> {
+  const { body, query, auth = true, signal } = options;
+  const headers: Record<string, string> = { Accept: 'application/json', ...options.headers };
+  const sentToken = auth ? readStoredToken() : null;
+  if (sentToken) headers.Authorization = `Bearer ${sentToken}`;
+
+  let payload: BodyInit | undefined;
+  if (body instanceof FormData) {
+    payload = body; // the browser sets the multipart boundary itself
+  } else if (body !== undefined) {
+    headers['Content-Type'] = 'application/json';
+    payload = JSON.stringify(body);
+  }
+
+  let response: Response;
+  try {
+    response = await fetch(buildUrl(path, query), { method, headers, body: payload, signal });
+  } catch (cause) {
+    if (signal?.aborted) throw cause;
+    throw new ApiError(0, 'network_error', 'Cannot reach the Gapsight server. Check the connection and try again.');
+  }
+
+  if (!response.ok) {
+    const error = await toApiError(response);
+    // Only a token we sent that is still the current one ends the session: a wrong password at sign-in is
+    // an ordinary error, and a burst of parallel 401s for the same token is handled once.
+    if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) {
+      unauthorizedHandler(error);
+    }
+    throw error;
+  }
+
+  if (response.status === 204) return undefined as T;
+  const text = await response.text();
+  if (!text) return undefined as T;
+  try {
+    return JSON.parse(text) as T;
+  } catch {
+    throw new ApiError(response.status, 'invalid_response', 'The server sent an answer the app could not read.');
+  }
+}
+
+// Shorthands for the usual verbs.
+export const api = {
+  get: <T>(path: string, options?: Omit<RequestOptions, 'body'>) => apiRequest<T>('GET', path, options),
+  post: <T>(path: string, body?: unknown, options?: RequestOptions) => apiRequest<T>('POST', path, { ...options, body }),
+  patch: <T>(path: string, body?: unknown, options?: RequestOptions) => apiRequest<T>('PATCH', path, { ...options, body }),
+  put: <T>(path: string, body?: unknown, options?: RequestOptions) => apiRequest<T>('PUT', path, { ...options, body }),
+  delete: <T>(path: string, options?: RequestOptions) => apiRequest<T>('DELETE', path, options),
+};

@@ -1,0 +1,21 @@
+// The client's entry point: Quasar with Gapsight's brand, Pinia, the router; fonts and icons bundled (no CDN).
+import { createApp } from 'vue';
+import { createPinia } from 'pinia';
+import { Quasar } from 'quasar';
+
+import '@fontsource/roboto-condensed/400.css';
+import '@fontsource/roboto-condensed/500.css';
+import '@fontsource/roboto-condensed/700.css';
+import '@quasar/extras/material-icons/material-icons.css';
+import 'quasar/dist/quasar.css';
+import './css/app.css';
+
+import App from './App.vue';
+import { quasarOptions } from './quasar-options';
+import { createAppRouter } from './router';
+
+const app = createApp(App);
+app.use(createPinia()); // before the router: its guards read the session store
+app.use(Quasar, quasarOptions);
+app.use(createAppRouter());
+app.mount('#app');

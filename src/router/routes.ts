@@ -1,0 +1,63 @@
+// The route table. Every route is named and lazy-loaded; params reach pages as props (`props: true`);
+// `meta.roles` limits a route to those roles; `meta.nav` puts it in the drawer (filtered by the same roles).
+// Pages added later (fleet, events, criteria, administration, outbox) only need an entry here to appear in the drawer.
+import type { RouteRecordRaw } from 'vue-router';
+import type { Role } from '../api/auth';
+
+export interface NavEntry {
+  label: string;
+  /** A Material Icons ligature name, e.g. 'space_dashboard'. */
+  icon: string;
+  /** Shown only while the server's local mail sink runs (the outbox). */
+  requiresMailSink?: boolean;
+}
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** Reachable without signing in. */
+    public?: boolean;
+    /** Only users holding at least one of these roles (absent = any signed-in user). */
+    roles?: Role[];
+    /** An entry in the shell's navigation drawer. */
+    nav?: NavEntry;
+    /** The browser tab's title, before " · Gapsight". */
+    title?: string;
+  }
+}
+
+export const routes: RouteRecordRaw[] = [
+  {
+    path: '/sign-in',
+    name: 'sign-in',
+    component: () => import('../pages/SignInPage.vue'),
+    meta: { public: true, title: 'Sign in' },
+  },
+  {
+    // The shell (header, drawer, footer) around every signed-in page. Only its children are named:
+    // a named parent with an empty-path child makes `{ name: parent }` render no page.
+    path: '/',
+    component: () => import('../layouts/AppShellLayout.vue'),
+    children: [
+      {
+        path: '',
+        name: 'desk',
+        component: () => import('../pages/DeskPage.vue'),
+        meta: { title: 'Desk', nav: { label: 'Desk', icon: 'space_dashboard' } },
+      },
+      {
+        path: 'forbidden',
+        name: 'forbidden',
+        component: () => import('../pages/ForbiddenPage.vue'),
+        meta: { title: 'Not allowed' },
+      },
+      {
+        // Catch-all: must stay the last route of the table.
+        path: ':pathMatch(.*)*',
+        name: 'not-found',
+        component: () => import('../pages/NotFoundPage.vue'),
+        props: true,
+        meta: { title: 'Not found' },
+      },
+    ],
+  },
+];

@@ -1,0 +1,63 @@
+// The signed-in user and their token — the one piece of state every page shares.
+import { defineStore } from 'pinia';
+import { computed, ref } from 'vue';
+import { ApiError, readStoredToken, writeStoredToken } from '../api/client';
+import { login, me, type Role, type SessionUser } from '../api/auth';
+
+export const useSessionStore = defineStore('session', () => {
+  const token = ref<string | null>(readStoredToken());
+  const user = ref<SessionUser | null>(null);
+  /** Set when the stored token could not be checked because the server did not answer (not when it was refused). */
+  const restoreError = ref<ApiError | null>(null);
+  let restoring: Promise<void> | null = null;
+
+  const isSignedIn = computed(() => token.value !== null && user.value !== null);
+
+  // True when the user holds at least one of the given roles.
+  function hasRole(...roles: Role[]): boolean {
+    const held = user.value?.roles ?? [];
+    return roles.some((role) => held.includes(role));
+  }
+
+  // Sign in with e-mail and password; a refusal is thrown as ApiError for the form to show.
+  async function signIn(email: string, password: string): Promise<SessionUser> {
+    const answer = await login(email.trim(), password);
+    writeStoredToken(answer.token);
+    token.value = answer.token;
+    user.value = answer.user;
+    restoreError.value = null;
+    restoring = null;
+    return answer.user;
+  }
+
+  // Forget the token and the user (the server keeps no session: a JWT simply stops being sent).
+  function signOut(): void {
+    writeStoredToken(null);
+    token.value = null;
+    user.value = null;
+    restoring = null;
+  }
+
+  // After a page load: ask the server who the stored token belongs to. Runs once; a refused token signs out.
+  function restore(): Promise<void> {
+    if (!token.value || user.value) return Promise.resolve();
+    if (restoring) return restoring;
+    restoring = (async () => {
+      try {
+        user.value = await me();
+        restoreError.value = null;
+      } catch (error) {
+        if (error instanceof ApiError && error.status === 401) {
+          signOut();
+        } else {
+          // The server is down or answered oddly: keep the token so a reload can succeed, but stay signed out for now.
+          restoreError.value = error instanceof ApiError ? error : new ApiError(0, 'unknown', String(error));
+          restoring = null;
+        }
+      }
+    })();
+    return restoring;
+  }
+
+  return { token, user, restoreError, isSignedIn, hasRole, signIn, signOut, restore };
+});

@@ -1,0 +1,135 @@
+import { spawn, spawnSync } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
+import { mkdtempSync, rmSync } from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { buildClient } from '../server/scripts/build-client.js';
+import { ensureDatabaseAndUser, mariaDbPaths, startMariaDb, stopMariaDb, type MariaDbPaths } from '../server/scripts/mariadb.js';
+
+// `npm test`: type checks, a throw-away MariaDB (temporary datadir, free port), migrations, the client built once,
+// then every Vitest project. This one outer process owns the database, so it is stopped even when vitest crashes.
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+process.chdir(root);
+const vitestArgs = process.argv.slice(2);
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.once('error', reject);
+    s.listen(0, '127.0.0.1', () => {
+      const a = s.address();
+      s.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
+    });
+  });
+}
+
+function step(title: string): void {
+  console.log(`\n▶ ${title}`);
+}
+
+let tmp: string | null = null;
+let paths: MariaDbPaths | null = null;
+let child: ReturnType<typeof spawn> | null = null;
+let cleaning: Promise<void> | null = null;
+
+function cleanup(): Promise<void> {
+  return (cleaning ??= (async () => {
+    if (child && child.exitCode === null) child.kill('SIGTERM');
+    if (paths) await stopMariaDb(paths).catch(() => undefined);
+    if (tmp) rmSync(tmp, { recursive: true, force: true });
+  })());
+}
+
+for (const sig of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
+  process.once(sig, () => {
+    console.error(`\n${sig}: stopping the test database …`);
+    cleanup().finally(() => process.exit(130));
+  });
+}
+
+async function main(): Promise<number> {
+  let failures = 0;
+  const bin = (name: string) => path.join(root, 'node_modules', '.bin', name);
+
+  if (!process.env.SKIP_TYPECHECK) {
+    step('Type check: client (vue-tsc) and server (tsc)');
+    for (const [name, args] of [
+      ['vue-tsc', ['--noEmit', '-p', 'tsconfig.json']],
+      ['tsc', ['--noEmit', '-p', 'server/tsconfig.json']],
+    ] as const) {
+      const r = spawnSync(bin(name), [...args], { stdio: 'inherit' });
+      if (r.status !== 0) {
+        console.error(`✗ ${name} found type errors`);
+        failures++;
+      } else console.log(`✓ ${name}`);
+    }
+  }
+
+  step('Throw-away MariaDB');
+  tmp = mkdtempSync(path.join(os.tmpdir(), 'gapsight-test-'));
+  const dbPort = await freePort();
+  paths = mariaDbPaths(path.join(tmp, 'db'), dbPort);
+  await startMariaDb(paths, { bufferPoolMB: 128 });
+  const dbPassword = randomBytes(12).toString('hex');
+  ensureDatabaseAndUser(paths, 'gapsight_test', 'gapsight', dbPassword);
+  console.log(`✓ MariaDB on 127.0.0.1:${dbPort} (datadir ${paths.datadir})`);
+
+  Object.assign(process.env, {
+    DATA_DIR: path.join(tmp, 'data'),
+    DB_HOST: '127.0.0.1',
+    DB_PORT: String(dbPort),
+    DB_NAME: 'gapsight_test',
+    DB_USER: 'gapsight',
+    DB_PASSWORD: dbPassword,
+    JWT_SECRET: randomBytes(32).toString('hex'),
+    DEMO: 'on',
+    PORT: '0',
+    MAIL_SINK_PORT: '0',
+    TEST_DB_SOCKET: paths.socket,
+    TEST_DB_PID_FILE: paths.pidFile,
+  });
+  delete process.env.SMTP_HOST;
+
+  step('Migrations');
+  const { default: db } = await import('../server/db/data-source.js');
+  await db.initialize();
+  const ran = await db.runMigrations({ transaction: 'each' });
+  await db.destroy();
+  console.log(`✓ ${ran.length} migration(s) applied`);
+
+  if (!process.env.SKIP_E2E_BUILD) {
+    step('Client build for the browser tests');
+    const out = path.join(tmp, 'dist');
+    if (!buildClient(root, out, true)) {
+      console.error('✗ client build failed');
+      failures++;
+    } else console.log('✓ built');
+    process.env.E2E_DIST = out;
+  }
+
+  step('Vitest');
+  const code: number = await new Promise((resolve) => {
+    child = spawn(process.execPath, [path.join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', ...vitestArgs], {
+      stdio: 'inherit',
+      env: process.env,
+    });
+    child.on('exit', (c, sig) => resolve(c ?? (sig ? 1 : 0)));
+  });
+  if (code !== 0) failures++;
+  return failures;
+}
+
+main()
+  .then(async (failures) => {
+    await cleanup();
+    if (failures) console.error(`\n✗ npm test: ${failures} step(s) failed`);
+    process.exit(failures ? 1 : 0);
+  })
+  .catch(async (err) => {
+    console.error(err);
+    await cleanup();
+    process.exit(1);
+  });

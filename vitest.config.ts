@@ -1,0 +1,36 @@
+import { defineConfig } from 'vitest/config';
+import vue from '@vitejs/plugin-vue';
+import { quasar, transformAssetUrls } from '@quasar/vite-plugin';
+
+// Four projects: pure engine, API against a real MariaDB (one file at a time), client components, browser.
+export default defineConfig({
+  test: {
+    projects: [
+      { test: { name: 'shared', environment: 'node', include: ['tests/shared/**/*.test.ts'] } },
+      {
+        test: {
+          name: 'server',
+          environment: 'node',
+          include: ['tests/server/**/*.test.ts'],
+          fileParallelism: false,
+          testTimeout: 30000,
+          hookTimeout: 60000,
+        },
+      },
+      {
+        plugins: [vue({ template: { transformAssetUrls } }), quasar()],
+        test: { name: 'client', environment: 'happy-dom', include: ['tests/client/**/*.test.ts'] },
+      },
+      {
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['tests/e2e/**/*.test.ts'],
+          fileParallelism: false,
+          testTimeout: 60000,
+          hookTimeout: 120000,
+        },
+      },
+    ],
+  },
+});
