@@ -1,8 +1,8 @@
 // Power factor from dissipation factor, corrected to 20 °C, judged on its change against the baseline.
 import type { GapsightCase } from '../schemas/case.js';
-import type { Indicator } from '../schemas/result.js';
+import type { Indicator, Level } from '../schemas/result.js';
 import type { Criteria } from './criteria.js';
-import { capLevel, describeBands, indicator, levelFromBands, roundSignificant } from './levels.js';
+import { describeBands, indicator, levelFromBands, roundSignificant } from './levels.js';
 import { ownReferenceLabel } from './reference.js';
 
 /** PF = DF/√(1 + DF²), both as fractions (0.0028 for 0.28 %). */
@@ -53,10 +53,10 @@ export function powerFactorIndicators(c: GapsightCase, criteria: Criteria, unrel
         : post === null
           ? `insulation temperature ${t} °C outside the correction table (${range})`
           : undefined;
-    let level = post === null || unreliable ? 'ok' : roundSignificant(post, digits) > roundSignificant(pfc.absoluteWatchPercent, digits) ? 'watch' : 'ok';
-    level = capLevel(level as 'ok' | 'watch', 'watch');
+    // Inclusive lower end like every band (case format, "Rules that decide numbers"); watch is the most it can give.
+    const level: Level = post === null || unreliable ? 'ok' : levelFromBands(post, [{ from: pfc.absoluteWatchPercent, level: 'watch' }], digits);
     out.push(
-      indicator(`powerFactor.${cfg}.pf20Percent`, post, level, 'power-factor', `PF20 above ${pfc.absoluteWatchPercent} % → watch (at most)`, `${pfc.absoluteSource}; ${pfc.temperatureSource}`, {
+      indicator(`powerFactor.${cfg}.pf20Percent`, post, level, 'power-factor', `PF20 ≥ ${pfc.absoluteWatchPercent} % → watch (at most)`, `${pfc.absoluteSource}; ${pfc.temperatureSource}`, {
         note: unreliable ? [note, 'configuration unreliable: not judged'].filter(Boolean).join('; ') : note,
         location: cfg,
       }),

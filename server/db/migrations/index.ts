@@ -1,4 +1,5 @@
-import { Init1796177966222 } from './1796177966222-init.js';
+import { Init1796178199079 } from './1796178199079-init.js';
+import { CriteriaV11796178199080 } from './1796178199080-criteria-v1.js';
 
 // Migrations in order, imported as classes (globs of .ts files break under vitest).
-export const migrations = [Init1796177966222];
+export const migrations = [Init1796178199079, CriteriaV11796178199080];

@@ -1,0 +1,57 @@
+import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn, type Relation } from 'typeorm';
+import { Unit } from '../units/unit.entity.js';
+
+export type EventStatus = 'logged' | 'testing' | 'screened' | 'held' | 'released';
+
+// A through-fault logged by protection: shots measured on one side, which protections operated, whether it tripped.
+@Entity({ name: 'fault_event' })
+@Index(['unitId', 'occurredAt'])
+@Index(['status', 'occurredAt'])
+@Index(['occurredAt'])
+export class FaultEvent {
+  @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
+  id!: number;
+
+  @Column({ type: 'int', unsigned: true })
+  unitId!: number;
+
+  @ManyToOne(() => Unit, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'unitId' })
+  unit!: Relation<Unit>;
+
+  @Column({ type: 'datetime', precision: 3 })
+  occurredAt!: Date;
+
+  @Column({ type: 'varchar', length: 30 })
+  type!: 'three-phase' | 'phase-to-phase' | 'phase-to-phase-to-ground' | 'phase-to-ground';
+
+  @Column({ type: 'varchar', length: 10, nullable: true })
+  faultedPhases!: string | null;
+
+  @Column({ type: 'varchar', length: 2 })
+  side!: 'hv' | 'lv';
+
+  @Column({ type: 'json' })
+  shots!: { currentKA: number; durationS: number }[];
+
+  @Column({ type: 'boolean', default: true })
+  transformerTripped!: boolean;
+
+  @Column({ type: 'json' })
+  protectionOperated!: string[];
+
+  @Column({ type: 'text', nullable: true })
+  notes!: string | null;
+
+  @Column({ type: 'varchar', length: 12, default: 'logged' })
+  status!: EventStatus;
+
+  @Column({ type: 'int', unsigned: true, nullable: true })
+  createdById!: number | null;
+
+  @CreateDateColumn({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  createdAt!: Date;
+
+  @UpdateDateColumn({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)', onUpdate: 'CURRENT_TIMESTAMP(3)' })
+  updatedAt!: Date;
+}

@@ -1,0 +1,40 @@
+import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+
+// One e-mail to send: queued after the screening's transaction commits, retried on failure.
+@Entity({ name: 'notification' })
+@Index(['status', 'createdAt'])
+@Index(['eventId'])
+export class Notification {
+  @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
+  id!: number;
+
+  @Column({ type: 'int', unsigned: true, nullable: true })
+  eventId!: number | null;
+
+  @Column({ type: 'int', unsigned: true, nullable: true })
+  screeningId!: number | null;
+
+  @Column({ type: 'varchar', length: 254 })
+  to!: string;
+
+  @Column({ type: 'varchar', length: 500 })
+  subject!: string;
+
+  @Column({ type: 'varchar', length: 10, default: 'queued' })
+  status!: 'queued' | 'sent' | 'failed';
+
+  @Column({ type: 'int', unsigned: true, default: 0 })
+  attempts!: number;
+
+  @Column({ type: 'text', nullable: true })
+  lastError!: string | null;
+
+  @Column({ type: 'datetime', precision: 3, nullable: true })
+  sentAt!: Date | null;
+
+  @Column({ type: 'varchar', length: 255, nullable: true })
+  messageId!: string | null;
+
+  @CreateDateColumn({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  createdAt!: Date;
+}

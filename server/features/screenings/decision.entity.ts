@@ -1,0 +1,36 @@
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Screening } from './screening.entity.js';
+
+// The manager's sign-off on a screening: release, release with restrictions, or hold, with a reason.
+@Entity({ name: 'decision' })
+export class Decision {
+  @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
+  id!: number;
+
+  @Index({ unique: true })
+  @Column({ type: 'int', unsigned: true })
+  screeningId!: number;
+
+  @ManyToOne(() => Screening, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'screeningId' })
+  screening!: Relation<Screening>;
+
+  @Column({ type: 'int', unsigned: true })
+  managerId!: number;
+
+  @Column({ type: 'varchar', length: 30 })
+  outcome!: 'release' | 'release-with-restrictions' | 'hold';
+
+  @Column({ type: 'text', nullable: true })
+  restrictions!: string | null;
+
+  @Column({ type: 'text' })
+  reason!: string;
+
+  /** The outcome goes against the recommendation (highlighted in the audit trail). */
+  @Column({ type: 'boolean', default: false })
+  againstRecommendation!: boolean;
+
+  @Column({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  signedAt!: Date;
+}

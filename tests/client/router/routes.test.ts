@@ -1,0 +1,48 @@
+import { describe, expect, it } from 'vitest';
+import type { RouteRecordRaw } from 'vue-router';
+import { routes } from '../../../src/router/routes';
+
+function flatten(records: readonly RouteRecordRaw[]): RouteRecordRaw[] {
+  return records.flatMap((record) => [record, ...flatten(record.children ?? [])]);
+}
+
+describe('route table', () => {
+  const all = flatten(routes);
+  const pages = all.filter((record) => !record.children?.length);
+
+  it('names every page route, each name once', () => {
+    const names = pages.map((record) => record.name);
+    expect(names.every((name) => typeof name === 'string' && name.length > 0)).toBe(true);
+    expect(new Set(names).size).toBe(names.length);
+  });
+
+  it('loads every page and layout lazily (a function returning a promise of the module)', async () => {
+    for (const record of all.filter((r) => 'component' in r && r.component)) {
+      const component = (record as { component: unknown }).component;
+      expect(typeof component, String(record.name ?? record.path)).toBe('function');
+      const loaded = (component as () => Promise<{ default: unknown }>)();
+      expect(loaded).toBeInstanceOf(Promise);
+      await expect(loaded).resolves.toHaveProperty('default');
+    }
+  });
+
+  it('passes params to pages as props wherever a path has params', () => {
+    const withParams = pages.filter((record) => /:/.test(record.path));
+    expect(withParams.length).toBeGreaterThan(0);
+    for (const record of withParams) expect(record.props, record.path).toBe(true);
+  });
+
+  it('keeps the catch-all not-found route last', () => {
+    expect(all.at(-1)?.name).toBe('not-found');
+    expect(all.at(-1)?.path).toBe(':pathMatch(.*)*');
+  });
+
+  it('has the shell pages: sign-in (public), desk, forbidden and not-found', () => {
+    const byName = new Map(pages.map((record) => [record.name, record]));
+    expect(byName.get('sign-in')?.path).toBe('/sign-in');
+    expect(byName.get('sign-in')?.meta?.public).toBe(true);
+    expect(byName.get('desk')?.meta?.nav).toEqual({ label: 'Desk', icon: 'space_dashboard' });
+    expect(byName.has('forbidden')).toBe(true);
+    expect(pages.filter((record) => record.meta?.public).map((record) => record.name)).toEqual(['sign-in']);
+  });
+});
