@@ -1,3 +1,5 @@
 // The four screening levels of the engine, in rising order of concern (the result format's `level` values).
-export const LEVELS = ['ok', 'watch', 'investigate', 'critical'] as const;
-export type Level = (typeof LEVELS)[number];
+import type { Level } from '../shared/schemas/result';
+
+export type { Level };
+export const LEVELS: readonly Level[] = ['ok', 'watch', 'investigate', 'critical'];

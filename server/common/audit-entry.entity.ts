@@ -24,10 +24,10 @@ export class AuditEntry {
   entityId!: string;
 
   @Column({ type: 'json', nullable: true })
-  before!: unknown;
+  before!: Record<string, unknown> | unknown[] | null;
 
   @Column({ type: 'json', nullable: true })
-  after!: unknown;
+  after!: Record<string, unknown> | unknown[] | null;
 
   @Column({ type: 'boolean', default: false })
   highlighted!: boolean;

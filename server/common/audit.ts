@@ -14,14 +14,17 @@ export interface AuditInput {
 
 /** Records one audited write inside the caller's transaction. */
 export async function audit(manager: EntityManager, a: AuditInput): Promise<void> {
-  await manager.insert(AuditEntry, {
+  const repo = manager.getRepository(AuditEntry);
+  await repo.save(
+    repo.create({
     userId: a.userId,
     action: a.action,
     entity: a.entity,
     entityId: String(a.entityId),
-    before: a.before ?? null,
-    after: a.after ?? null,
+    before: (a.before ?? null) as AuditEntry['before'],
+    after: (a.after ?? null) as AuditEntry['after'],
     highlighted: a.highlighted ?? false,
     note: a.note ?? null,
-  });
+    }),
+  );
 }

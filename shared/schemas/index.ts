@@ -1,3 +1,4 @@
 // Schemas shared by the server (validation at the boundary) and the client (forms).
 export * from './roles.js';
 export * from './auth.js';
+export * from './fleet.js';

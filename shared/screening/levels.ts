@@ -40,11 +40,6 @@ export function levelFromBands(value: number, bands: readonly Band[], digits: nu
   return level;
 }
 
-/** The lower end of the band that gave `level` (for reasons: "investigate from 3 %"). */
-export function bandStart(bands: readonly Band[], level: Level): number | undefined {
-  return bands.find((b) => b.level === level)?.from;
-}
-
 /** Human text of a band set: "watch ≥ 2, investigate ≥ 3, critical ≥ 5". */
 export function describeBands(bands: readonly Band[], unit: string, subject: string): string {
   return `${subject}: ${bands.map((b) => `${b.level} ≥ ${b.from}${unit}`).join(', ')}`;

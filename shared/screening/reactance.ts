@@ -60,11 +60,6 @@ export function phaseSpreadPercent(values: readonly number[]): number {
   return (100 * (Math.max(...values) - Math.min(...values))) / mean;
 }
 
-/** The phases a unit must have: A, B, C (three-phase) or any one phase (single-phase). */
-export function requiredReactancePhases(unit: Unit): string[] {
-  return unit.phases === 3 ? ['A', 'B', 'C'] : [];
-}
-
 export type ReactanceOutcome = { indicators: Indicator[]; unreliable: string[] };
 
 const tapText = (t: string | number | undefined) => (t === undefined ? '' : String(t));

@@ -2,7 +2,7 @@
 import { median } from 'simple-statistics';
 import type { Indicator, Level, Method } from '../schemas/result.js';
 import type { Band, Criteria } from './criteria.js';
-import { bandStart, capLevel, indicator, levelFromBands } from './levels.js';
+import { capLevel, indicator, levelFromBands } from './levels.js';
 
 export type Reference = {
   value: number;
@@ -73,10 +73,4 @@ export function shiftIndicator(args: {
     location: args.location,
     reference: reference.label,
   });
-}
-
-/** Lower end of the band that produced a level, scaled (for reasons). */
-export function thresholdFor(bands: readonly Band[], level: Level, scale = 1): number | undefined {
-  const from = bandStart(bands, level);
-  return from === undefined ? undefined : from * scale;
 }

@@ -1,9 +1,9 @@
 // Sign-in, the current user and the server's health — the API calls the shell needs before anything else.
-// The types mirror /api/auth/* in the API contract; when shared/schemas exports them, import them from there instead.
+// Role comes from shared/schemas; the answer shapes follow /api/auth/* in the API contract (docs: product/api.md).
+import type { Role } from '../../shared/schemas/roles';
 import { api } from './client';
 
-export const ROLES = ['admin', 'protection', 'tester', 'manager', 'engineer'] as const;
-export type Role = (typeof ROLES)[number];
+export type { Role };
 
 export interface SessionUser {
   id: number;

@@ -27,7 +27,7 @@ export async function listUsers(db: DataSource): Promise<UserDto[]> {
 export async function createUser(db: DataSource, actorId: number | null, input: UserCreate, opts: { demo?: boolean; passwordHash?: string } = {}): Promise<UserDto> {
   return db.transaction(async (m) => {
     const email = input.email.trim().toLowerCase();
-    if (await m.getRepository(User).exist({ where: { email } })) {
+    if (await m.getRepository(User).exists({ where: { email } })) {
       throw new AppError('email_taken', 'A user with this e-mail already exists.', 409, { email: 'already in use' });
     }
     const user = m.getRepository(User).create({

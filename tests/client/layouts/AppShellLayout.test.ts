@@ -110,6 +110,15 @@ describe('AppShellLayout', () => {
     expect(wrapper.get('nav#app-nav').attributes('aria-label')).toBe('Main navigation');
   });
 
+  it('marks the entry of the page on screen as the current page', async () => {
+    signedInAs(makeUser({ roles: ['engineer'] }));
+    const { wrapper } = await mountApp('/criteria', { routes: tableWithLaterPages });
+
+    const current = wrapper.findAll('#app-nav a.q-item').filter((link) => link.attributes('aria-current') === 'page');
+    expect(current.map((link) => link.get('.app-nav__label').text())).toEqual(['Criteria']);
+    expect(current[0].classes()).toContain('app-nav__active');
+  });
+
   it('offers a "Skip to content" link to the main region', async () => {
     signedInAs(makeUser());
     const { wrapper } = await mountApp('/');

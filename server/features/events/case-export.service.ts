@@ -1,0 +1,127 @@
+import { In, LessThan, Not, type EntityManager } from 'typeorm';
+import { mergeReadingSets } from '../../../shared/readings/merge.js';
+import type { GapsightCase, ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
+import { notFound } from '../../common/app-error.js';
+import { ReadingSet } from '../readings/reading-set.entity.js';
+import { loadCaseReadingSets } from '../readings/readings.service.js';
+import { SweepTrace } from '../readings/sweep-trace.entity.js';
+import { Unit } from '../units/unit.entity.js';
+import { FaultEvent } from './fault-event.entity.js';
+
+/** The unit block of a case, from the unit and its design. */
+export function caseUnit(unit: Unit): GapsightCase['unit'] {
+  const d = unit.design;
+  return {
+    serial: unit.serial,
+    phases: unit.phases,
+    ratedKVA: unit.ratedKVA,
+    hvKV: unit.hvKV,
+    lvKV: unit.lvKV,
+    impedancePercent: unit.impedancePercent,
+    systemImpedancePercent: unit.systemImpedancePercent,
+    windings: d.windings,
+    vectorGroup: d.vectorGroup,
+    conductor: unit.conductor,
+    ...(d.requiredCapacitance.length ? { requiredCapacitance: d.requiredCapacitance } : {}),
+  };
+}
+
+const isReferenceSet = (s: ReadingSet) => s.kind === 'factory' || s.kind === 'commissioning' || (s.isReference && s.kind !== 'post-fault');
+
+function mergeOf(sets: ReadingSet[], values: Map<number, CaseReadingSet>): CaseReadingSet | undefined {
+  return mergeReadingSets(sets.map((s) => values.get(s.id)!).filter(Boolean));
+}
+
+function isEmptySet(s: CaseReadingSet | undefined): boolean {
+  return !s || Object.keys(s).every((k) => ['takenAt', 'temperatureC', 'tapPosition'].includes(k));
+}
+
+/**
+ * Assembles the `gapsight-case/1` of an event from the database: the baseline is the newest value of each quantity over
+ * the reference sets (factory, commissioning, or marked) taken before the fault; `previous` the same over routine sets
+ * before the fault; `postFault` the merge of all the event's sessions (newest value per quantity); prior faults are
+ * the unit's earlier events; sisters are the other units of the design with their latest (non post-fault) readings;
+ * each post-fault sweep label (newest trace) is paired with the newest baseline trace of that label.
+ */
+export async function buildEventCase(m: EntityManager, eventId: number): Promise<GapsightCase> {
+  const event = await m.getRepository(FaultEvent).findOne({ where: { id: eventId } });
+  if (!event) throw notFound('Event');
+  const unit = await m.getRepository(Unit).findOneOrFail({ where: { id: event.unitId }, relations: { design: true } });
+
+  const ownSets = await m.getRepository(ReadingSet).find({ where: { unitId: unit.id }, order: { takenAt: 'ASC', id: 'ASC' } });
+  const before = (s: ReadingSet) => s.takenAt.getTime() < event.occurredAt.getTime();
+  const referenceSets = ownSets.filter((s) => isReferenceSet(s) && before(s));
+  const routineSets = ownSets.filter((s) => s.kind === 'routine' && !s.isReference && before(s));
+  const sessions = ownSets.filter((s) => s.kind === 'post-fault' && s.eventId === event.id);
+  const values = await loadCaseReadingSets(m, [...referenceSets, ...routineSets, ...sessions]);
+
+  const priorEvents = await m.getRepository(FaultEvent).find({
+    where: { unitId: unit.id, occurredAt: LessThan(event.occurredAt), id: Not(event.id) },
+    order: { occurredAt: 'ASC', id: 'ASC' },
+  });
+
+  const sisterUnits = await m.getRepository(Unit).find({ where: { designId: unit.designId, id: Not(unit.id) }, order: { serial: 'ASC' } });
+  const sisterSets = sisterUnits.length
+    ? await m.getRepository(ReadingSet).find({ where: { unitId: In(sisterUnits.map((u) => u.id)), kind: Not('post-fault') }, order: { takenAt: 'ASC', id: 'ASC' } })
+    : [];
+  const sisterValues = await loadCaseReadingSets(m, sisterSets);
+  const sisters = sisterUnits
+    .map((u) => {
+      const merged = mergeOf(sisterSets.filter((s) => s.unitId === u.id), sisterValues);
+      return isEmptySet(merged) ? null : { serial: u.serial, ...merged! };
+    })
+    .filter((s): s is NonNullable<typeof s> => s !== null);
+
+  const sweeps = await eventSweeps(m, sessions, referenceSets, routineSets);
+
+  const baseline = mergeOf(referenceSets, values);
+  const previous = mergeOf(routineSets, values);
+  const postFault = mergeOf(sessions, values);
+  const c: GapsightCase = {
+    format: 'gapsight-case/1',
+    unit: caseUnit(unit),
+    fault: {
+      occurredAt: event.occurredAt.toISOString(),
+      type: event.type,
+      side: event.side,
+      transformerTripped: event.transformerTripped,
+      protectionOperated: event.protectionOperated as NonNullable<GapsightCase['fault']>['protectionOperated'],
+      shots: event.shots,
+    },
+    priorFaults: priorEvents.map((p) => ({ occurredAt: p.occurredAt.toISOString(), type: p.type, side: p.side, shots: p.shots })),
+    ...(baseline && !isEmptySet(baseline) ? { baseline } : {}),
+    ...(previous && !isEmptySet(previous) ? { previous } : {}),
+    ...(postFault && !isEmptySet(postFault) ? { postFault } : {}),
+    ...(sisters.length ? { sisters } : {}),
+    ...(sweeps.length ? { sweeps } : {}),
+  };
+  return c;
+}
+
+async function eventSweeps(m: EntityManager, sessions: ReadingSet[], referenceSets: ReadingSet[], routineSets: ReadingSet[]): Promise<NonNullable<GapsightCase['sweeps']>> {
+  if (!sessions.length) return [];
+  const setIds = [...sessions, ...referenceSets, ...routineSets].map((s) => s.id);
+  const traces = await m.getRepository(SweepTrace).find({ where: { readingSetId: In(setIds) } });
+  const setTime = new Map([...sessions, ...referenceSets, ...routineSets].map((s) => [s.id, s.takenAt.getTime()]));
+  const newestFirst = (a: SweepTrace, b: SweepTrace) => setTime.get(b.readingSetId)! - setTime.get(a.readingSetId)! || b.id - a.id;
+  const inSets = (sets: ReadingSet[]) => {
+    const ids = new Set(sets.map((s) => s.id));
+    return traces.filter((t) => ids.has(t.readingSetId)).sort(newestFirst);
+  };
+  const post = inSets(sessions);
+  const refs = inSets(referenceSets);
+  const routine = inSets(routineSets);
+  const labels = [...new Set(post.map((t) => t.label))].sort();
+  return labels.map((label) => {
+    const p = post.find((t) => t.label === label)!;
+    const b = refs.find((t) => t.label === label) ?? routine.find((t) => t.label === label);
+    return {
+      label,
+      testType: p.testType,
+      ...(p.tapPosition !== null ? { tapPosition: p.tapPosition } : {}),
+      ...(p.demagnetised !== null ? { demagnetised: p.demagnetised } : {}),
+      ...(b ? { baseline: b.points as [number, number][] } : {}),
+      postFault: p.points as [number, number][],
+    };
+  });
+}

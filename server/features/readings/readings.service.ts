@@ -1,0 +1,108 @@
+import type { EntityManager } from 'typeorm';
+import { In } from 'typeorm';
+import { readingSetToRows, rowsToReadingSet, ROW_KEYS, SET_LEVEL_KEYS } from '../../../shared/readings/rows.js';
+import type { ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
+import { audit } from '../../common/audit.js';
+import { Reading } from './reading.entity.js';
+import { ReadingSet, type ReadingSetKind } from './reading-set.entity.js';
+
+/** Conditions of a session stored as columns. */
+export interface SessionConditions {
+  takenAt: string;
+  topOilC?: number;
+  bottomOilC?: number;
+  ambientC?: number;
+  humidityPercent?: number;
+  instrument?: string;
+  instrumentSerial?: string;
+  testKV?: number;
+  testFrequencyHz?: number;
+  hoursDeenergised?: number;
+  notes?: string;
+  isReference?: boolean;
+}
+
+export interface NewReadingSet {
+  unitId: number;
+  kind: ReadingSetKind;
+  eventId?: number | null;
+  /** The values, in the case format's reading-set shape (plus the conditions above). */
+  body: CaseReadingSet & SessionConditions;
+  userId: number | null;
+}
+
+const CONDITION_KEYS = ['topOilC', 'bottomOilC', 'ambientC', 'humidityPercent', 'instrument', 'instrumentSerial', 'testKV', 'testFrequencyHz', 'hoursDeenergised', 'notes', 'isReference', 'kind'];
+
+/** Insulation temperature: as given, else the mean of top and bottom oil, else the one known. */
+export function insulationTemperatureC(b: { temperatureC?: number; topOilC?: number; bottomOilC?: number }): number | null {
+  if (typeof b.temperatureC === 'number') return b.temperatureC;
+  if (typeof b.topOilC === 'number' && typeof b.bottomOilC === 'number') return (b.topOilC + b.bottomOilC) / 2;
+  return b.topOilC ?? b.bottomOilC ?? null;
+}
+
+/** Stores one reading set with its readings (inside the caller's transaction) and audits it. */
+export async function insertReadingSet(m: EntityManager, input: NewReadingSet): Promise<ReadingSet> {
+  const b = input.body;
+  const extra: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(b)) {
+    if (!(ROW_KEYS as readonly string[]).includes(k) && !(SET_LEVEL_KEYS as readonly string[]).includes(k) && !CONDITION_KEYS.includes(k)) extra[k] = v;
+  }
+  const set = await m.getRepository(ReadingSet).save(
+    m.getRepository(ReadingSet).create({
+      unitId: input.unitId,
+      kind: input.kind,
+      eventId: input.eventId ?? null,
+      isReference: b.isReference ?? false,
+      takenAt: new Date(b.takenAt),
+      temperatureC: insulationTemperatureC(b),
+      topOilC: b.topOilC ?? null,
+      bottomOilC: b.bottomOilC ?? null,
+      ambientC: b.ambientC ?? null,
+      humidityPercent: b.humidityPercent ?? null,
+      tapPosition: b.tapPosition === undefined ? null : String(b.tapPosition),
+      instrument: b.instrument ?? null,
+      instrumentSerial: b.instrumentSerial ?? null,
+      testKV: b.testKV ?? null,
+      testFrequencyHz: b.testFrequencyHz ?? null,
+      hoursDeenergised: b.hoursDeenergised ?? null,
+      notes: b.notes ?? null,
+      extra: Object.keys(extra).length ? extra : null,
+      createdById: input.userId,
+    }),
+  );
+  const rows = readingSetToRows(b);
+  if (rows.length) await m.insert(Reading, rows.map((r) => ({ ...r, readingSetId: set.id })));
+  await audit(m, {
+    userId: input.userId,
+    action: 'create',
+    entity: 'reading_set',
+    entityId: set.id,
+    after: { unitId: set.unitId, kind: set.kind, eventId: set.eventId, takenAt: set.takenAt.toISOString(), readings: rows.length },
+  });
+  return set;
+}
+
+/** A date-time as the case format writes it: the date alone when the time is midnight UTC. */
+export function caseDate(d: Date): string {
+  const iso = d.toISOString();
+  return iso.endsWith('T00:00:00.000Z') ? iso.slice(0, 10) : iso.replace('.000Z', 'Z');
+}
+
+/** Loads reading sets as case-format reading sets (values + takenAt, temperatureC, tapPosition), keyed by id. */
+export async function loadCaseReadingSets(m: EntityManager, sets: ReadingSet[]): Promise<Map<number, CaseReadingSet>> {
+  const out = new Map<number, CaseReadingSet>();
+  if (!sets.length) return out;
+  const rows = await m.getRepository(Reading).find({ where: { readingSetId: In(sets.map((s) => s.id)) }, order: { id: 'ASC' } });
+  const bySet = new Map<number, Reading[]>();
+  for (const r of rows) (bySet.get(r.readingSetId) ?? bySet.set(r.readingSetId, []).get(r.readingSetId)!).push(r);
+  for (const s of sets) {
+    const values = rowsToReadingSet(bySet.get(s.id) ?? []);
+    out.set(s.id, {
+      takenAt: caseDate(s.takenAt),
+      ...(s.temperatureC !== null ? { temperatureC: s.temperatureC } : {}),
+      ...(s.tapPosition !== null ? { tapPosition: s.tapPosition } : {}),
+      ...values,
+    });
+  }
+  return out;
+}

@@ -1,0 +1,76 @@
+import { createHash } from 'node:crypto';
+import type { EntityManager } from 'typeorm';
+import { looksLikeCsvText } from '../../../shared/imports/sniff.js';
+import { parseSweepCsv } from '../../../shared/imports/sweep-csv.js';
+import { AppError } from '../../common/app-error.js';
+import { audit } from '../../common/audit.js';
+import { extensionOf, unsupportedType } from '../../common/upload.js';
+import { SweepTrace } from './sweep-trace.entity.js';
+
+export interface SweepFields {
+  label: string;
+  testType: SweepTrace['testType'];
+  terminals?: string;
+  tapPosition?: string;
+  demagnetised?: boolean;
+}
+
+/** Checks an uploaded sweep file (extension, text content) and parses its points; 415 / 400 naming the problem. */
+export function parseSweepUpload(file: { originalname: string; buffer: Buffer }): { points: number[][]; minHz: number; maxHz: number } {
+  const ext = extensionOf(file.originalname);
+  if (!['.csv', '.txt'].includes(ext)) throw unsupportedType(`A sweep file must be a .csv (or .txt) file, not "${ext || 'no extension'}".`);
+  if (!looksLikeCsvText(new Uint8Array(file.buffer))) throw unsupportedType('The file is not comma-separated text (frequencyHz,magnitudeDb[,phaseDeg]).');
+  const parsed = parseSweepCsv(file.buffer.toString('utf8'));
+  if (!parsed.ok) throw new AppError('invalid_file', 'The sweep file has errors; nothing was saved.', 400, parsed.fields);
+  return parsed;
+}
+
+/** Stores one trace on a reading set (inside the caller's transaction), audited. */
+export async function insertSweepTrace(
+  m: EntityManager,
+  readingSetId: number,
+  fields: SweepFields,
+  parsed: { points: number[][]; minHz: number; maxHz: number },
+  fileName: string | null,
+  userId: number | null,
+): Promise<SweepTrace> {
+  const repo = m.getRepository(SweepTrace);
+  const trace = await repo.save(
+    repo.create({
+      readingSetId,
+      label: fields.label,
+      testType: fields.testType,
+      terminals: fields.terminals ?? null,
+      tapPosition: fields.tapPosition ?? null,
+      demagnetised: fields.demagnetised ?? null,
+      points: parsed.points,
+      pointCount: parsed.points.length,
+      minHz: parsed.minHz,
+      maxHz: parsed.maxHz,
+      sha256: createHash('sha256').update(JSON.stringify(parsed.points)).digest('hex'),
+      fileName,
+      createdById: userId,
+    }),
+  );
+  await audit(m, { userId, action: 'create', entity: 'sweep_trace', entityId: trace.id, after: { readingSetId, label: trace.label, testType: trace.testType, pointCount: trace.pointCount, sha256: trace.sha256, fileName } });
+  return trace;
+}
+
+/** A trace without its points (lists). */
+export function sweepMeta(t: SweepTrace) {
+  return {
+    id: t.id,
+    readingSetId: t.readingSetId,
+    label: t.label,
+    testType: t.testType,
+    terminals: t.terminals,
+    tapPosition: t.tapPosition,
+    demagnetised: t.demagnetised,
+    pointCount: t.pointCount,
+    minHz: t.minHz,
+    maxHz: t.maxHz,
+    sha256: t.sha256,
+    fileName: t.fileName,
+    createdAt: t.createdAt.toISOString(),
+  };
+}

@@ -1,0 +1,217 @@
+import { In, type DataSource } from 'typeorm';
+import type { z } from 'zod';
+import type { ReadingSetBody, unitBodySchema, unitListQuerySchema, unitPatchSchema } from '../../../shared/schemas/fleet.js';
+import { computeThroughFault } from '../../../shared/screening/index.js';
+import { AppError, notFound } from '../../common/app-error.js';
+import { audit } from '../../common/audit.js';
+import { Design } from '../designs/design.entity.js';
+import { designView } from '../designs/designs.service.js';
+import { caseUnit } from '../events/case-export.service.js';
+import { FaultEvent } from '../events/fault-event.entity.js';
+import { ReadingSet } from '../readings/reading-set.entity.js';
+import { insertReadingSet, loadCaseReadingSets } from '../readings/readings.service.js';
+import { SweepTrace } from '../readings/sweep-trace.entity.js';
+import { insertSweepTrace, sweepMeta, type SweepFields } from '../readings/sweeps.service.js';
+import { Site } from '../sites/site.entity.js';
+import { Unit } from './unit.entity.js';
+
+type UnitListQuery = z.infer<typeof unitListQuerySchema>;
+
+export function unitView(u: Unit) {
+  return {
+    id: u.id,
+    serial: u.serial,
+    position: u.position,
+    siteId: u.siteId,
+    designId: u.designId,
+    year: u.year,
+    phases: u.phases,
+    hvKV: u.hvKV,
+    lvKV: u.lvKV,
+    ratedKVA: u.ratedKVA,
+    impedancePercent: u.impedancePercent,
+    systemImpedancePercent: u.systemImpedancePercent,
+    conductor: u.conductor,
+    lastEventId: u.lastEventId,
+    lastEventAt: u.lastEventAt ? u.lastEventAt.toISOString() : null,
+    lastEventStatus: u.lastEventStatus,
+    lastRecommendation: u.lastRecommendation,
+  };
+}
+
+const SORT_COLUMNS: Record<string, string> = {
+  serial: 'u.serial',
+  site: 's.name',
+  design: 'd.reference',
+  lastEventAt: 'u.lastEventAt',
+  lastRecommendation: 'u.lastRecommendation',
+};
+
+/** One page of the fleet, filtered and sorted on the server. */
+export async function listUnits(db: DataSource, q: UnitListQuery) {
+  const qb = db
+    .getRepository(Unit)
+    .createQueryBuilder('u')
+    .innerJoinAndSelect('u.site', 's')
+    .innerJoinAndSelect('u.design', 'd');
+  if (q.siteId) qb.andWhere('u.siteId = :siteId', { siteId: q.siteId });
+  if (q.designId) qb.andWhere('u.designId = :designId', { designId: q.designId });
+  if (q.recommendation) qb.andWhere('u.lastRecommendation = :rec', { rec: q.recommendation });
+  if (q.q) qb.andWhere('(u.serial LIKE :q OR u.position LIKE :q)', { q: `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+  const desc = q.sort.startsWith('-');
+  const column = SORT_COLUMNS[q.sort.replace(/^-/, '')];
+  qb.orderBy(column, desc ? 'DESC' : 'ASC');
+  if (column !== 'u.serial') qb.addOrderBy('u.serial', 'ASC');
+  qb.skip((q.page - 1) * q.pageSize).take(q.pageSize);
+  const [units, total] = await qb.getManyAndCount();
+  return {
+    items: units.map((u) => ({ ...unitView(u), siteName: u.site.name, siteTimeZone: u.site.timeZone, designReference: u.design.reference })),
+    total,
+    page: q.page,
+    pageSize: q.pageSize,
+  };
+}
+
+/** A unit with its design, site, reading sets (with values, sweeps listed) and events, newest first. */
+export async function getUnit(db: DataSource, id: number) {
+  const u = await db.getRepository(Unit).findOne({ where: { id }, relations: { site: true, design: true } });
+  if (!u) throw notFound('Unit');
+  const sets = await db.getRepository(ReadingSet).find({ where: { unitId: id }, order: { takenAt: 'DESC', id: 'DESC' } });
+  const values = await loadCaseReadingSets(db.manager, sets);
+  const sweeps = sets.length ? await db.getRepository(SweepTrace).find({ where: { readingSetId: In(sets.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
+  const events = await db.getRepository(FaultEvent).find({ where: { unitId: id }, order: { occurredAt: 'DESC', id: 'DESC' } });
+  const unitForDuty = caseUnit(u);
+  return {
+    ...unitView(u),
+    site: { id: u.site.id, name: u.site.name, timeZone: u.site.timeZone },
+    design: designView(u.design),
+    readingSets: sets.map((s) => ({
+      ...readingSetConditions(s),
+      values: values.get(s.id),
+      sweeps: sweeps.filter((t) => t.readingSetId === s.id).map(sweepMeta),
+    })),
+    events: events.map((e) => ({
+      id: e.id,
+      occurredAt: e.occurredAt.toISOString(),
+      type: e.type,
+      side: e.side,
+      status: e.status,
+      transformerTripped: e.transformerTripped,
+      protectionOperated: e.protectionOperated,
+      shots: e.shots,
+      throughFault: computeThroughFault(unitForDuty, { occurredAt: e.occurredAt.toISOString(), type: e.type, side: e.side, shots: e.shots }),
+    })),
+  };
+}
+
+/** The stored conditions of a reading set (no values). */
+export function readingSetConditions(s: ReadingSet) {
+  return {
+    id: s.id,
+    unitId: s.unitId,
+    kind: s.kind,
+    eventId: s.eventId,
+    isReference: s.isReference,
+    takenAt: s.takenAt.toISOString(),
+    temperatureC: s.temperatureC,
+    topOilC: s.topOilC,
+    bottomOilC: s.bottomOilC,
+    ambientC: s.ambientC,
+    humidityPercent: s.humidityPercent,
+    tapPosition: s.tapPosition,
+    instrument: s.instrument,
+    instrumentSerial: s.instrumentSerial,
+    testKV: s.testKV,
+    testFrequencyHz: s.testFrequencyHz,
+    hoursDeenergised: s.hoursDeenergised,
+    notes: s.notes,
+    createdById: s.createdById,
+    createdAt: s.createdAt.toISOString(),
+  };
+}
+
+async function checkRefs(m: import('typeorm').EntityManager, siteId?: number, designId?: number) {
+  const fields: Record<string, string> = {};
+  if (siteId !== undefined && !(await m.getRepository(Site).exists({ where: { id: siteId } }))) fields.siteId = `no site with id ${siteId}`;
+  const design = designId !== undefined ? await m.getRepository(Design).findOne({ where: { id: designId } }) : null;
+  if (designId !== undefined && !design) fields.designId = `no design with id ${designId}`;
+  if (Object.keys(fields).length) throw new AppError('invalid_input', 'Some fields are invalid.', 400, fields);
+  return design;
+}
+
+/** Creates a unit; nameplate values not given come from its design (audited). */
+export async function createUnit(db: DataSource, userId: number, body: z.infer<typeof unitBodySchema>) {
+  return db.transaction(async (m) => {
+    const design = (await checkRefs(m, body.siteId, body.designId))!;
+    if (await m.getRepository(Unit).exists({ where: { serial: body.serial } })) {
+      throw new AppError('serial_taken', 'A unit with this serial exists.', 409, { serial: 'already in use' });
+    }
+    const repo = m.getRepository(Unit);
+    const u = await repo.save(
+      repo.create({
+        serial: body.serial,
+        position: body.position ?? '',
+        siteId: body.siteId,
+        designId: body.designId,
+        year: body.year ?? null,
+        phases: body.phases ?? design.phases,
+        hvKV: body.hvKV ?? design.hvKV,
+        lvKV: body.lvKV ?? design.lvKV,
+        ratedKVA: body.ratedKVA ?? design.impedanceBaseKVA,
+        impedancePercent: body.impedancePercent ?? design.impedancePercent,
+        systemImpedancePercent: body.systemImpedancePercent ?? 0,
+        conductor: body.conductor ?? design.conductor,
+      }),
+    );
+    await audit(m, { userId, action: 'create', entity: 'unit', entityId: u.id, after: unitView(u) });
+    return unitView(u);
+  });
+}
+
+/** Changes a unit (audited with before and after). */
+export async function updateUnit(db: DataSource, userId: number, id: number, patch: z.infer<typeof unitPatchSchema>) {
+  return db.transaction(async (m) => {
+    const u = await m.getRepository(Unit).findOne({ where: { id } });
+    if (!u) throw notFound('Unit');
+    await checkRefs(m, patch.siteId, patch.designId);
+    if (patch.serial !== undefined && patch.serial !== u.serial && (await m.getRepository(Unit).exists({ where: { serial: patch.serial } }))) {
+      throw new AppError('serial_taken', 'A unit with this serial exists.', 409, { serial: 'already in use' });
+    }
+    const before = unitView(u);
+    for (const [k, v] of Object.entries(patch)) if (v !== undefined) (u as unknown as Record<string, unknown>)[k] = v;
+    await m.getRepository(Unit).save(u);
+    await audit(m, { userId, action: 'update', entity: 'unit', entityId: id, before, after: unitView(u) });
+    return unitView(u);
+  });
+}
+
+/** Stores a factory, commissioning or routine reading set on a unit. */
+export async function addUnitReadingSet(db: DataSource, userId: number, unitId: number, body: ReadingSetBody) {
+  return db.transaction(async (m) => {
+    if (!(await m.getRepository(Unit).exists({ where: { id: unitId } }))) throw notFound('Unit');
+    const set = await insertReadingSet(m, { unitId, kind: body.kind, body, userId });
+    const values = await loadCaseReadingSets(m, [set]);
+    return { ...readingSetConditions(set), values: values.get(set.id) };
+  });
+}
+
+/** Stores a baseline sweep trace on one of the unit's (non post-fault) reading sets. */
+export async function addUnitSweep(
+  db: DataSource,
+  userId: number,
+  unitId: number,
+  readingSetId: number,
+  fields: SweepFields,
+  parsed: { points: number[][]; minHz: number; maxHz: number },
+  fileName: string,
+) {
+  return db.transaction(async (m) => {
+    if (!(await m.getRepository(Unit).exists({ where: { id: unitId } }))) throw notFound('Unit');
+    const set = await m.getRepository(ReadingSet).findOne({ where: { id: readingSetId } });
+    if (!set || set.unitId !== unitId) throw new AppError('invalid_input', 'Some fields are invalid.', 400, { readingSetId: `no reading set ${readingSetId} on this unit` });
+    if (set.kind === 'post-fault') {
+      throw new AppError('invalid_input', 'Some fields are invalid.', 400, { readingSetId: 'a post-fault session: upload post-fault traces to the session instead' });
+    }
+    return sweepMeta(await insertSweepTrace(m, readingSetId, fields, parsed, fileName, userId));
+  });
+}

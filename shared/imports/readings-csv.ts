@@ -1,0 +1,382 @@
+// Readings CSV (POST /api/sessions/:id/imports): parse, check every row, turn rows into a case-format reading set.
+//
+// Row numbers in error keys are line numbers in the file, counting the header line as row 1: the first data row
+// directly under the header is "row 2", and a blank line still counts, so "row 7" is what a text editor shows as line 7.
+import Papa from 'papaparse';
+
+/** The one message for a number written with a decimal comma (both importers use it). */
+export const DECIMAL_COMMA_MESSAGE = 'decimal comma: use a point (3.14)';
+
+/** Column names of the canonical readings CSV, in the order written by `mapColumns`. */
+export const READINGS_COLUMNS = ['quantity', 'configuration', 'phase', 'value', 'unit'] as const;
+export type ReadingsColumn = (typeof READINGS_COLUMNS)[number];
+
+export const READING_QUANTITIES = [
+  'capacitance',
+  'dissipation',
+  'reactance',
+  'excitation-current',
+  'winding-resistance',
+  'turns-ratio',
+] as const;
+export type ReadingQuantity = (typeof READING_QUANTITIES)[number];
+
+export type ReadingRow = {
+  quantity: ReadingQuantity;
+  configuration: string | null;
+  phase: string | null;
+  value: number;
+  unit: string;
+};
+
+export type ReadingsCsvResult = { ok: true; rows: ReadingRow[] } | { ok: false; fields: Record<string, string> };
+
+/** Part of a `gapsight-case/1` reading set, as built from imported rows. */
+export type ReadingSetPart = {
+  capacitancePF?: Record<string, number>;
+  dissipationPercent?: Record<string, number>;
+  reactance?: Record<string, { percent: number }>;
+  excitationCurrentMA?: Record<string, number>;
+  windingResistanceOhm?: Record<string, number>;
+  turnsRatio?: Record<string, number>;
+};
+
+type QuantitySpec = {
+  keyedBy: 'configuration' | 'phase';
+  /** Accepted unit spellings (compared case-insensitively) → canonical unit and the factor to it. */
+  units: Record<string, { unit: string; factor: number }>;
+  unitHint: string;
+  /** Smallest allowed value and whether it is itself allowed. */
+  min: { value: number; inclusive: boolean };
+  setKey: keyof ReadingSetPart;
+};
+
+const PF = { unit: 'pF', factor: 1 };
+const OHM = { unit: 'ohm', factor: 1 };
+const POSITIVE = { value: 0, inclusive: false };
+
+const QUANTITIES: Record<ReadingQuantity, QuantitySpec> = {
+  capacitance: {
+    keyedBy: 'configuration',
+    units: { pf: PF, nf: { unit: 'pF', factor: 1000 } },
+    unitHint: 'pF or nF',
+    min: POSITIVE,
+    setKey: 'capacitancePF',
+  },
+  dissipation: {
+    keyedBy: 'configuration',
+    units: { '%': { unit: '%', factor: 1 } },
+    unitHint: '%',
+    min: { value: 0, inclusive: true },
+    setKey: 'dissipationPercent',
+  },
+  reactance: { keyedBy: 'phase', units: { '%': { unit: '%', factor: 1 } }, unitHint: '%', min: POSITIVE, setKey: 'reactance' },
+  'excitation-current': {
+    keyedBy: 'phase',
+    units: { ma: { unit: 'mA', factor: 1 } },
+    unitHint: 'mA',
+    min: POSITIVE,
+    setKey: 'excitationCurrentMA',
+  },
+  'winding-resistance': {
+    keyedBy: 'phase',
+    // Ω as GREEK CAPITAL LETTER OMEGA (U+03A9) and as OHM SIGN (U+2126): test sets write either.
+    units: { ohm: OHM, ohms: OHM, '\u03a9': OHM, '\u2126': OHM },
+    unitHint: 'ohm',
+    min: POSITIVE,
+    setKey: 'windingResistanceOhm',
+  },
+  'turns-ratio': {
+    keyedBy: 'phase',
+    units: { ratio: { unit: 'ratio', factor: 1 } },
+    unitHint: 'ratio',
+    min: POSITIVE,
+    setKey: 'turnsRatio',
+  },
+};
+
+const PHASES = ['A', 'B', 'C'];
+const CONFIGURATION = /^[A-Za-z]{1,16}$/;
+/** Above this many bad rows the rest are counted, not listed, so a wrong file cannot produce a huge answer. */
+const MAX_LISTED_BAD_ROWS = 1000;
+
+// ---------------------------------------------------------------------------------------------------------------------
+// CSV helpers shared with the sweep importer
+// ---------------------------------------------------------------------------------------------------------------------
+
+export type CsvRecord = { line: number; cells: string[] };
+
+/** BOM removed and every line ending turned into \n, so line numbers and papaparse agree. */
+export function normaliseCsvText(text: string): string {
+  const noBom = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  return noBom.replace(/\r\n?/g, '\n');
+}
+
+/** The column separator of a file judged by its first non-blank line: ',' unless the line has none and has ';' or a tab. */
+export function detectDelimiter(normalisedText: string): ',' | ';' | '\t' {
+  const first = normalisedText.split('\n').find((l) => l.trim() !== '') ?? '';
+  if (first.includes(',')) return ',';
+  if (first.includes(';')) return ';';
+  if (first.includes('\t')) return '\t';
+  return ',';
+}
+
+/** A sentence for a file whose columns are not separated by commas (null when they are). */
+export function separatorProblem(delimiter: ',' | ';' | '\t'): string | null {
+  if (delimiter === ';') {
+    return "the file uses ';' between columns: save it as CSV with ',' between columns and a point as the decimal mark";
+  }
+  if (delimiter === '\t') return "the file uses tabs between columns: save it as CSV with ',' between columns";
+  return null;
+}
+
+/** Every non-blank record of a normalised CSV text with the file line it starts on (1-based), plus quoting errors by line. */
+export function csvRecords(
+  normalisedText: string,
+  delimiter: string,
+): { records: CsvRecord[]; quoteErrorLines: Map<number, string> } {
+  const parsed = Papa.parse<string[]>(normalisedText, { delimiter, newline: '\n', header: false, skipEmptyLines: false });
+  const records: CsvRecord[] = [];
+  const startLines: number[] = [];
+  let line = 1;
+  for (const cells of parsed.data) {
+    startLines.push(line);
+    if (cells.some((c) => c.trim() !== '')) records.push({ line, cells });
+    // A quoted cell may hold line breaks: the next record starts that many lines further down.
+    line += 1 + cells.reduce((n, c) => n + (c.match(/\n/g)?.length ?? 0), 0);
+  }
+  const quoteErrorLines = new Map<number, string>();
+  for (const e of parsed.errors) {
+    if (e.type !== 'Quotes' || e.row === undefined) continue;
+    const at = startLines[e.row] ?? line;
+    quoteErrorLines.set(
+      at,
+      e.code === 'MissingQuotes' ? 'a quoted value is not closed' : 'a quote mark sits inside a value (write it as "")',
+    );
+  }
+  return { records, quoteErrorLines };
+}
+
+const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+// "3,14", ",5", "1.234,5" (a point as thousands separator and a comma as decimal mark).
+const DECIMAL_COMMA = /^[+-]?(?:\d{1,3}(?:\.\d{3})+|\d*),\d+$/;
+
+/** A cell read as a plain decimal number: the number, or why not. */
+export function parseDecimalCell(cell: string): { value: number } | { error: string } {
+  const s = cell.trim();
+  if (s === '') return { error: 'required' };
+  if (DECIMAL_COMMA.test(s)) return { error: DECIMAL_COMMA_MESSAGE };
+  if (!NUMBER.test(s)) return { error: 'not a number' };
+  const value = Number(s);
+  if (!Number.isFinite(value)) return { error: 'not a finite number' };
+  return { value };
+}
+
+/** True when a cell looks like a number written with a decimal comma. */
+export function isDecimalCommaNumber(cell: string): boolean {
+  return DECIMAL_COMMA.test(cell.trim());
+}
+
+function quoteCell(cell: string): string {
+  return /[",\n]/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell;
+}
+
+function listNames(names: readonly string[]): string {
+  return names.map((n) => `'${n}'`).join(', ');
+}
+
+// ---------------------------------------------------------------------------------------------------------------------
+// Readings
+// ---------------------------------------------------------------------------------------------------------------------
+
+/** Header cells → column index per canonical name, or a message naming unknown, missing and repeated columns. */
+function readHeader(cells: string[]): { index: Record<ReadingsColumn, number> } | { error: string } {
+  const names = cells.map((c) => c.trim().toLowerCase());
+  const unknown = names.filter((n) => !(READINGS_COLUMNS as readonly string[]).includes(n));
+  const missing = READINGS_COLUMNS.filter((c) => !names.includes(c));
+  const repeated = READINGS_COLUMNS.filter((c) => names.filter((n) => n === c).length > 1);
+  const problems: string[] = [];
+  if (unknown.length > 0) problems.push(`unknown column${unknown.length > 1 ? 's' : ''} ${listNames(unknown.map((u) => u || '(empty)'))}`);
+  if (missing.length > 0) problems.push(`missing column${missing.length > 1 ? 's' : ''} ${listNames(missing)}`);
+  if (repeated.length > 0) problems.push(`repeated column${repeated.length > 1 ? 's' : ''} ${listNames(repeated)}`);
+  if (problems.length > 0) return { error: `${problems.join('; ')}: the header must be ${READINGS_COLUMNS.join(',')}` };
+  const index = Object.fromEntries(READINGS_COLUMNS.map((c) => [c, names.indexOf(c)])) as Record<ReadingsColumn, number>;
+  return { index };
+}
+
+type RowCheck = { row?: ReadingRow; errors: Record<string, string> };
+
+/** One data record checked field by field; `cells` already has the header's column count. */
+function checkReading(cells: string[], index: Record<ReadingsColumn, number>): RowCheck {
+  const errors: Record<string, string> = {};
+  const cell = (c: ReadingsColumn) => cells[index[c]].trim();
+
+  const quantityText = cell('quantity').toLowerCase();
+  const quantity = (READING_QUANTITIES as readonly string[]).includes(quantityText)
+    ? (quantityText as ReadingQuantity)
+    : null;
+  if (quantityText === '') errors.quantity = `required: one of ${READING_QUANTITIES.join(', ')}`;
+  else if (quantity === null) errors.quantity = `unknown quantity '${cell('quantity')}': use one of ${READING_QUANTITIES.join(', ')}`;
+
+  const number = parseDecimalCell(cell('value'));
+  if ('error' in number) errors.value = number.error;
+
+  if (quantity === null) return { errors };
+  const spec = QUANTITIES[quantity];
+
+  let configuration: string | null = null;
+  let phase: string | null = null;
+  const configurationText = cell('configuration');
+  const phaseText = cell('phase');
+  if (spec.keyedBy === 'configuration') {
+    if (configurationText === '') errors.configuration = `required for ${quantity} (e.g. CH, CL, CHL)`;
+    else if (!CONFIGURATION.test(configurationText)) errors.configuration = 'a configuration is a label of letters (e.g. CH, CHL)';
+    else configuration = configurationText.toUpperCase();
+    if (phaseText !== '') errors.phase = `leave empty for ${quantity}: it is given per configuration`;
+  } else {
+    if (phaseText === '') errors.phase = `required for ${quantity}: A, B or C`;
+    else if (!PHASES.includes(phaseText.toUpperCase())) errors.phase = `must be A, B or C (found '${phaseText}')`;
+    else phase = phaseText.toUpperCase();
+    if (configurationText !== '') errors.configuration = `leave empty for ${quantity}: it is given per phase`;
+  }
+
+  const unitText = cell('unit');
+  const unit = spec.units[unitText.toLowerCase()];
+  if (unitText === '') errors.unit = `required: ${spec.unitHint}`;
+  else if (unit === undefined) errors.unit = `${quantity} is given in ${spec.unitHint} (found '${unitText}')`;
+
+  if ('value' in number && unit !== undefined) {
+    const { value: min, inclusive } = spec.min;
+    if (inclusive ? number.value < min : number.value <= min) {
+      errors.value = inclusive ? `must be ${min} or more` : `must be greater than ${min}`;
+    }
+  }
+  if (Object.keys(errors).length > 0 || !('value' in number) || unit === undefined) return { errors };
+  // nF → pF: ×1000, rounded to 12 significant digits so 3.131 nF gives 3131 pF, not 3131.0000000000005.
+  const value = unit.factor === 1 ? number.value : Number((number.value * unit.factor).toPrecision(12));
+  return { row: { quantity, configuration, phase, value, unit: unit.unit }, errors };
+}
+
+/** When a row has one cell too many because its value was written with an unquoted decimal comma ("3131,5"). */
+function splitByDecimalComma(cells: string[], columns: number, valueIndex: number): boolean {
+  if (cells.length !== columns + 1) return false;
+  return isDecimalCommaNumber(`${cells[valueIndex]},${cells[valueIndex + 1]}`);
+}
+
+/** Parse a readings CSV: every reading checked, every bad row listed as "row N.field" (N = file line, header = 1). */
+export function parseReadingsCsv(text: string): ReadingsCsvResult {
+  const normalised = normaliseCsvText(text);
+  if (normalised.trim() === '') return { ok: false, fields: { file: 'the file is empty: expected a header quantity,configuration,phase,value,unit and one reading a row' } };
+
+  const delimiter = detectDelimiter(normalised);
+  const fields: Record<string, string> = {};
+  const separator = separatorProblem(delimiter);
+  if (separator !== null) fields.file = separator;
+
+  const { records, quoteErrorLines } = csvRecords(normalised, delimiter);
+  const [headerRecord, ...dataRecords] = records;
+  const header = readHeader(headerRecord.cells);
+  if ('error' in header) return { ok: false, fields: { ...fields, header: header.error } };
+  if (dataRecords.length === 0) {
+    return { ok: false, fields: { ...fields, file: fields.file ?? 'the file has a header but no readings' } };
+  }
+
+  const columns = headerRecord.cells.length;
+  const rows: ReadingRow[] = [];
+  const firstSeen = new Map<string, number>();
+  let badRows = 0;
+  const addRowErrors = (line: number, errors: Record<string, string>) => {
+    badRows += 1;
+    if (badRows > MAX_LISTED_BAD_ROWS) return;
+    for (const [field, message] of Object.entries(errors)) fields[field === '' ? `row ${line}` : `row ${line}.${field}`] = message;
+  };
+
+  for (const { line, cells } of dataRecords) {
+    const quoteError = quoteErrorLines.get(line);
+    if (quoteError !== undefined) {
+      addRowErrors(line, { '': quoteError });
+      continue;
+    }
+    if (cells.length !== columns) {
+      if (splitByDecimalComma(cells, columns, header.index.value)) addRowErrors(line, { value: DECIMAL_COMMA_MESSAGE });
+      else addRowErrors(line, { '': `expected ${columns} columns, found ${cells.length}` });
+      continue;
+    }
+    const checked = checkReading(cells, header.index);
+    if (checked.row === undefined) {
+      addRowErrors(line, checked.errors);
+      continue;
+    }
+    const row = checked.row;
+    const label = row.configuration ?? row.phase ?? '';
+    const key = `${row.quantity}|${label}`;
+    const earlier = firstSeen.get(key);
+    if (earlier !== undefined) {
+      const field = row.configuration !== null ? 'configuration' : 'phase';
+      addRowErrors(line, { [field]: `${row.quantity} ${label} is already given in row ${earlier}` });
+      continue;
+    }
+    firstSeen.set(key, line);
+    rows.push(row);
+  }
+  if (badRows > MAX_LISTED_BAD_ROWS) fields.more = `${badRows - MAX_LISTED_BAD_ROWS} more bad rows not listed`;
+  if (Object.keys(fields).length > 0) return { ok: false, fields };
+  return { ok: true, rows };
+}
+
+/** Checked rows → the matching part of a case-format reading set (reactance as `{ percent }`). */
+export function readingRowsToSet(rows: readonly ReadingRow[]): ReadingSetPart {
+  const set: ReadingSetPart = {};
+  for (const row of rows) {
+    const spec = QUANTITIES[row.quantity];
+    const label = (spec.keyedBy === 'configuration' ? row.configuration : row.phase) ?? '';
+    if (spec.setKey === 'reactance') {
+      set.reactance = { ...set.reactance, [label]: { percent: row.value } };
+    } else {
+      set[spec.setKey] = { ...set[spec.setKey], [label]: row.value };
+    }
+  }
+  return set;
+}
+
+/** The header names of a CSV text (trimmed, in file order; separator detected), for the client's column-mapping step. */
+export function csvHeaders(text: string): string[] {
+  const normalised = normaliseCsvText(text);
+  const { records } = csvRecords(normalised, detectDelimiter(normalised));
+  return records.length === 0 ? [] : records[0].cells.map((c) => c.trim());
+}
+
+/**
+ * Rewrite a CSV with another column layout into the canonical readings CSV.
+ * `mapping` names, for each canonical column, the source column by its header ('' = leave that column empty).
+ * Blank lines are kept so that row numbers in later errors still match the source file's lines; values are copied as
+ * they are, whatever the source separator (a decimal comma stays one and is reported by `parseReadingsCsv`). Throws when a named source column is not in
+ * the file: the mapping step offers only names from `csvHeaders`, so that is a programming error.
+ */
+export function mapColumns(text: string, mapping: Record<ReadingsColumn, string>): string {
+  const normalised = normaliseCsvText(text);
+  const { records } = csvRecords(normalised, detectDelimiter(normalised));
+  if (records.length === 0) return `${READINGS_COLUMNS.join(',')}\n`;
+  const sourceNames = records[0].cells.map((c) => c.trim().toLowerCase());
+  const sourceIndex = READINGS_COLUMNS.map((column) => {
+    const wanted = mapping[column].trim().toLowerCase();
+    if (wanted === '') return -1;
+    const at = sourceNames.indexOf(wanted);
+    if (at < 0) throw new RangeError(`mapColumns: no column '${mapping[column]}' in the file (for ${column})`);
+    return at;
+  });
+
+  // Each record goes back on the line it came from (blank lines and leading blank lines kept), so row numbers match.
+  const out: string[] = [];
+  let nextLine = 1;
+  for (const [k, { line, cells }] of records.entries()) {
+    while (nextLine < line) {
+      out.push('');
+      nextLine += 1;
+    }
+    const content = k === 0 ? READINGS_COLUMNS.join(',') : sourceIndex.map((i) => quoteCell(i < 0 ? '' : (cells[i] ?? ''))).join(',');
+    out.push(content);
+    nextLine += 1 + (content.match(/\n/g)?.length ?? 0);
+  }
+  return `${out.join('\n')}\n`;
+}

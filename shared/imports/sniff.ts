@@ -1,0 +1,156 @@
+// Content checks for uploads: browsers send odd MIME types, so the server looks at the bytes themselves.
+
+export type RelayRecordKind = 'comtrade-cfg' | 'comtrade-dat' | 'comtrade-cff' | 'csv' | 'pdf' | 'text';
+export type RelayRecordCheck = { kind: RelayRecordKind } | { error: string };
+
+const RELAY_RECORD_KINDS: Record<string, RelayRecordKind> = {
+  cfg: 'comtrade-cfg',
+  dat: 'comtrade-dat',
+  cff: 'comtrade-cff',
+  csv: 'csv',
+  txt: 'text',
+  pdf: 'pdf',
+};
+
+// IEEE Std C37.111-1999/-2013 (COMTRADE), configuration file: line 1 is station_name,rec_dev_id[,rev_year] (no rev_year
+// means the 1991 edition), line 2 is TT,##A,##D (total channels, analog count + 'A', status count + 'D'; TT = ##A + ##D).
+const COMTRADE_REV_YEARS = ['1991', '1999', '2013'];
+const COMTRADE_CHANNEL_LINE = /^\s*(\d+)\s*,\s*(\d+)\s*A\s*,\s*(\d+)\s*D\s*,?\s*$/i;
+// IEEE Std C37.111-2013 combined file format (.cff): sections headed "--- file type: CFG ---", "--- file type: INF ---", …
+const CFF_CFG_MARKER = /^\s*---\s*file type:\s*CFG\s*---\s*$/i;
+const CFF_ANY_MARKER = /^\s*---\s*file type:/i;
+
+const PDF_SIGNATURE = [0x25, 0x50, 0x44, 0x46, 0x2d]; // "%PDF-" (ISO 32000-1 §7.5.2 file header)
+// "PK\x03\x04" local file header, "PK\x05\x06" empty archive, "PK\x07\x08" spanned archive (PKWARE APPNOTE.TXT §4.3).
+const ZIP_SIGNATURES = [
+  [0x50, 0x4b, 0x03, 0x04],
+  [0x50, 0x4b, 0x05, 0x06],
+  [0x50, 0x4b, 0x07, 0x08],
+];
+
+function startsWith(bytes: Uint8Array, signature: readonly number[]): boolean {
+  return signature.length <= bytes.length && signature.every((b, i) => bytes[i] === b);
+}
+
+/** No NUL and no control bytes other than tab, line feed, form feed, carriage return and a closing SUB (DOS end of file). */
+function hasOnlyTextBytes(bytes: Uint8Array): boolean {
+  for (let i = 0; i < bytes.length; i += 1) {
+    const b = bytes[i];
+    if (b >= 0x20 || b === 0x09 || b === 0x0a || b === 0x0c || b === 0x0d) continue;
+    if (b === 0x1a && i === bytes.length - 1) continue;
+    return false;
+  }
+  return true;
+}
+
+function decodeUtf8(bytes: Uint8Array): string | null {
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    return null;
+  }
+}
+
+/** UTF-8 when the bytes are valid UTF-8, else Latin-1 (older relays write station names in an 8-bit code page). */
+function decodeLenient(bytes: Uint8Array): string {
+  const utf8 = decodeUtf8(bytes);
+  if (utf8 !== null) return utf8;
+  let out = '';
+  for (let i = 0; i < bytes.length; i += 1) out += String.fromCharCode(bytes[i]);
+  return out;
+}
+
+function withoutBom(text: string): string {
+  return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+}
+
+function firstNonBlankLine(text: string): string {
+  return text.split(/\r\n|\r|\n/).find((l) => l.trim() !== '') ?? '';
+}
+
+/** Whether uploaded bytes can be a CSV file: UTF-8 (or ASCII) text, no NUL or other binary bytes, a separator on line 1. */
+export function looksLikeCsvText(bytes: Uint8Array): boolean {
+  if (bytes.length === 0 || !hasOnlyTextBytes(bytes)) return false;
+  const text = decodeUtf8(bytes);
+  if (text === null) return false;
+  return /[,;\t]/.test(firstNonBlankLine(withoutBom(text)));
+}
+
+/** The first two lines of a COMTRADE configuration checked; null when they are fine, else what is wrong. */
+function comtradeConfigProblem(lines: readonly string[]): string | null {
+  const station = (lines[0] ?? '').split(',');
+  if (station.length < 2 || station.length > 3) {
+    return "its first line should be station_name,rec_dev_id[,rev_year] (e.g. 'Harrow Cross,REL-T2,1999')";
+  }
+  if (station.length === 3 && !COMTRADE_REV_YEARS.includes(station[2].trim())) {
+    return `its first line ends with revision year '${station[2].trim()}': it should be 1991, 1999 or 2013`;
+  }
+  const channels = COMTRADE_CHANNEL_LINE.exec(lines[1] ?? '');
+  if (channels === null) return "its second line should be like '12,4A,8D'";
+  const [total, analog, status] = channels.slice(1, 4).map(Number);
+  if (total !== analog + status) {
+    return `its second line gives ${total} channels but ${analog}A + ${status}D make ${analog + status}`;
+  }
+  return null;
+}
+
+function splitLines(text: string): string[] {
+  return withoutBom(text).split(/\r\n|\r|\n/);
+}
+
+function extensionOf(fileName: string): string {
+  const base = fileName.split(/[\\/]/).pop() ?? '';
+  const dot = base.lastIndexOf('.');
+  return dot <= 0 ? '' : base.slice(dot + 1).toLowerCase();
+}
+
+/** Which kind of relay record an upload is, judged by its extension and checked against its content. */
+export function detectRelayRecord(fileName: string, bytes: Uint8Array): RelayRecordCheck {
+  const ext = extensionOf(fileName);
+  const kind = RELAY_RECORD_KINDS[ext];
+  if (kind === undefined) {
+    return {
+      error: `relay records are COMTRADE (.cfg, .dat, .cff), .csv, .txt or .pdf files: '${fileName}' is ${ext === '' ? 'without an extension' : `a .${ext} file`}`,
+    };
+  }
+  const what = `the .${ext} file`;
+  if (bytes.length === 0) return { error: `${what} is empty` };
+
+  const isPdf = startsWith(bytes, PDF_SIGNATURE);
+  if (kind === 'pdf') return isPdf ? { kind } : { error: `${what} is not a PDF document: it does not start with %PDF-` };
+  if (isPdf) return { error: `${what} is a PDF document: upload it with a .pdf name` };
+  if (ZIP_SIGNATURES.some((s) => startsWith(bytes, s))) {
+    return { error: `${what} is a ZIP archive: unpack it and upload the files inside` };
+  }
+
+  switch (kind) {
+    case 'comtrade-dat':
+      // ASCII data (one sample a line, comma-separated numbers) or binary samples: both are valid COMTRADE.
+      return { kind };
+    case 'comtrade-cfg': {
+      const notCfg = 'the .cfg file is not a COMTRADE configuration';
+      if (!hasOnlyTextBytes(bytes)) return { error: `${notCfg}: it is not text` };
+      const problem = comtradeConfigProblem(splitLines(decodeLenient(bytes)));
+      return problem === null ? { kind } : { error: `${notCfg}: ${problem}` };
+    }
+    case 'comtrade-cff': {
+      // The DAT section of a .cff may be binary, so only the text before it is read.
+      const lines = splitLines(decodeLenient(bytes.subarray(0, 64 * 1024)));
+      const marker = lines.findIndex((l) => CFF_CFG_MARKER.test(l));
+      if (marker < 0) return { error: "the .cff file is not a COMTRADE combined file: it has no '--- file type: CFG ---' section" };
+      const section = lines.slice(marker + 1);
+      const end = section.findIndex((l) => CFF_ANY_MARKER.test(l));
+      const problem = comtradeConfigProblem((end < 0 ? section : section.slice(0, end)).filter((l) => l.trim() !== ''));
+      return problem === null ? { kind } : { error: `the CFG section of the .cff file is not a COMTRADE configuration: ${problem}` };
+    }
+    case 'csv':
+      // Lenient on encoding (an 8-bit code page is fine): a relay record is kept as it is, not parsed here.
+      if (!hasOnlyTextBytes(bytes)) return { error: `${what} is not text: it holds binary bytes` };
+      return /[,;\t]/.test(firstNonBlankLine(withoutBom(decodeLenient(bytes))))
+        ? { kind }
+        : { error: `${what} is not CSV: its first line has no ',' ';' or tab between columns` };
+    case 'text':
+      return hasOnlyTextBytes(bytes) ? { kind } : { error: `${what} is not plain text: it holds binary bytes` };
+  }
+  return { error: `${what} cannot be checked` };
+}

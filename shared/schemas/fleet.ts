@@ -1,0 +1,131 @@
+import { z } from 'zod';
+import { conductorSchema, faultSideSchema, faultTypeSchema, protectionSchema, readingSetSchema, shotSchema, sweepTestTypeSchema, windingsSchema } from './case.js';
+
+// Request bodies of the fleet, reading and event routes (api.md), shared by server validation and client forms.
+
+const finite = z.number().finite();
+const isoDateTime = z
+  .string()
+  .min(1, 'required')
+  .refine((s) => !Number.isNaN(Date.parse(s)), { message: 'not an ISO 8601 date or date-time' });
+const idSchema = z.number().int().positive('not a valid id');
+
+export const siteBodySchema = z.object({
+  name: z.string().trim().min(1, 'required').max(120),
+  timeZone: z
+    .string()
+    .min(1, 'required')
+    .refine(
+      (tz) => {
+        try {
+          new Intl.DateTimeFormat('en', { timeZone: tz });
+          return true;
+        } catch {
+          return false;
+        }
+      },
+      { message: 'not an IANA time zone (e.g. Europe/London)' },
+    ),
+});
+export const sitePatchSchema = siteBodySchema.partial();
+
+export const designBodySchema = z.object({
+  reference: z.string().trim().min(1, 'required').max(80),
+  maker: z.string().trim().min(1, 'required').max(120),
+  windings: windingsSchema.default('two-winding'),
+  vectorGroup: z.string().trim().min(1, 'required').max(20),
+  phases: z.union([z.literal(1), z.literal(3)]).default(3),
+  hvKV: finite.positive(),
+  lvKV: finite.positive(),
+  tvKV: finite.positive().nullable().optional(),
+  coolingStages: z.array(z.object({ stage: z.string().trim().min(1).max(20), kVA: finite.positive() })).min(1, 'at least one cooling stage'),
+  impedancePercent: finite.positive().max(100),
+  impedanceBaseKVA: finite.positive(),
+  conductor: conductorSchema.default('Cu'),
+  requiredCapacitance: z.array(z.string().trim().regex(/^[A-Za-z]{1,10}$/, 'letters only, e.g. CHL')).default([]),
+  notes: z.string().max(5000).nullable().optional(),
+});
+export const designPatchSchema = designBodySchema.partial();
+
+export const unitBodySchema = z.object({
+  serial: z.string().trim().min(1, 'required').max(60),
+  position: z.string().trim().max(60).default(''),
+  siteId: idSchema,
+  designId: idSchema,
+  year: z.number().int().min(1900).max(2100).nullable().optional(),
+  phases: z.union([z.literal(1), z.literal(3)]).optional(),
+  hvKV: finite.positive().optional(),
+  lvKV: finite.positive().optional(),
+  ratedKVA: finite.positive().optional(),
+  impedancePercent: finite.positive().max(100).optional(),
+  systemImpedancePercent: finite.nonnegative().max(100).default(0),
+  conductor: conductorSchema.optional(),
+});
+export const unitPatchSchema = unitBodySchema.partial();
+
+export const UNIT_SORTS = ['serial', '-serial', 'site', '-site', 'design', '-design', 'lastEventAt', '-lastEventAt', 'lastRecommendation', '-lastRecommendation'] as const;
+export const unitListQuerySchema = z.object({
+  q: z.string().trim().max(60).optional(),
+  siteId: z.coerce.number().int().positive().optional(),
+  designId: z.coerce.number().int().positive().optional(),
+  recommendation: z.enum(['go', 'conditional', 'no-go']).optional(),
+  sort: z.enum(UNIT_SORTS).default('serial'),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+});
+
+/** Conditions of a test session beyond the case format's reading set. */
+const sessionConditions = {
+  takenAt: isoDateTime,
+  topOilC: finite.min(-50).max(150).optional(),
+  bottomOilC: finite.min(-50).max(150).optional(),
+  ambientC: finite.min(-60).max(70).optional(),
+  humidityPercent: finite.min(0).max(100).optional(),
+  instrument: z.string().max(120).optional(),
+  instrumentSerial: z.string().max(60).optional(),
+  testKV: finite.positive().optional(),
+  testFrequencyHz: finite.positive().optional(),
+  hoursDeenergised: finite.nonnegative().optional(),
+  notes: z.string().max(5000).optional(),
+};
+
+export const readingSetBodySchema = readingSetSchema.extend({
+  ...sessionConditions,
+  kind: z.enum(['factory', 'commissioning', 'routine']),
+  isReference: z.boolean().optional(),
+});
+export type ReadingSetBody = z.infer<typeof readingSetBodySchema>;
+
+export const sessionBodySchema = readingSetSchema.extend(sessionConditions);
+export type SessionBody = z.infer<typeof sessionBodySchema>;
+
+export const eventBodySchema = z.object({
+  unitId: idSchema,
+  occurredAt: isoDateTime,
+  type: faultTypeSchema,
+  side: faultSideSchema,
+  faultedPhases: z.string().trim().regex(/^[ABCN]{1,4}$/, 'phases like A, BC or ABC').optional(),
+  shots: z.array(shotSchema.pick({ currentKA: true, durationS: true }).extend({ currentKA: finite.positive().max(500, 'above 500 kA: check the unit'), durationS: finite.positive().max(60, 'above 60 s: check the unit') })).min(1, 'at least one shot'),
+  transformerTripped: z.boolean().default(true),
+  protectionOperated: z.array(protectionSchema).default([]),
+  notes: z.string().max(5000).optional(),
+});
+export type EventBody = z.infer<typeof eventBodySchema>;
+
+export const eventListQuerySchema = z.object({
+  status: z.enum(['logged', 'testing', 'screened', 'held', 'released']).optional(),
+  unitId: z.coerce.number().int().positive().optional(),
+  siteId: z.coerce.number().int().positive().optional(),
+  sort: z.enum(['occurredAt', '-occurredAt']).default('-occurredAt'),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+});
+
+export const sweepUploadFieldsSchema = z.object({
+  label: z.string().trim().min(1, 'required').max(60),
+  testType: sweepTestTypeSchema,
+  terminals: z.string().trim().max(60).optional(),
+  tapPosition: z.string().trim().max(20).optional(),
+  demagnetised: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
+});
+export const unitSweepUploadFieldsSchema = sweepUploadFieldsSchema.extend({ readingSetId: z.coerce.number().int().positive('not a valid id') });

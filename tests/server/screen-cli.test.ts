@@ -1,0 +1,63 @@
+// CLI `npm run screen`: result JSON on stdout with exit 0; bad input named on stderr with exit 2.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+const root = join(import.meta.dirname, '../..');
+const example = join(root, 'examples/cases/conditional.json');
+const run = (...args: string[]) =>
+  spawnSync('npx', ['tsx', '--tsconfig', 'server/tsconfig.json', 'server/scripts/screen.ts', ...args], { cwd: root, encoding: 'utf8' });
+const tmp = mkdtempSync(join(tmpdir(), 'gapsight-cli-'));
+
+describe('screen CLI', () => {
+  it('prints the result JSON on stdout and exits 0 for a valid case', () => {
+    const r = run(example);
+    expect(r.status).toBe(0);
+    const result = JSON.parse(r.stdout);
+    expect(result.format).toBe('gapsight-result/1');
+    expect(result).toEqual(JSON.parse(readFileSync(example.replace(/\.json$/, '.result.json'), 'utf8')));
+  });
+
+  it('prints a human-readable form with --pretty', () => {
+    const r = run(example, '--pretty');
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/^Recommendation: CONDITIONAL/);
+    expect(r.stdout).toContain('Reasons:');
+  });
+
+  it('names each bad field on stderr and exits 2 for an invalid case', () => {
+    const file = join(tmp, 'bad.json');
+    const c = JSON.parse(readFileSync(example, 'utf8'));
+    c.fault.shots[0].currentKA = -2;
+    c.unit.ratedKVA = 'forty';
+    writeFileSync(file, JSON.stringify(c));
+    const r = run(file);
+    expect(r.status).toBe(2);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toContain('fault.shots.0.currentKA');
+    expect(r.stderr).toContain('unit.ratedKVA');
+  });
+
+  it('exits 2 naming the path of a file that does not exist', () => {
+    const missing = join(tmp, 'nope.json');
+    const r = run(missing);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toContain(missing);
+  });
+
+  it('exits 2 naming the path of a file that is not JSON', () => {
+    const file = join(tmp, 'broken.json');
+    writeFileSync(file, '{ "format": ');
+    const r = run(file);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toContain(file);
+  });
+
+  it('exits 2 with a usage line without a file argument', () => {
+    const r = run();
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/usage/);
+  });
+});

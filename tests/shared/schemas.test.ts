@@ -1,0 +1,53 @@
+// Case and criteria schemas: field paths in errors, extras allowed, criteria JSON round trip.
+import { describe, expect, it } from 'vitest';
+import { parseCase, readingSetSchema, shotSchema } from '../../shared/schemas/case.js';
+import { criteriaSchema, criteriaV1 } from '../../shared/screening/index.js';
+import { cleanCase } from './case-builder.js';
+
+describe('parseCase', () => {
+  it('accepts a valid case and keeps unknown optional fields', () => {
+    const parsed = parseCase({ ...cleanCase(), note: 'extra', unit: { ...cleanCase().unit, siteName: 'Harrow Cross' } });
+    expect(parsed.ok).toBe(true);
+    if (parsed.ok) expect((parsed.value.unit as Record<string, unknown>).siteName).toBe('Harrow Cross');
+  });
+
+  it('names every bad field by its dotted path', () => {
+    const bad = cleanCase() as unknown as Record<string, any>;
+    bad.fault.shots = [{ currentKA: -1, durationS: 0.1 }, { currentKA: 5, durationS: 0 }];
+    bad.unit.phases = 2;
+    bad.postFault.capacitancePF.CHL = 'big';
+    const parsed = parseCase(bad);
+    expect(parsed.ok).toBe(false);
+    if (!parsed.ok) {
+      const paths = parsed.errors.map((e) => e.path);
+      expect(paths).toEqual(expect.arrayContaining(['fault.shots.0.currentKA', 'fault.shots.1.durationS', 'unit.phases', 'postFault.capacitancePF.CHL']));
+      for (const e of parsed.errors) expect(e.message.length).toBeGreaterThan(0);
+    }
+  });
+
+  it('rejects a wrong format tag and a missing unit', () => {
+    const parsed = parseCase({ format: 'gapsight-case/2' });
+    expect(parsed.ok).toBe(false);
+    if (!parsed.ok) expect(parsed.errors.map((e) => e.path)).toEqual(expect.arrayContaining(['format', 'unit']));
+  });
+
+  it('exports the reading-set and shot schemas for API bodies', () => {
+    expect(readingSetSchema.safeParse({ takenAt: '2026-11-29', capacitancePF: { CH: 3000 } }).success).toBe(true);
+    expect(readingSetSchema.safeParse({ takenAt: 'yesterday' }).success).toBe(false);
+    expect(shotSchema.safeParse({ currentKA: 6, durationS: 0 }).success).toBe(false);
+  });
+});
+
+describe('criteria', () => {
+  it('validates criteria set 1 with criteriaSchema and survives a JSON round trip', () => {
+    expect(criteriaSchema.safeParse(criteriaV1).success).toBe(true);
+    expect(JSON.parse(JSON.stringify(criteriaV1))).toEqual(criteriaV1);
+    expect(criteriaV1.version).toBe(1);
+  });
+
+  it('rejects a criteria set with a missing threshold', () => {
+    const broken = JSON.parse(JSON.stringify(criteriaV1));
+    delete broken.capacitance.shiftBands;
+    expect(criteriaSchema.safeParse(broken).success).toBe(false);
+  });
+});
