@@ -5,9 +5,24 @@ import { authRoutes } from './features/auth/auth.router.js';
 import { healthRoutes } from './features/health/health.router.js';
 import { outboxRoutes } from './features/outbox/outbox.router.js';
 import { userRoutes } from './features/users/users.router.js';
+import { siteRoutes } from './features/sites/sites.router.js';
+import { designRoutes } from './features/designs/designs.router.js';
+import { unitRoutes } from './features/units/units.router.js';
+import { eventRoutes } from './features/events/events.router.js';
+import { screeningRoutes } from './features/screenings/screenings.router.js';
 
 /** Every API route with who may call it; the router is built from this table and the role-matrix test reads it. */
-export const routeTable: RouteDef[] = [...healthRoutes, ...authRoutes, ...userRoutes, ...outboxRoutes];
+export const routeTable: RouteDef[] = [
+  ...healthRoutes,
+  ...authRoutes,
+  ...userRoutes,
+  ...siteRoutes,
+  ...designRoutes,
+  ...unitRoutes,
+  ...eventRoutes,
+  ...screeningRoutes,
+  ...outboxRoutes,
+];
 
 /** The /api router: authentication and role guards come from each row's access. */
 export function buildApiRouter(table: RouteDef[] = routeTable): Router {

@@ -1,0 +1,127 @@
+import { In, LessThan, Not, type DataSource } from 'typeorm';
+import type { z } from 'zod';
+import type { eventListQuerySchema } from '../../../shared/schemas/fleet.js';
+import { computeThroughFault } from '../../../shared/screening/index.js';
+import { notFound } from '../../common/app-error.js';
+import { AuditEntry } from '../../common/audit-entry.entity.js';
+import { Attachment } from '../attachments/attachment.entity.js';
+import { designView } from '../designs/designs.service.js';
+import { ReadingSet } from '../readings/reading-set.entity.js';
+import { loadCaseReadingSets } from '../readings/readings.service.js';
+import { SweepTrace } from '../readings/sweep-trace.entity.js';
+import { sweepMeta } from '../readings/sweeps.service.js';
+import { Decision } from '../screenings/decision.entity.js';
+import { Finding } from '../screenings/finding.entity.js';
+import { FollowUp } from '../screenings/follow-up.entity.js';
+import { Screening } from '../screenings/screening.entity.js';
+import { Unit } from '../units/unit.entity.js';
+import { readingSetConditions, unitView } from '../units/units.service.js';
+import { User } from '../users/user.entity.js';
+import { caseUnit } from './case-export.service.js';
+import { FaultEvent } from './fault-event.entity.js';
+
+export function eventView(e: FaultEvent) {
+  return {
+    id: e.id,
+    unitId: e.unitId,
+    occurredAt: e.occurredAt.toISOString(),
+    type: e.type,
+    faultedPhases: e.faultedPhases,
+    side: e.side,
+    shots: e.shots,
+    transformerTripped: e.transformerTripped,
+    protectionOperated: e.protectionOperated,
+    notes: e.notes,
+    status: e.status,
+    createdById: e.createdById,
+    createdAt: e.createdAt.toISOString(),
+  };
+}
+
+/** The event's through-fault duty (with the unit's earlier faults counted), as the engine computes it. */
+export async function eventThroughFault(db: DataSource, e: FaultEvent, unit: Unit) {
+  const prior = await db.getRepository(FaultEvent).find({ where: { unitId: e.unitId, occurredAt: LessThan(e.occurredAt), id: Not(e.id) } });
+  return computeThroughFault(
+    caseUnit(unit),
+    { occurredAt: e.occurredAt.toISOString(), type: e.type, side: e.side, transformerTripped: e.transformerTripped, shots: e.shots },
+    prior.map((p) => ({ occurredAt: p.occurredAt.toISOString(), type: p.type, side: p.side, shots: p.shots })),
+  );
+}
+
+/** One page of events, newest first by default, filtered by status, unit or site. */
+export async function listEvents(db: DataSource, q: z.infer<typeof eventListQuerySchema>) {
+  const qb = db.getRepository(FaultEvent).createQueryBuilder('e').innerJoinAndSelect('e.unit', 'u').innerJoinAndSelect('u.site', 's');
+  if (q.status) qb.andWhere('e.status = :status', { status: q.status });
+  if (q.unitId) qb.andWhere('e.unitId = :unitId', { unitId: q.unitId });
+  if (q.siteId) qb.andWhere('u.siteId = :siteId', { siteId: q.siteId });
+  const dir = q.sort.startsWith('-') ? 'DESC' : 'ASC';
+  qb.orderBy('e.occurredAt', dir).addOrderBy('e.id', dir);
+  qb.skip((q.page - 1) * q.pageSize).take(q.pageSize);
+  const [events, total] = await qb.getManyAndCount();
+  return {
+    items: events.map((e) => ({ ...eventView(e), unitSerial: e.unit.serial, siteId: e.unit.siteId, siteName: e.unit.site.name, siteTimeZone: e.unit.site.timeZone, recommendation: null as string | null })),
+    total,
+    page: q.page,
+    pageSize: q.pageSize,
+  };
+}
+
+/** An event with its unit, duty, sessions (values and sweeps), screenings (newest first), decision, follow-ups, findings, attachments and audit trail. */
+export async function getEvent(db: DataSource, id: number) {
+  const e = await db.getRepository(FaultEvent).findOne({ where: { id } });
+  if (!e) throw notFound('Event');
+  const unit = await db.getRepository(Unit).findOneOrFail({ where: { id: e.unitId }, relations: { site: true, design: true } });
+  const sessions = await db.getRepository(ReadingSet).find({ where: { eventId: id }, order: { takenAt: 'ASC', id: 'ASC' } });
+  const values = await loadCaseReadingSets(db.manager, sessions);
+  const sweeps = sessions.length ? await db.getRepository(SweepTrace).find({ where: { readingSetId: In(sessions.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
+  const screenings = await db.getRepository(Screening).find({ where: { eventId: id }, order: { computedAt: 'DESC', id: 'DESC' } });
+  const decisions = screenings.length ? await db.getRepository(Decision).find({ where: { screeningId: In(screenings.map((s) => s.id)) }, order: { signedAt: 'DESC', id: 'DESC' } }) : [];
+  const followUps = await db.getRepository(FollowUp).find({ where: { eventId: id }, order: { dueAt: 'ASC', id: 'ASC' } });
+  const findings = await db.getRepository(Finding).find({ where: { eventId: id }, order: { recordedAt: 'ASC', id: 'ASC' } });
+  const attachments = await db.getRepository(Attachment).find({ where: { ownerType: 'event', ownerId: id }, order: { id: 'ASC' } });
+  const auditRows = await db.getRepository(AuditEntry).find({
+    where: [
+      { entity: 'fault_event', entityId: String(id) },
+      ...(sessions.length ? [{ entity: 'reading_set', entityId: In(sessions.map((s) => String(s.id))) }] : []),
+      ...(screenings.length ? [{ entity: 'screening', entityId: In(screenings.map((s) => String(s.id))) }] : []),
+    ],
+    order: { at: 'ASC', id: 'ASC' },
+    take: 500,
+  });
+  const userIds = [...new Set([e.createdById, ...sessions.map((s) => s.createdById), ...screenings.map((s) => s.computedById), ...decisions.map((d) => d.managerId), ...auditRows.map((a) => a.userId)].filter((x): x is number => typeof x === 'number'))];
+  const users = userIds.length ? await db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
+  const people = Object.fromEntries(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
+  return {
+    ...eventView(e),
+    unit: { ...unitView(unit), site: { id: unit.site.id, name: unit.site.name, timeZone: unit.site.timeZone }, design: designView(unit.design) },
+    throughFault: await eventThroughFault(db, e, unit),
+    sessions: sessions.map((s) => ({ ...readingSetConditions(s), values: values.get(s.id), sweeps: sweeps.filter((t) => t.readingSetId === s.id).map(sweepMeta) })),
+    screenings: screenings.map((s) => ({
+      id: s.id,
+      recommendation: s.recommendation,
+      criteriaVersion: s.criteriaVersion,
+      comparison: s.comparison,
+      computedById: s.computedById,
+      computedAt: s.computedAt.toISOString(),
+      result: s.result,
+    })),
+    decision: decisions[0]
+      ? {
+          id: decisions[0].id,
+          screeningId: decisions[0].screeningId,
+          managerId: decisions[0].managerId,
+          outcome: decisions[0].outcome,
+          restrictions: decisions[0].restrictions,
+          reason: decisions[0].reason,
+          againstRecommendation: decisions[0].againstRecommendation,
+          signedAt: decisions[0].signedAt.toISOString(),
+        }
+      : null,
+    decisions: decisions.map((d) => ({ id: d.id, screeningId: d.screeningId, managerId: d.managerId, outcome: d.outcome, restrictions: d.restrictions, reason: d.reason, againstRecommendation: d.againstRecommendation, signedAt: d.signedAt.toISOString() })),
+    followUps: followUps.map((f) => ({ id: f.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: f.closedAt?.toISOString() ?? null, closedById: f.closedById, result: f.result })),
+    findings: findings.map((f) => ({ id: f.id, classification: f.classification, text: f.text, recordedById: f.recordedById, recordedAt: f.recordedAt.toISOString() })),
+    attachments: attachments.map((a) => ({ id: a.id, name: a.name, contentType: a.contentType, kind: a.kind, size: a.size, sha256: a.sha256, createdAt: a.createdAt.toISOString() })),
+    audit: auditRows.map((a) => ({ id: a.id, at: a.at.toISOString(), userId: a.userId, action: a.action, entity: a.entity, entityId: a.entityId, before: a.before, after: a.after, highlighted: a.highlighted, note: a.note })),
+    people,
+  };
+}
