@@ -43,7 +43,7 @@ export type ReadingSetPart = {
 
 type QuantitySpec = {
   keyedBy: 'configuration' | 'phase';
-  /** Accepted unit spellings (compared case-insensitively) → canonical unit and the factor to it. */
+  /** Accepted unit spellings (lower case, or Ω as written) → canonical unit and the factor to it. */
   units: Record<string, { unit: string; factor: number }>;
   unitHint: string;
   /** Smallest allowed value and whether it is itself allowed. */
@@ -241,7 +241,8 @@ function checkReading(cells: string[], index: Record<ReadingsColumn, number>): R
   }
 
   const unitText = cell('unit');
-  const unit = spec.units[unitText.toLowerCase()];
+  // Exact spelling first: 'Ω'.toLowerCase() is 'ω', which is no unit.
+  const unit = spec.units[unitText] ?? spec.units[unitText.toLowerCase()];
   if (unitText === '') errors.unit = `required: ${spec.unitHint}`;
   else if (unit === undefined) errors.unit = `${quantity} is given in ${spec.unitHint} (found '${unitText}')`;
 

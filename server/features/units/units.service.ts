@@ -47,25 +47,41 @@ const SORT_COLUMNS: Record<string, string> = {
   lastRecommendation: 'u.lastRecommendation',
 };
 
-/** One page of the fleet, filtered and sorted on the server. */
-export async function listUnits(db: DataSource, q: UnitListQuery) {
-  const qb = db
-    .getRepository(Unit)
-    .createQueryBuilder('u')
-    .innerJoinAndSelect('u.site', 's')
-    .innerJoinAndSelect('u.design', 'd');
+/**
+ * The fleet query of one page (exported so a test can EXPLAIN it). Sorting by serial, last event or recommendation
+ * reads the unit table alone through its indexes and stops at the page; sorting by site or design name joins them.
+ */
+export function unitListQuery(db: DataSource, q: UnitListQuery) {
+  const key = q.sort.replace(/^-/, '');
+  const qb = db.getRepository(Unit).createQueryBuilder('u');
+  if (key === 'site') qb.innerJoin('u.site', 's');
+  if (key === 'design') qb.innerJoin('u.design', 'd');
   if (q.siteId) qb.andWhere('u.siteId = :siteId', { siteId: q.siteId });
   if (q.designId) qb.andWhere('u.designId = :designId', { designId: q.designId });
   if (q.recommendation) qb.andWhere('u.lastRecommendation = :rec', { rec: q.recommendation });
   if (q.q) qb.andWhere('(u.serial LIKE :q OR u.position LIKE :q)', { q: `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
   const desc = q.sort.startsWith('-');
-  const column = SORT_COLUMNS[q.sort.replace(/^-/, '')];
+  const column = SORT_COLUMNS[key];
   qb.orderBy(column, desc ? 'DESC' : 'ASC');
   if (column !== 'u.serial') qb.addOrderBy('u.serial', 'ASC');
-  qb.skip((q.page - 1) * q.pageSize).take(q.pageSize);
-  const [units, total] = await qb.getManyAndCount();
+  qb.offset((q.page - 1) * q.pageSize).limit(q.pageSize);
+  return qb;
+}
+
+/** One page of the fleet, filtered and sorted on the server. */
+export async function listUnits(db: DataSource, q: UnitListQuery) {
+  const [units, total] = await unitListQuery(db, q).getManyAndCount();
+  const sites = await db.getRepository(Site).findBy({ id: In([...new Set(units.map((u) => u.siteId))]) });
+  const designs = await db.getRepository(Design).findBy({ id: In([...new Set(units.map((u) => u.designId))]) });
+  const site = new Map(sites.map((x) => [x.id, x]));
+  const design = new Map(designs.map((x) => [x.id, x]));
   return {
-    items: units.map((u) => ({ ...unitView(u), siteName: u.site.name, siteTimeZone: u.site.timeZone, designReference: u.design.reference })),
+    items: units.map((u) => ({
+      ...unitView(u),
+      siteName: site.get(u.siteId)?.name ?? '',
+      siteTimeZone: site.get(u.siteId)?.timeZone ?? 'UTC',
+      designReference: design.get(u.designId)?.reference ?? '',
+    })),
     total,
     page: q.page,
     pageSize: q.pageSize,
