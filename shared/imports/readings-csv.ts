@@ -112,11 +112,17 @@ export function normaliseCsvText(text: string): string {
   return noBom.replace(/\r\n?/g, '\n');
 }
 
-/** The column separator of a file judged by its first non-blank line: ',' unless the line has none and has ';' or a tab. */
+/**
+ * The column separator of a file judged by its first non-blank line: ';' when the line has one and its commas (if any)
+ * all sit between digits (decimal commas, as spreadsheets in many locales write them), else ',' when it has one, else a
+ * tab when it has one, else ','.
+ */
 export function detectDelimiter(normalisedText: string): ',' | ';' | '\t' {
   const first = normalisedText.split('\n').find((l) => l.trim() !== '') ?? '';
+  const commas = first.match(/,/g)?.length ?? 0;
+  const decimalCommas = first.match(/\d,\d/g)?.length ?? 0;
+  if (first.includes(';') && commas === decimalCommas) return ';';
   if (first.includes(',')) return ',';
-  if (first.includes(';')) return ';';
   if (first.includes('\t')) return '\t';
   return ',';
 }

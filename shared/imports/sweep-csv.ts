@@ -38,12 +38,11 @@ function columnOf(name: string): SweepColumn | { error: string } {
   return { error: `unknown column '${name.trim()}': ${EXPECTED_HEADER}` };
 }
 
-/** A record is a header when one of its cells holds text that is not a number (a decimal comma still counts as one). */
+/** A record is a header when none of its cells is a number and one holds text ("100,abc" is a bad data row). */
 function isHeaderRecord(cells: string[]): boolean {
-  return cells.some((c) => {
-    const r = parseDecimalCell(c);
-    return 'error' in r && r.error === 'not a number';
-  });
+  const readings = cells.map((c) => parseDecimalCell(c));
+  const numeric = readings.some((r) => 'value' in r || r.error === DECIMAL_COMMA_MESSAGE || r.error === 'not a finite number');
+  return !numeric && readings.some((r) => 'error' in r && r.error === 'not a number');
 }
 
 function readHeader(cells: string[]): { columns: SweepColumn[] } | { error: string } {

@@ -1,0 +1,365 @@
+// Writes the "Kestrel Valley Power" demo scenario inside the seed's transaction: sites, designs, units, baselines and
+// routine tests, sweeps, and the three fault events with their sessions, screenings, decisions, finding and follow-ups.
+// Every write goes through the same service functions the API uses (audited); the audit entries and row times are then
+// set to the story's instants so the trail reads as it would have happened.
+import type { EntityManager } from 'typeorm';
+import type { GapsightResult } from '../../../shared/schemas/result.js';
+import { screenCase } from '../../../shared/screening/index.js';
+import { FOLLOW_UPS } from '../../../shared/screening/verdict.js';
+import { AuditEntry } from '../../common/audit-entry.entity.js';
+import { audit } from '../../common/audit.js';
+import { loadCriteria } from '../../features/criteria/criteria.service.js';
+import { Design } from '../../features/designs/design.entity.js';
+import { buildEventCase } from '../../features/events/case-export.service.js';
+import { createEventRow, moveEvent } from '../../features/events/events.service.js';
+import { FaultEvent } from '../../features/events/fault-event.entity.js';
+import { Notification } from '../../features/notifications/notification.entity.js';
+import { ReadingSet, type ReadingSetKind } from '../../features/readings/reading-set.entity.js';
+import { insertReadingSet } from '../../features/readings/readings.service.js';
+import { insertSweepTrace } from '../../features/readings/sweeps.service.js';
+import { Decision } from '../../features/screenings/decision.entity.js';
+import { Finding } from '../../features/screenings/finding.entity.js';
+import { FollowUp } from '../../features/screenings/follow-up.entity.js';
+import { Screening } from '../../features/screenings/screening.entity.js';
+import { Site } from '../../features/sites/site.entity.js';
+import { Unit } from '../../features/units/unit.entity.js';
+import {
+  DEMO_DESIGNS,
+  DEMO_SITES,
+  DEMO_UNITS,
+  HISTORY_EVENT_SERIAL,
+  RECENT_EVENT_SERIAL,
+  demoSite,
+  factoryBody,
+  routineBody,
+  routineDates,
+  type FamilyKey,
+  type ReadingBody,
+} from './demo-fleet.js';
+import {
+  at,
+  demoTimeline,
+  historyEventBody,
+  historySession,
+  priorEventBody,
+  priorGasSession,
+  recentEventBody,
+  recentSession1,
+  recentSession2,
+  repairedBody,
+  sessionTraces,
+  type DemoTimeline,
+  type SweepState,
+} from './demo-events.js';
+
+export interface DemoUserIds {
+  admin: number;
+  protection: number;
+  tester: number;
+  manager: number;
+  engineer: number;
+}
+
+/** Ids of what the scenario created (for the start log and the tests). */
+export interface DemoScenarioResult {
+  unitIds: Record<string, number>;
+  priorEventId: number;
+  historyEventId: number;
+  recentEventId: number;
+  timeline: DemoTimeline;
+}
+
+const MINUTE = 60e3;
+const HOUR = 60 * MINUTE;
+const DAY = 24 * HOUR;
+
+/** Audit entries written since the last stamp get the story's instant instead of the seeding time. */
+class AuditClock {
+  private lastId = 0;
+
+  constructor(private readonly m: EntityManager) {}
+
+  async start(): Promise<void> {
+    this.lastId = await this.maxId();
+  }
+
+  private async maxId(): Promise<number> {
+    const row = await this.m.getRepository(AuditEntry).createQueryBuilder('a').select('MAX(a.id)', 'max').getRawOne<{ max: number | string | null }>();
+    return Number(row?.max ?? 0);
+  }
+
+  /** Runs `fn` and dates its audit entries at `when`. */
+  async at<T>(when: Date, fn: () => Promise<T>): Promise<T> {
+    const out = await fn();
+    const max = await this.maxId();
+    if (max > this.lastId) {
+      await this.m.createQueryBuilder().update(AuditEntry).set({ at: when }).where('id > :from AND id <= :to', { from: this.lastId, to: max }).execute();
+      this.lastId = max;
+    }
+    return out;
+  }
+}
+
+export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Date): Promise<DemoScenarioResult> {
+  const t = demoTimeline(now);
+  const clock = new AuditClock(m);
+  await clock.start();
+  const { version: criteriaVersion, criteria } = await loadCriteria(m, 1);
+
+  // ---------- sites, designs, units ----------
+  const setupAt = new Date('1998-09-01T09:00:00Z');
+  const siteIds: Record<string, number> = {};
+  await clock.at(setupAt, async () => {
+    for (const s of DEMO_SITES) {
+      const existing = await m.getRepository(Site).findOne({ where: { name: s.name } });
+      const id = existing ? existing.id : (await m.insert(Site, { name: s.name, timeZone: s.timeZone, createdAt: setupAt })).identifiers[0].id as number;
+      siteIds[s.name] = id;
+      if (!existing) await audit(m, { userId: users.admin, action: 'create', entity: 'site', entityId: id, after: { name: s.name, timeZone: s.timeZone }, note: 'demo data' });
+    }
+  });
+  const designIds = {} as Record<FamilyKey, number>;
+  await clock.at(setupAt, async () => {
+    for (const d of Object.values(DEMO_DESIGNS)) {
+      const row = {
+        reference: d.reference,
+        maker: d.maker,
+        windings: d.windings,
+        vectorGroup: d.vectorGroup,
+        phases: d.phases,
+        hvKV: d.hvKV,
+        lvKV: d.lvKV,
+        tvKV: null,
+        coolingStages: d.coolingStages,
+        impedancePercent: d.impedancePercent,
+        impedanceBaseKVA: d.impedanceBaseKVA,
+        conductor: d.conductor,
+        requiredCapacitance: d.requiredCapacitance,
+        notes: d.notes,
+        createdAt: setupAt,
+      };
+      const id = (await m.insert(Design, row)).identifiers[0].id as number;
+      designIds[d.key] = id;
+      const { createdAt: _c, ...after } = row;
+      await audit(m, { userId: users.admin, action: 'create', entity: 'design', entityId: id, after, note: 'demo data' });
+    }
+  });
+  const unitRows = DEMO_UNITS.map((u) => {
+    const d = DEMO_DESIGNS[u.family];
+    return {
+      serial: u.serial,
+      position: u.position,
+      siteId: siteIds[u.site],
+      designId: designIds[u.family],
+      year: u.year,
+      phases: d.phases,
+      hvKV: d.hvKV,
+      lvKV: d.lvKV,
+      ratedKVA: d.impedanceBaseKVA,
+      impedancePercent: d.impedancePercent,
+      systemImpedancePercent: demoSite(u.site).systemImpedancePercent,
+      conductor: d.conductor,
+    };
+  });
+  await m.insert(Unit, unitRows);
+  const units = await m.getRepository(Unit).find({ where: unitRows.map((u) => ({ serial: u.serial })) });
+  const unitIds = Object.fromEntries(units.map((u) => [u.serial, u.id])) as Record<string, number>;
+  for (const u of DEMO_UNITS) {
+    const created = new Date(`${u.factoryTest}T08:00:00Z`);
+    await m.update(Unit, unitIds[u.serial], { createdAt: created });
+    await clock.at(created, () =>
+      audit(m, { userId: users.admin, action: 'create', entity: 'unit', entityId: unitIds[u.serial], after: unitRows.find((r) => r.serial === u.serial), note: 'demo data' }),
+    );
+  }
+
+  // ---------- reading sets ----------
+  const addSet = async (serial: string, kind: ReadingSetKind, body: ReadingBody, userId: number, eventId: number | null = null): Promise<ReadingSet> => {
+    const takenAt = new Date(body.takenAt);
+    const createdAt = at(takenAt, kind === 'factory' ? 30 * DAY : 5 * HOUR);
+    const set = await clock.at(createdAt, () => insertReadingSet(m, { unitId: unitIds[serial], kind, eventId, body, userId }));
+    await m.update(ReadingSet, set.id, { createdAt });
+    return set;
+  };
+  const addTraces = async (setId: number, serial: string, state: SweepState, session: string, field: boolean, when: Date, userId: number) => {
+    await clock.at(when, async () => {
+      for (const tr of sessionTraces(serial, state, session, field)) {
+        const freqs = tr.points.map((p) => p[0]);
+        const trace = await insertSweepTrace(
+          m,
+          setId,
+          { label: tr.label, testType: tr.testType, terminals: tr.terminals, tapPosition: tr.tapPosition, ...(tr.demagnetised === null ? {} : { demagnetised: tr.demagnetised }) },
+          { points: tr.points, minHz: Math.min(...freqs), maxHz: Math.max(...freqs) },
+          tr.fileName,
+          userId,
+        );
+        await m.createQueryBuilder().update('sweep_trace').set({ createdAt: when }).where('id = :id', { id: trace.id }).execute();
+      }
+    });
+  };
+
+  for (const u of DEMO_UNITS) {
+    const factory = await addSet(u.serial, 'factory', factoryBody(u), users.tester);
+    if (u.serial === RECENT_EVENT_SERIAL || u.serial === HISTORY_EVENT_SERIAL) {
+      await addTraces(factory.id, u.serial, 'factory', 'factory', false, at(factory.takenAt, 30 * DAY), users.tester);
+    }
+    const dates = routineDates(u, now);
+    for (let k = 0; k < dates.length; k++) await addSet(u.serial, 'routine', routineBody(u, dates[k], k), users.tester);
+  }
+
+  // ---------- shared steps of an event's life ----------
+  const move = (eventId: number, to: FaultEvent['status'], userId: number, what: string, when: Date) => clock.at(when, () => moveEvent(m, eventId, to, userId, what));
+
+  const screen = async (eventId: number, when: Date): Promise<{ id: number; result: GapsightResult }> => {
+    const c = await buildEventCase(m, eventId);
+    const result = screenCase(c, criteria);
+    const id = await clock.at(when, async () => {
+      const row: Partial<Screening> = {
+        eventId,
+        case: c as Record<string, unknown>,
+        result: result as unknown as Record<string, unknown>,
+        recommendation: result.recommendation,
+        criteriaVersion,
+        comparison: false,
+        computedById: users.tester,
+        computedAt: when,
+      };
+      const inserted = await m.getRepository(Screening).insert(row as never);
+      const sid = inserted.identifiers[0].id as number;
+      await audit(m, { userId: users.tester, action: 'screen', entity: 'screening', entityId: sid, after: { eventId, recommendation: result.recommendation, criteriaVersion, reasons: result.reasons } });
+      return sid;
+    });
+    await move(eventId, 'screened', users.tester, 'A screening', when);
+    const event = await m.getRepository(FaultEvent).findOneByOrFail({ id: eventId });
+    await m.update(Unit, event.unitId, { lastRecommendation: result.recommendation });
+    // The manager's mail went out after the screening (the outbox of those days is not kept: only the log row).
+    await m.insert(Notification, {
+      eventId,
+      screeningId: id,
+      to: 'manager@kestrel-valley.example',
+      subject: `[Gapsight] ${result.recommendation.toUpperCase()}: ${(await m.getRepository(Unit).findOneByOrFail({ id: event.unitId })).serial} after the fault of ${event.occurredAt.toISOString().slice(0, 10)}`,
+      status: 'sent',
+      attempts: 1,
+      sentAt: at(when, 2 * MINUTE),
+      messageId: `<demo-screening-${id}@gapsight.invalid>`,
+      createdAt: when,
+    });
+    return { id, result };
+  };
+
+  const decide = async (
+    eventId: number,
+    screeningId: number,
+    outcome: Decision['outcome'],
+    reason: string,
+    restrictions: string | null,
+    when: Date,
+  ): Promise<void> => {
+    await clock.at(when, async () => {
+      const id = (await m.insert(Decision, { screeningId, managerId: users.manager, outcome, restrictions, reason, againstRecommendation: false, signedAt: when })).identifiers[0].id as number;
+      await audit(m, { userId: users.manager, action: 'decide', entity: 'decision', entityId: id, after: { eventId, screeningId, outcome, restrictions, reason } });
+    });
+    await move(eventId, outcome === 'hold' ? 'held' : 'released', users.manager, `Decision: ${outcome}`, when);
+  };
+
+  const followUp = async (eventId: number, task: string, dueAt: Date, createdAt: Date, closed?: { at: Date; result: string }): Promise<void> => {
+    const id = await clock.at(createdAt, async () => {
+      const fid = (await m.insert(FollowUp, { eventId, task, dueAt, createdAt })).identifiers[0].id as number;
+      await audit(m, { userId: users.manager, action: 'create', entity: 'follow_up', entityId: fid, after: { eventId, task, dueAt: dueAt.toISOString() } });
+      return fid;
+    });
+    if (closed) {
+      await clock.at(closed.at, async () => {
+        await m.update(FollowUp, id, { closedAt: closed.at, closedById: users.manager, result: closed.result });
+        await audit(m, { userId: users.manager, action: 'update', entity: 'follow_up', entityId: id, before: { closedAt: null }, after: { closedAt: closed.at.toISOString(), result: closed.result } });
+      });
+    }
+  };
+
+  const logEvent = async (body: Parameters<typeof createEventRow>[1]): Promise<number> => {
+    const when = at(new Date(body.occurredAt), 40 * MINUTE);
+    const event = await clock.at(when, () => createEventRow(m, body, users.protection));
+    await m.update(FaultEvent, event.id, { createdAt: when });
+    return event.id;
+  };
+
+  const session = async (serial: string, eventId: number, body: ReadingBody): Promise<ReadingSet> => {
+    await move(eventId, 'testing', users.tester, 'A new post-fault session', new Date(body.takenAt));
+    return addSet(serial, 'post-fault', body, users.tester, eventId);
+  };
+
+  // ---------- KVP-HX-T2, two years ago: a feeder fault, unit in service (duty-only path) ----------
+  const hx2 = RECENT_EVENT_SERIAL;
+  const priorEventId = await logEvent(priorEventBody(unitIds[hx2], t));
+  await session(hx2, priorEventId, priorGasSession(t));
+  const prior = await screen(priorEventId, t.priorScreening);
+  await decide(priorEventId, prior.id, 'release', 'Unit stayed in service; fault below the mechanical segment (duty-only path) and the next-day oil sample shows no acetylene. Keep the gas follow-ups.', null, t.priorDecision);
+  const priorFollowUps: { task: string; due: Date; result: string }[] = [
+    { task: FOLLOW_UPS.gas24h, due: at(t.priorFault, DAY), result: 'Taken with the next-day sample: C2H2 0 ppm, H2 +3 ppm. Normal.' },
+    { task: FOLLOW_UPS.gas1w, due: at(t.priorFault, 7 * DAY), result: 'C2H2 0 ppm, H2 29 ppm, CO 412 ppm: in line with the routine trend.' },
+    { task: FOLLOW_UPS.gas1m, due: at(t.priorFault, 30 * DAY), result: 'C2H2 0 ppm; all gases within the unit\'s normal trend. Closed.' },
+  ];
+  for (const f of priorFollowUps) {
+    if (!prior.result.followUps.includes(f.task)) continue;
+    await followUp(priorEventId, f.task, f.due, t.priorDecision, { at: at(f.due, 6 * HOUR), result: f.result });
+  }
+
+  // ---------- KVP-MB-T1, about 14 months ago: high duty → no-go → hold → inspected → repaired → go → released ----------
+  const mb1 = HISTORY_EVENT_SERIAL;
+  const historyEventId = await logEvent(historyEventBody(unitIds[mb1], t));
+  const hs = await session(mb1, historyEventId, historySession(t));
+  await addTraces(hs.id, mb1, 'deformed', 'post-fault', true, at(t.historySession, 5 * HOUR), users.tester);
+  const first = await screen(historyEventId, t.historyScreening1);
+  await decide(
+    historyEventId,
+    first.id,
+    'hold',
+    'No-go: CL up and CHL down with the phase B reactance, excitation current and sweep all moved, and acetylene in the oil. Hold for internal inspection (untank).',
+    null,
+    t.historyHold,
+  );
+  await clock.at(t.historyFinding, async () => {
+    const id = (
+      await m.insert(Finding, {
+        eventId: historyEventId,
+        classification: 'deformation-confirmed',
+        text: 'Untanked at the maker\'s works: the LV (inner) winding of phase B shows radial buckling inward (forced buckling) over about a third of its circumference, with six spacer columns displaced and two discs tilted near the top. LV windings A and C and all HV windings sound; clamping pressure found low on all three limbs. Remedy: new LV winding for phase B, all windings re-clamped, oil processed.',
+        recordedById: users.engineer,
+        recordedAt: t.historyFinding,
+      })
+    ).identifiers[0].id as number;
+    await audit(m, { userId: users.engineer, action: 'create', entity: 'finding', entityId: id, after: { eventId: historyEventId, classification: 'deformation-confirmed' } });
+  });
+  // Back at site: commissioning tests (the new reference fingerprint), then the event's re-test.
+  const commissioning = await addSet(mb1, 'commissioning', repairedBody(t, 'commissioning'), users.tester);
+  await addTraces(commissioning.id, mb1, 'repaired', 'commissioning', true, at(t.repairCommissioning, 6 * HOUR), users.tester);
+  const retest = await session(mb1, historyEventId, repairedBody(t, 'retest'));
+  await addTraces(retest.id, mb1, 'repaired', 'retest', true, at(t.historyRetest, 5 * HOUR), users.tester);
+  const second = await screen(historyEventId, t.historyScreening2);
+  await decide(
+    historyEventId,
+    second.id,
+    'release-with-restrictions',
+    'Re-test after repair is back on the fingerprint (go). Release with restrictions until the gas follow-ups are clean.',
+    'Load held at or below 40 MVA (ONAN rating) and auto-reclose on the Millbrook 33 kV feeders blocked until the 1-month oil sample is clean.',
+    t.historyRelease,
+  );
+  const r = t.historyReenergised;
+  await followUp(historyEventId, FOLLOW_UPS.gas24h, at(r, DAY), t.historyRelease, { at: at(r, DAY + 3 * HOUR), result: 'H2 6 ppm, CH4 1.4, C2H6 0.8, C2H4 0.4, C2H2 0, CO 24, CO2 230 ppm: no acetylene. Normal.' });
+  await followUp(historyEventId, FOLLOW_UPS.gas1w, at(r, 7 * DAY), t.historyRelease, { at: at(r, 7 * DAY + 5 * HOUR), result: 'H2 9 ppm, CH4 2.0, C2H4 0.6, C2H2 0, CO 41 ppm: slow rise of CO as expected for new paper insulation. Normal.' });
+  await followUp(historyEventId, FOLLOW_UPS.gas1m, at(r, 30 * DAY), t.historyRelease);
+  await followUp(historyEventId, FOLLOW_UPS.sweepNextOutage, at(r, 180 * DAY), t.historyRelease);
+
+  // ---------- KVP-HX-T2, three days ago: the event the demo screens (expected: conditional) ----------
+  const recentEventId = await logEvent(recentEventBody(unitIds[hx2], t));
+  await session(hx2, recentEventId, recentSession1(t));
+  const s2 = await session(hx2, recentEventId, recentSession2(t));
+  await addTraces(s2.id, hx2, 'factory', 'post-fault', true, at(t.recentSession2, 4 * HOUR), users.tester);
+  // The fleet list's recommendation is the newest screening of the unit's last event: none yet for the recent one.
+  await m.update(Unit, unitIds[hx2], { lastRecommendation: null });
+
+  // Events' own times: created when logged, last changed at their last step.
+  await m.update(FaultEvent, priorEventId, { updatedAt: t.priorDecision });
+  await m.update(FaultEvent, historyEventId, { updatedAt: t.historyRelease });
+  await m.update(FaultEvent, recentEventId, { updatedAt: at(t.recentSession2, 5 * HOUR) });
+
+  return { unitIds, priorEventId, historyEventId, recentEventId, timeline: t };
+}
