@@ -6,6 +6,7 @@ import { buildClient, clientIsStale } from './build-client.js';
 import { ensureDatabaseAndUser, ensureSecretFile, mariaDbPaths, ProvisionError, startMariaDb } from './mariadb.js';
 
 // npm start: private MariaDB, migrations, demo seed, mail sink, client build, one server for app + API.
+// npm run dev (DEV=1): the same without the client build, plus Vite's dev server with /api proxied.
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
 
@@ -21,7 +22,10 @@ async function main(): Promise<void> {
   if (!process.env.JWT_SECRET) process.env.JWT_SECRET = ensureSecretFile(config.dataDir, 'jwt-secret', 48);
   config = loadConfig();
 
-  if (clientIsStale(root)) {
+  const dev = process.env.GAPSIGHT_DEV === '1';
+  if (dev) {
+    console.log('Development: the client is served by Vite (hot reload).');
+  } else if (clientIsStale(root)) {
     console.log('Building the client …');
     if (!buildClient(root)) throw new Error('The client build failed (see above).');
   } else {
@@ -34,7 +38,18 @@ async function main(): Promise<void> {
   await migrateAndSeedOn(db, { seed: config.DEMO === 'on', log: (l) => console.log(l) });
 
   const { serve } = await import('../index.js');
-  const running = await serve(db, config, { staticDir: path.join(root, 'dist'), handleSignals: true });
+  const running = await serve(db, config, { staticDir: dev ? undefined : path.join(root, 'dist'), handleSignals: !dev });
+  if (dev) {
+    const { spawn } = await import('node:child_process');
+    const vite = spawn(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js')], { stdio: 'inherit', env: { ...process.env, PORT: String(running.port) } });
+    for (const sig of ['SIGINT', 'SIGTERM'] as const) {
+      process.once(sig, () => {
+        vite.kill('SIGTERM');
+        running.stop().finally(() => process.exit(0));
+      });
+    }
+    console.log(`API on ${running.url}; open the Vite URL printed below.`);
+  }
   console.log('');
   console.log(`Gapsight is running at ${running.url}`);
   if (running.sink) console.log(`Mail: local sink on 127.0.0.1:${running.sink.port}; see the Outbox (admin, manager) in the app.`);

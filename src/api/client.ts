@@ -154,6 +154,51 @@ export async function apiRequest<T>(method: string, path: string, options: Reque
   }
 }
 
+/** A file to send in a multipart upload, with the name the server should see. */
+export interface UploadFile {
+  file: Blob;
+  name: string;
+}
+
+// Send a multipart form (`file` plus text fields) and return the parsed JSON. The Content-Type (with its boundary)
+// is left to the browser: setting it by hand would drop the boundary and the server could not read the form.
+export function apiUpload<T>(
+  path: string,
+  upload: UploadFile,
+  fields: Record<string, string | number | boolean | null | undefined> = {},
+  options: Omit<RequestOptions, 'body'> = {},
+): Promise<T> {
+  const form = new FormData();
+  for (const [key, value] of Object.entries(fields)) {
+    if (value === null || value === undefined || value === '') continue;
+    form.append(key, String(value));
+  }
+  form.append('file', upload.file, upload.name);
+  return apiRequest<T>('POST', path, { ...options, body: form });
+}
+
+// GET a file (an attachment's bytes) with the bearer token; a plain link could not send the token.
+export async function apiDownload(path: string, options: Omit<RequestOptions, 'body'> = {}): Promise<Blob> {
+  const headers: Record<string, string> = { ...options.headers };
+  const sentToken = options.auth === false ? null : readStoredToken();
+  if (sentToken) headers.Authorization = `Bearer ${sentToken}`;
+  let response: Response;
+  try {
+    response = await fetch(buildUrl(path, options.query), { method: 'GET', headers, signal: options.signal });
+  } catch (cause) {
+    if (options.signal?.aborted) throw cause;
+    throw new ApiError(0, 'network_error', 'Cannot reach the Gapsight server. Check the connection and try again.');
+  }
+  if (!response.ok) {
+    const error = await toApiError(response);
+    if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) {
+      unauthorizedHandler(error);
+    }
+    throw error;
+  }
+  return response.blob();
+}
+
 // Shorthands for the usual verbs.
 export const api = {
   get: <T>(path: string, options?: Omit<RequestOptions, 'body'>) => apiRequest<T>('GET', path, options),
@@ -161,4 +206,6 @@ export const api = {
   patch: <T>(path: string, body?: unknown, options?: RequestOptions) => apiRequest<T>('PATCH', path, { ...options, body }),
   put: <T>(path: string, body?: unknown, options?: RequestOptions) => apiRequest<T>('PUT', path, { ...options, body }),
   delete: <T>(path: string, options?: RequestOptions) => apiRequest<T>('DELETE', path, options),
+  upload: apiUpload,
+  download: apiDownload,
 };

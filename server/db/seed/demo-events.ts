@@ -9,7 +9,7 @@
 //   +3.4 % against the baseline with every other method quiet → the screening the user runs says `conditional`.
 import type { EventBody } from '../../../shared/schemas/fleet.js';
 import type { Gas, Phase, ReadingBody, UnitFingerprint } from './demo-fleet.js';
-import { DEMO_DESIGNS, INSTRUMENTS, PHASES, agedGas, demoUnit, monthsBefore, resistanceAt, unitFingerprint, yearsBetween } from './demo-fleet.js';
+import { DEMO_DESIGNS, INSTRUMENTS, PHASES, agedGas, demoUnit, monthsBefore, resistanceAt, routineDates, unitFingerprint, yearsBetween } from './demo-fleet.js';
 import { DemoRandom, roundTo } from './demo-random.js';
 import { deformModel, familySweepModel, logGrid, tracePoints, type SweepKind, type SweepModel, type TraceSpec } from './demo-sweeps.js';
 
@@ -135,8 +135,7 @@ const gasPlus = (g: Gas, rise: Partial<Gas>): Gas =>
 export function routineGasBefore(serial: string, now: Date, before: Date): Gas {
   const u = demoUnit(serial);
   let found: Gas | undefined;
-  u.routineMonthsAgo.forEach((m, k) => {
-    const d = monthsBefore(now, m, k % 2 ? '13:20:00' : '10:05:00');
+  routineDates(u, now).forEach((d, k) => {
     if (d < before) found = agedGas(yearsBetween(new Date(u.factoryTest), d), `${u.serial}/routine/${k}`);
   });
   return found ?? agedGas(0, `${u.serial}/factory`);

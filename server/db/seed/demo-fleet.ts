@@ -265,7 +265,7 @@ export function factoryBody(u: DemoUnit): ReadingBody {
   const top = roundTo(25 + rnd.normal(1.5), 1);
   const resT = roundTo(19 + rnd.normal(1.2), 1);
   return {
-    takenAt: isoAt(u.factoryTest, '09:30:00'),
+    takenAt: isoAt(u.factoryTest, '00:00:00'),
     topOilC: top,
     bottomOilC: roundTo(top - 2.5, 1),
     ambientC: roundTo(top - 4, 1),
@@ -290,8 +290,8 @@ export function factoryBody(u: DemoUnit): ReadingBody {
 /** Whole years between two instants. */
 export const yearsBetween = (from: Date, to: Date): number => (to.getTime() - from.getTime()) / (365.25 * 86400e3);
 
-/** A date `months` before `now`, at a fixed time of day (UTC). */
-export function monthsBefore(now: Date, months: number, time = '10:00:00'): Date {
+/** A date `months` before `now` (the 12th of that month), at a fixed time of day (UTC). */
+export function monthsBefore(now: Date, months: number, time = '00:00:00'): Date {
   const d = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth() - months, 12));
   return new Date(`${d.toISOString().slice(0, 10)}T${time}Z`);
 }
@@ -337,9 +337,9 @@ export function routineBody(u: DemoUnit, takenAt: Date, index: number): ReadingB
   return body;
 }
 
-/** The routine test dates of a unit relative to `now`. */
+/** The routine test dates of a unit relative to `now` (recorded by date: midnight UTC, shown as a date). */
 export function routineDates(u: DemoUnit, now: Date): Date[] {
-  return u.routineMonthsAgo.map((m, k) => monthsBefore(now, m, k % 2 ? '13:20:00' : '10:05:00'));
+  return u.routineMonthsAgo.map((m) => monthsBefore(now, m, '00:00:00'));
 }
 
 /** The unit list as CSV (examples/demo/units.csv). */

@@ -212,7 +212,8 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
     const c = await buildEventCase(m, eventId);
     const result = screenCase(c, criteria);
     const id = await clock.at(when, async () => {
-      const row: Partial<Screening> = {
+      const repo = m.getRepository(Screening);
+      const row = repo.create({
         eventId,
         case: c as Record<string, unknown>,
         result: result as unknown as Record<string, unknown>,
@@ -221,9 +222,8 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
         comparison: false,
         computedById: users.tester,
         computedAt: when,
-      };
-      const inserted = await m.getRepository(Screening).insert(row as never);
-      const sid = inserted.identifiers[0].id as number;
+      });
+      const sid = (await repo.save(row)).id;
       await audit(m, { userId: users.tester, action: 'screen', entity: 'screening', entityId: sid, after: { eventId, recommendation: result.recommendation, criteriaVersion, reasons: result.reasons } });
       return sid;
     });
