@@ -15,7 +15,7 @@ export type EventBody = z.input<typeof eventBodySchema>;
 /** The body of POST /api/events/:id/sessions. */
 export type SessionBody = z.input<typeof sessionBodySchema>;
 export type SweepUploadFields = z.input<typeof sweepUploadFieldsSchema>;
-export type EventListQuery = Partial<z.input<typeof eventListQuerySchema>>;
+export type EventListQuery = Partial<z.output<typeof eventListQuerySchema>>;
 
 export interface FaultEvent {
   id: number;

@@ -12,8 +12,10 @@ export type UnitSort = (typeof UNIT_SORTS)[number];
 export type EventStatus = 'logged' | 'testing' | 'screened' | 'held' | 'released';
 export type ReadingSetKind = 'factory' | 'commissioning' | 'routine' | 'post-fault';
 
-/** The list query as the client sends it (the server's zod schema fills defaults). */
-export type UnitListQuery = Partial<z.input<typeof unitListQuerySchema>> & { sort?: UnitSort };
+/** The list query as the client sends it (the server's zod schema, unitListQuerySchema, fills defaults). */
+export type UnitListQuery = {
+  [K in keyof z.output<typeof unitListQuerySchema>]?: z.output<typeof unitListQuerySchema>[K];
+};
 
 /** A unit's own record (nameplate and the denormalised last event). */
 export interface Unit {

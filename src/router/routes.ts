@@ -45,6 +45,32 @@ export const routes: RouteRecordRaw[] = [
         meta: { title: 'Desk', nav: { label: 'Desk', icon: 'space_dashboard' } },
       },
       {
+        path: 'units',
+        name: 'units',
+        component: () => import('../pages/UnitListPage.vue'),
+        meta: { title: 'Fleet', nav: { label: 'Fleet', icon: 'electrical_services' } },
+      },
+      {
+        path: 'units/:id(\\d+)',
+        name: 'unit-file',
+        component: () => import('../pages/UnitFilePage.vue'),
+        props: true,
+        meta: { title: 'Unit file' },
+      },
+      {
+        path: 'events/new',
+        name: 'event-new',
+        component: () => import('../pages/EventNewPage.vue'),
+        meta: { title: 'Log a fault', roles: ['protection', 'admin'], nav: { label: 'Log a fault', icon: 'flash_on' } },
+      },
+      {
+        path: 'events/:id(\\d+)',
+        name: 'event-file',
+        component: () => import('../pages/EventFilePage.vue'),
+        props: true,
+        meta: { title: 'Event file' },
+      },
+      {
         path: 'forbidden',
         name: 'forbidden',
         component: () => import('../pages/ForbiddenPage.vue'),

@@ -20,6 +20,8 @@ export const at = (base: Date, ms: number): Date => new Date(base.getTime() + ms
 /** Every instant of the story, computed from "now" (the only thing that changes between runs). */
 export interface DemoTimeline {
   now: Date;
+  /** When the fleet was set up in Gapsight (sites, designs, units; factory results back-entered). */
+  setup: Date;
   priorFault: Date;
   priorGasSample: Date;
   priorScreening: Date;
@@ -51,6 +53,7 @@ export function demoTimeline(now: Date): DemoTimeline {
   const historyRetest = day(45, '08:30:00');
   return {
     now,
+    setup: monthsBefore(now, 80, '09:00:00'),
     priorFault,
     priorGasSample: at(priorFault, 20 * HOUR),
     priorScreening: at(priorFault, 22 * HOUR),

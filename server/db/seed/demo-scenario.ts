@@ -1,12 +1,12 @@
 // Writes the "Kestrel Valley Power" demo scenario inside the seed's transaction: sites, designs, units, baselines and
 // routine tests, sweeps, and the three fault events with their sessions, screenings, decisions, finding and follow-ups.
-// Every write goes through the same service functions the API uses (audited); the audit entries and row times are then
-// set to the story's instants so the trail reads as it would have happened.
+// Every write goes through the same service functions the API uses (audited). The connection's clock is set to each
+// step's instant (MariaDB `SET timestamp`), so audit entries and created/updated times read as the story happened;
+// it is reset before the connection goes back to the pool.
 import type { EntityManager } from 'typeorm';
 import type { GapsightResult } from '../../../shared/schemas/result.js';
 import { screenCase } from '../../../shared/screening/index.js';
 import { FOLLOW_UPS } from '../../../shared/screening/verdict.js';
-import { AuditEntry } from '../../common/audit-entry.entity.js';
 import { audit } from '../../common/audit.js';
 import { loadCriteria } from '../../features/criteria/criteria.service.js';
 import { Design } from '../../features/designs/design.entity.js';
@@ -73,46 +73,41 @@ const MINUTE = 60e3;
 const HOUR = 60 * MINUTE;
 const DAY = 24 * HOUR;
 
-/** Audit entries written since the last stamp get the story's instant instead of the seeding time. */
-class AuditClock {
-  private lastId = 0;
-
+/** The transaction connection's clock: CURRENT_TIMESTAMP (row defaults, audit times) reads the story's instant. */
+class StoryClock {
   constructor(private readonly m: EntityManager) {}
 
-  async start(): Promise<void> {
-    this.lastId = await this.maxId();
-  }
-
-  private async maxId(): Promise<number> {
-    const row = await this.m.getRepository(AuditEntry).createQueryBuilder('a').select('MAX(a.id)', 'max').getRawOne<{ max: number | string | null }>();
-    return Number(row?.max ?? 0);
-  }
-
-  /** Runs `fn` and dates its audit entries at `when`. */
+  /** Runs `fn` with the connection's clock at `when`. */
   async at<T>(when: Date, fn: () => Promise<T>): Promise<T> {
-    const out = await fn();
-    const max = await this.maxId();
-    if (max > this.lastId) {
-      await this.m.createQueryBuilder().update(AuditEntry).set({ at: when }).where('id > :from AND id <= :to', { from: this.lastId, to: max }).execute();
-      this.lastId = max;
-    }
-    return out;
+    await this.m.query('SET timestamp = ?', [when.getTime() / 1000]);
+    return fn();
+  }
+
+  async reset(): Promise<void> {
+    await this.m.query('SET timestamp = DEFAULT');
   }
 }
 
 export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Date): Promise<DemoScenarioResult> {
+  const clock = new StoryClock(m);
+  try {
+    return await writeScenario(m, users, now, clock);
+  } finally {
+    await clock.reset();
+  }
+}
+
+async function writeScenario(m: EntityManager, users: DemoUserIds, now: Date, clock: StoryClock): Promise<DemoScenarioResult> {
   const t = demoTimeline(now);
-  const clock = new AuditClock(m);
-  await clock.start();
   const { version: criteriaVersion, criteria } = await loadCriteria(m, 1);
 
   // ---------- sites, designs, units ----------
-  const setupAt = new Date('1998-09-01T09:00:00Z');
+  const setupAt = t.setup;
   const siteIds: Record<string, number> = {};
   await clock.at(setupAt, async () => {
     for (const s of DEMO_SITES) {
       const existing = await m.getRepository(Site).findOne({ where: { name: s.name } });
-      const id = existing ? existing.id : (await m.insert(Site, { name: s.name, timeZone: s.timeZone, createdAt: setupAt })).identifiers[0].id as number;
+      const id = existing ? existing.id : (await m.insert(Site, { name: s.name, timeZone: s.timeZone })).identifiers[0].id as number;
       siteIds[s.name] = id;
       if (!existing) await audit(m, { userId: users.admin, action: 'create', entity: 'site', entityId: id, after: { name: s.name, timeZone: s.timeZone }, note: 'demo data' });
     }
@@ -135,12 +130,11 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
         conductor: d.conductor,
         requiredCapacitance: d.requiredCapacitance,
         notes: d.notes,
-        createdAt: setupAt,
       };
-      const id = (await m.insert(Design, row)).identifiers[0].id as number;
+      const existing = await m.getRepository(Design).findOne({ where: { reference: d.reference } });
+      const id = existing ? existing.id : ((await m.insert(Design, row)).identifiers[0].id as number);
       designIds[d.key] = id;
-      const { createdAt: _c, ...after } = row;
-      await audit(m, { userId: users.admin, action: 'create', entity: 'design', entityId: id, after, note: 'demo data' });
+      if (!existing) await audit(m, { userId: users.admin, action: 'create', entity: 'design', entityId: id, after: row, note: 'demo data' });
     }
   });
   const unitRows = DEMO_UNITS.map((u) => {
@@ -160,30 +154,27 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
       conductor: d.conductor,
     };
   });
-  await m.insert(Unit, unitRows);
-  const units = await m.getRepository(Unit).find({ where: unitRows.map((u) => ({ serial: u.serial })) });
-  const unitIds = Object.fromEntries(units.map((u) => [u.serial, u.id])) as Record<string, number>;
-  for (const u of DEMO_UNITS) {
-    const created = new Date(`${u.factoryTest}T08:00:00Z`);
-    await m.update(Unit, unitIds[u.serial], { createdAt: created });
-    await clock.at(created, () =>
-      audit(m, { userId: users.admin, action: 'create', entity: 'unit', entityId: unitIds[u.serial], after: unitRows.find((r) => r.serial === u.serial), note: 'demo data' }),
-    );
-  }
+  const unitIds = await clock.at(setupAt, async () => {
+    await m.insert(Unit, unitRows);
+    const units = await m.getRepository(Unit).find({ where: unitRows.map((u) => ({ serial: u.serial })) });
+    const ids = Object.fromEntries(units.map((u) => [u.serial, u.id])) as Record<string, number>;
+    for (const row of unitRows) await audit(m, { userId: users.admin, action: 'create', entity: 'unit', entityId: ids[row.serial], after: row, note: 'demo data' });
+    return ids;
+  });
 
   // ---------- reading sets ----------
+  // Factory results were entered from the makers' test reports when the fleet was set up; later sets on the day.
+  let backEntered = 0;
   const addSet = async (serial: string, kind: ReadingSetKind, body: ReadingBody, userId: number, eventId: number | null = null): Promise<ReadingSet> => {
     const takenAt = new Date(body.takenAt);
-    const createdAt = at(takenAt, kind === 'factory' ? 30 * DAY : 5 * HOUR);
-    const set = await clock.at(createdAt, () => insertReadingSet(m, { unitId: unitIds[serial], kind, eventId, body, userId }));
-    await m.update(ReadingSet, set.id, { createdAt });
-    return set;
+    const enteredAt = takenAt < setupAt ? at(setupAt, ++backEntered * 20 * MINUTE) : at(takenAt, kind === 'routine' ? 16 * HOUR : 5 * HOUR);
+    return clock.at(enteredAt, () => insertReadingSet(m, { unitId: unitIds[serial], kind, eventId, body, userId }));
   };
   const addTraces = async (setId: number, serial: string, state: SweepState, session: string, field: boolean, when: Date, userId: number) => {
     await clock.at(when, async () => {
       for (const tr of sessionTraces(serial, state, session, field)) {
         const freqs = tr.points.map((p) => p[0]);
-        const trace = await insertSweepTrace(
+        await insertSweepTrace(
           m,
           setId,
           { label: tr.label, testType: tr.testType, terminals: tr.terminals, tapPosition: tr.tapPosition, ...(tr.demagnetised === null ? {} : { demagnetised: tr.demagnetised }) },
@@ -191,7 +182,6 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
           tr.fileName,
           userId,
         );
-        await m.createQueryBuilder().update('sweep_trace').set({ createdAt: when }).where('id = :id', { id: trace.id }).execute();
       }
     });
   };
@@ -199,7 +189,7 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
   for (const u of DEMO_UNITS) {
     const factory = await addSet(u.serial, 'factory', factoryBody(u), users.tester);
     if (u.serial === RECENT_EVENT_SERIAL || u.serial === HISTORY_EVENT_SERIAL) {
-      await addTraces(factory.id, u.serial, 'factory', 'factory', false, at(factory.takenAt, 30 * DAY), users.tester);
+      await addTraces(factory.id, u.serial, 'factory', 'factory', false, at(setupAt, (++backEntered) * 20 * MINUTE), users.tester);
     }
     const dates = routineDates(u, now);
     for (let k = 0; k < dates.length; k++) await addSet(u.serial, 'routine', routineBody(u, dates[k], k), users.tester);
@@ -229,7 +219,7 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
     });
     await move(eventId, 'screened', users.tester, 'A screening', when);
     const event = await m.getRepository(FaultEvent).findOneByOrFail({ id: eventId });
-    await m.update(Unit, event.unitId, { lastRecommendation: result.recommendation });
+    await clock.at(when, () => m.update(Unit, event.unitId, { lastRecommendation: result.recommendation }));
     // The manager's mail went out after the screening (the outbox of those days is not kept: only the log row).
     await m.insert(Notification, {
       eventId,
@@ -240,7 +230,6 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
       attempts: 1,
       sentAt: at(when, 2 * MINUTE),
       messageId: `<demo-screening-${id}@gapsight.invalid>`,
-      createdAt: when,
     });
     return { id, result };
   };
@@ -262,7 +251,7 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
 
   const followUp = async (eventId: number, task: string, dueAt: Date, createdAt: Date, closed?: { at: Date; result: string }): Promise<void> => {
     const id = await clock.at(createdAt, async () => {
-      const fid = (await m.insert(FollowUp, { eventId, task, dueAt, createdAt })).identifiers[0].id as number;
+      const fid = (await m.insert(FollowUp, { eventId, task, dueAt })).identifiers[0].id as number;
       await audit(m, { userId: users.manager, action: 'create', entity: 'follow_up', entityId: fid, after: { eventId, task, dueAt: dueAt.toISOString() } });
       return fid;
     });
@@ -277,7 +266,6 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
   const logEvent = async (body: Parameters<typeof createEventRow>[1]): Promise<number> => {
     const when = at(new Date(body.occurredAt), 40 * MINUTE);
     const event = await clock.at(when, () => createEventRow(m, body, users.protection));
-    await m.update(FaultEvent, event.id, { createdAt: when });
     return event.id;
   };
 
@@ -355,11 +343,6 @@ export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Da
   await addTraces(s2.id, hx2, 'factory', 'post-fault', true, at(t.recentSession2, 4 * HOUR), users.tester);
   // The fleet list's recommendation is the newest screening of the unit's last event: none yet for the recent one.
   await m.update(Unit, unitIds[hx2], { lastRecommendation: null });
-
-  // Events' own times: created when logged, last changed at their last step.
-  await m.update(FaultEvent, priorEventId, { updatedAt: t.priorDecision });
-  await m.update(FaultEvent, historyEventId, { updatedAt: t.historyRelease });
-  await m.update(FaultEvent, recentEventId, { updatedAt: at(t.recentSession2, 5 * HOUR) });
 
   return { unitIds, priorEventId, historyEventId, recentEventId, timeline: t };
 }

@@ -1,0 +1,151 @@
+import { enableAutoUnmount } from '@vue/test-utils';
+import Papa from 'papaparse';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest } from '../helpers';
+import { unitItem } from './fixtures';
+
+enableAutoUnmount(afterEach);
+
+const sites = [
+  { id: 1, name: 'Harrow Cross', timeZone: 'Europe/London' },
+  { id: 2, name: 'Millbrook', timeZone: 'Europe/London' },
+];
+const designs = [{ id: 2, reference: 'KV-40-132', unitCount: 8 }];
+
+function signedInWithFleet(answer: (request: RecordedRequest) => { items: unknown[]; total: number }) {
+  storeToken('valid');
+  return scriptFetch({
+    'GET /api/auth/me': { body: makeUser({ roles: ['engineer'] }) },
+    'GET /api/health': { body: healthy },
+    'GET /api/sites': { body: sites },
+    'GET /api/designs': { body: designs },
+    'GET /api/units': (request) => ({ body: answer(request) }),
+  });
+}
+
+function unitQueries(requests: RecordedRequest[]): URLSearchParams[] {
+  return requests.filter((r) => r.url.split('?')[0] === '/api/units').map((r) => new URLSearchParams(r.url.split('?')[1] ?? ''));
+}
+
+const fortyUnits = Array.from({ length: 40 }, (_, k) => unitItem({ id: 100 + k, serial: `KVP-${String(k).padStart(2, '0')}` }));
+
+describe('UnitListPage (/units)', () => {
+  afterEach(resetClientState);
+
+  it('asks the server for the first page sorted by serial and shows each unit with site, design, last event and recommendation', async () => {
+    const { requests } = signedInWithFleet(() => ({ items: [unitItem()], total: 1 }));
+    const { wrapper } = await mountApp('/units');
+
+    const [first] = unitQueries(requests);
+    expect(Object.fromEntries(first)).toEqual({ sort: 'serial', page: '1', pageSize: '25' });
+    const row = wrapper.get('[data-test="fleet-table"] tbody tr');
+    expect(row.text()).toContain('KVP-HX-T2');
+    expect(row.text()).toContain('Harrow Cross');
+    expect(row.text()).toContain('KV-40-132');
+    // 03:12 UTC on 1 July is 04:12 in London (summer time), shown with offset and zone.
+    expect(row.text()).toContain('2026-07-01 04:12 +01:00 Europe/London');
+    const badge = row.get('[data-test="recommendation-badge"]');
+    expect(badge.attributes('data-recommendation')).toBe('conditional');
+    expect(badge.text()).toContain('Conditional');
+    expect(badge.get('.q-icon').text()).toBe('warning');
+  });
+
+  it('requests the sort of a clicked column, then the reverse order on a second click', async () => {
+    const { requests } = signedInWithFleet(() => ({ items: [unitItem()], total: 1 }));
+    const { wrapper } = await mountApp('/units');
+
+    const siteHeader = () => wrapper.findAll('[data-test="fleet-table"] th').find((th) => th.text().includes('Site'))!;
+    await siteHeader().trigger('click');
+    await vi.waitFor(() => expect(unitQueries(requests).at(-1)?.get('sort')).toBe('site'));
+    await siteHeader().trigger('click');
+    await vi.waitFor(() => expect(unitQueries(requests).at(-1)?.get('sort')).toBe('-site'));
+    expect(unitQueries(requests).at(-1)?.get('page')).toBe('1');
+  });
+
+  it('requests page 2 with the same sort when the next page is asked for', async () => {
+    const { requests } = signedInWithFleet((r) => {
+      const page = Number(new URLSearchParams(r.url.split('?')[1]).get('page'));
+      return { items: fortyUnits.slice((page - 1) * 25, page * 25), total: 40 };
+    });
+    const { wrapper } = await mountApp('/units');
+
+    expect(wrapper.get('[data-test="page-of"]').text()).toBe('page 1 of 2');
+    await wrapper.get('[data-test="next-page"]').trigger('click');
+    await vi.waitFor(() => expect(unitQueries(requests).at(-1)?.get('page')).toBe('2'));
+    expect(unitQueries(requests).at(-1)?.get('sort')).toBe('serial');
+    await settle();
+    expect(wrapper.get('[data-test="fleet-table"] tbody tr').text()).toContain('KVP-25');
+  });
+
+  it('sends the typed text as q and starts again at page 1', async () => {
+    const { requests } = signedInWithFleet(() => ({ items: [unitItem()], total: 1 }));
+    const { wrapper } = await mountApp('/units');
+
+    await wrapper.get('input[data-test="filter-q"]').setValue('HX-T');
+    await vi.waitFor(() => expect(unitQueries(requests).at(-1)?.get('q')).toBe('HX-T'), { timeout: 2000 });
+    expect(unitQueries(requests).at(-1)?.get('page')).toBe('1');
+  });
+
+  it('takes site, design and recommendation filters from the URL into the query string', async () => {
+    const { requests } = signedInWithFleet(() => ({ items: [], total: 0 }));
+    await mountApp('/units?siteId=2&designId=2&recommendation=no-go');
+
+    expect(Object.fromEntries(unitQueries(requests)[0])).toEqual({
+      siteId: '2',
+      designId: '2',
+      recommendation: 'no-go',
+      sort: 'serial',
+      page: '1',
+      pageSize: '25',
+    });
+  });
+
+  it('says what to do next when the fleet is empty, and when no unit matches the filters', async () => {
+    signedInWithFleet(() => ({ items: [], total: 0 }));
+    const empty = await mountApp('/units');
+    expect(empty.wrapper.get('[data-test="fleet-empty"]').text()).toContain('An administrator adds the sites, designs and units');
+    empty.wrapper.unmount();
+
+    signedInWithFleet(() => ({ items: [], total: 0 }));
+    const filtered = await mountApp('/units?q=zzz');
+    expect(filtered.wrapper.get('[data-test="fleet-empty"]').text()).toContain('No unit matches these filters.');
+    expect(filtered.wrapper.get('[data-test="fleet-empty"]').text()).toContain('Clear the filters');
+  });
+
+  it('exports every page of the current filter as CSV, 500 units a request', async () => {
+    const many = Array.from({ length: 620 }, (_, k) => unitItem({ id: k + 1, serial: `S-${k}` }));
+    const { requests } = signedInWithFleet((r) => {
+      const q = new URLSearchParams(r.url.split('?')[1]);
+      const page = Number(q.get('page'));
+      const size = Number(q.get('pageSize'));
+      return { items: many.slice((page - 1) * size, page * size), total: many.length };
+    });
+    const blobs: Blob[] = [];
+    vi.spyOn(URL, 'createObjectURL').mockImplementation((blob) => {
+      blobs.push(blob as Blob);
+      return 'blob:fleet';
+    });
+    vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
+    vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(() => undefined);
+    const { wrapper } = await mountApp('/units?recommendation=conditional');
+
+    await wrapper.get('[data-test="export-csv"]').trigger('click');
+    await vi.waitFor(() => expect(blobs).toHaveLength(1));
+
+    const exportQueries = unitQueries(requests).filter((q) => q.get('pageSize') === '500');
+    expect(exportQueries.map((q) => q.get('page'))).toEqual(['1', '2']);
+    expect(exportQueries.every((q) => q.get('recommendation') === 'conditional')).toBe(true);
+    const parsed = Papa.parse<Record<string, string>>(await blobs[0].text(), { header: true, skipEmptyLines: true });
+    expect(parsed.data).toHaveLength(620);
+    expect(parsed.data[0]).toMatchObject({ serial: 'S-0', site: 'Harrow Cross', lastRecommendation: 'conditional', lastEventAtUtc: '2026-07-01T03:12:00.000Z' });
+  });
+
+  it('shows the cautions under the table, where recommendations appear', async () => {
+    signedInWithFleet(() => ({ items: [unitItem()], total: 1 }));
+    const { wrapper } = await mountApp('/units');
+
+    const cautions = wrapper.get('[data-test="cautions"]').text();
+    expect(cautions).toContain('The recommendation is decision support for qualified staff.');
+    expect(cautions).toContain('High-voltage tests must follow');
+  });
+});
