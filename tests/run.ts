@@ -75,6 +75,8 @@ async function main(): Promise<number> {
   await startMariaDb(paths, { bufferPoolMB: 128 });
   const dbPassword = randomBytes(12).toString('hex');
   ensureDatabaseAndUser(paths, 'gapsight_test', 'gapsight', dbPassword);
+  // A second, empty database for tests that need a database of their own (the demo seed at a fixed date).
+  ensureDatabaseAndUser(paths, 'gapsight_fixed', 'gapsight', dbPassword);
   console.log(`✓ MariaDB on 127.0.0.1:${dbPort} (datadir ${paths.datadir})`);
 
   Object.assign(process.env, {
@@ -82,6 +84,7 @@ async function main(): Promise<number> {
     DB_HOST: '127.0.0.1',
     DB_PORT: String(dbPort),
     DB_NAME: 'gapsight_test',
+    TEST_DB_NAME_FIXED: 'gapsight_fixed',
     DB_USER: 'gapsight',
     DB_PASSWORD: dbPassword,
     JWT_SECRET: randomBytes(32).toString('hex'),

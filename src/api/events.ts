@@ -157,7 +157,8 @@ export function createSession(eventId: number, body: SessionBody): Promise<Creat
 // POST /api/sessions/:id/imports — a canonical readings CSV into a session: all rows or none.
 export function importReadings(sessionId: number, csvText: string, fileName: string): Promise<ImportAnswer> {
   const name = /\.csv$/i.test(fileName) ? fileName : `${fileName.replace(/\.[^.]*$/, '')}.csv`;
-  const file = new Blob([csvText], { type: 'text/csv' });
+  // A File, not a bare Blob: its name travels with it whatever the FormData implementation does with a third argument.
+  const file = new File([csvText], name, { type: 'text/csv' });
   return api.upload<ImportAnswer>(`/sessions/${sessionId}/imports`, { file, name });
 }
 

@@ -62,7 +62,6 @@ describe('EventNewPage (/events/new)', () => {
     await type(wrapper, 'shot-current-0', '6,3');
     expect(fieldText(wrapper, 'shot-current-0')).toContain('decimal comma');
     await type(wrapper, 'shot-duration-0', '0');
-    expect(fieldText(wrapper, 'shot-duration-0')).not.toBe(fieldText(wrapper, 'shot-duration-0').replace(/./g, ''));
     expect(wrapper.get('input[data-test="shot-duration-0"]').element.closest('.q-field')?.classList.contains('q-field--error')).toBe(true);
     await type(wrapper, 'shot-duration-0', '0.1');
     expect(wrapper.get('input[data-test="shot-duration-0"]').element.closest('.q-field')?.classList.contains('q-field--error')).toBe(false);

@@ -72,8 +72,21 @@ describe('buildNavItems', () => {
     expect(items.filter((item) => item.exact).map((item) => item.name)).toEqual(['desk']);
   });
 
-  it('gives every user of the real table the desk', () => {
+  it('gives every user of the real table the desk and the fleet', () => {
     const items = buildNavItems(routes, { hasRole: holding(), mailSink: false });
-    expect(items).toEqual([{ name: 'desk', label: 'Desk', icon: 'space_dashboard', exact: true }]);
+    expect(items.map((item) => [item.name, item.label])).toEqual([
+      ['desk', 'Desk'],
+      ['units', 'Fleet'],
+    ]);
+    expect(items.filter((item) => item.exact).map((item) => item.name)).toEqual(['desk']);
+  });
+
+  it('offers "Log a fault" in the real table to protection engineers and administrators only', () => {
+    for (const role of ['protection', 'admin'] as Role[]) {
+      expect(buildNavItems(routes, { hasRole: holding(role), mailSink: false }).map((i) => i.label)).toContain('Log a fault');
+    }
+    for (const role of ['tester', 'manager', 'engineer'] as Role[]) {
+      expect(buildNavItems(routes, { hasRole: holding(role), mailSink: false }).map((i) => i.label)).not.toContain('Log a fault');
+    }
   });
 });

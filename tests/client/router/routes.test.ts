@@ -45,4 +45,13 @@ describe('route table', () => {
     expect(byName.has('forbidden')).toBe(true);
     expect(pages.filter((record) => record.meta?.public).map((record) => record.name)).toEqual(['sign-in']);
   });
+
+  it('has the fleet, unit file, log-a-fault and event file pages, logging limited to protection and admin', () => {
+    const byName = new Map(pages.map((record) => [record.name, record]));
+    expect(byName.get('units')?.meta?.nav?.label).toBe('Fleet');
+    expect(byName.get('unit-file')?.props).toBe(true);
+    expect(byName.get('event-new')?.meta?.roles).toEqual(['protection', 'admin']);
+    expect(byName.get('event-new')?.meta?.nav?.label).toBe('Log a fault');
+    expect(byName.get('event-file')?.props).toBe(true);
+  });
 });

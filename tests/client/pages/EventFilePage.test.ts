@@ -1,0 +1,270 @@
+import { enableAutoUnmount, type VueWrapper } from '@vue/test-utils';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import type { Role } from '../../../src/api/auth';
+import type { EventDetail } from '../../../src/api/events';
+import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type ScriptedResponse } from '../helpers';
+import { eventDetail } from './fixtures';
+
+enableAutoUnmount(afterEach);
+
+type Script = Parameters<typeof scriptFetch>[0];
+
+function signedInAs(roles: Role[], event: EventDetail = eventDetail(), extra: Script = {}) {
+  storeToken('valid');
+  return scriptFetch({
+    'GET /api/auth/me': { body: makeUser({ roles }) },
+    'GET /api/health': { body: healthy },
+    'GET /api/events/11': { body: event },
+    ...extra,
+  });
+}
+
+// Put a file into a QFile (or any file input) the way a user's pick does: the input's files, then its change event.
+async function pickFile(wrapper: VueWrapper, testId: string, file: File): Promise<void> {
+  const holder = wrapper.get(`[data-test="${testId}"]`).element;
+  const input = (holder instanceof HTMLInputElement ? holder : holder.querySelector('input[type="file"]')) as HTMLInputElement;
+  Object.defineProperty(input, 'files', { value: [file], configurable: true, writable: true });
+  input.dispatchEvent(new Event('change'));
+  await settle();
+}
+
+const csv = (name: string, text: string) => new File([text], name, { type: 'text/csv' });
+
+describe('EventFilePage (/events/:id)', () => {
+  afterEach(resetClientState);
+
+  it('shows the unit, site with its time zone, the status as icon and word, and the fault with the server’s duty figures', async () => {
+    signedInAs(['engineer']);
+    const { wrapper } = await mountApp('/events/11');
+
+    expect(wrapper.get('[data-test="event-title"]').text()).toContain('KVP-HX-T2');
+    expect(wrapper.get('[data-test="event-title"]').text()).toContain('2026-07-01 04:12 +01:00 Europe/London');
+    expect(wrapper.get('[data-test="event-site"]').text()).toContain('Harrow Cross (Europe/London)');
+    const status = wrapper.get('[data-test="status-chip"]');
+    expect(status.attributes('data-status')).toBe('testing');
+    expect(status.text()).toContain('Testing');
+    const fault = wrapper.get('[data-test="fault-data"]').text();
+    expect(fault).toContain('Three-phase');
+    expect(fault).toContain('LV side (33 kV)');
+    expect(fault).toContain('Overcurrent');
+    expect(wrapper.get('[data-test="shots"]').text()).toContain('6.1 kA');
+    expect(wrapper.get('[data-test="duty-per-unit"]').text()).toBe('9.0 × rated');
+  });
+
+  it('renders the post-fault sessions with their conditions and values, and the attached relay records', async () => {
+    signedInAs(['engineer']);
+    const { wrapper } = await mountApp('/events/11');
+
+    const sessions = wrapper.findAll('[data-test="session"]');
+    expect(sessions).toHaveLength(1);
+    expect(sessions[0].text()).toContain('2026-07-02 09:30 +01:00 Europe/London');
+    expect(sessions[0].text()).toContain('top oil 33.0 °C');
+    expect(sessions[0].text()).toContain('by Ruth Okafor');
+    const values = sessions[0].findAll('[data-test="value-row"]').map((r) => r.text());
+    expect(values).toContain('CapacitanceCHL5405pF');
+    expect(values).toContain('Dissipation factorCH0.3%');
+
+    const attachments = wrapper.findAll('[data-test="attachment"]');
+    expect(attachments).toHaveLength(1);
+    expect(attachments[0].text()).toContain('HX-T2-feeder4.cfg');
+    expect(attachments[0].text()).toContain('comtrade-cfg · 2 kB');
+  });
+
+  it('says plainly that the event is not screened, with the cautions beside it', async () => {
+    signedInAs(['manager']);
+    const { wrapper } = await mountApp('/events/11');
+
+    const section = wrapper.get('[data-test="screenings"]');
+    expect(section.get('[data-test="not-screened"]').text()).toContain('Not screened yet.');
+    expect(section.find('[data-test="recommendation-badge"]').exists()).toBe(false);
+    expect(section.get('[data-test="cautions"]').text()).toContain('decision support for qualified staff');
+  });
+
+  it('lists stored screenings with recommendation badges, newest decisive one first with its reason', async () => {
+    const result = { format: 'gapsight-result/1', recommendation: 'conditional', reasons: ['CHL capacitance shifted +3.74 %'], missing: [], unreliable: [], followUps: [], cautions: [], throughFault: null, indicators: [] };
+    const event = eventDetail({
+      status: 'screened',
+      screenings: [
+        { id: 2, recommendation: 'no-go', criteriaVersion: 2, comparison: true, computedById: 7, computedAt: '2026-07-03T10:00:00.000Z', result: { ...result, recommendation: 'no-go' } as never },
+        { id: 1, recommendation: 'conditional', criteriaVersion: 1, comparison: false, computedById: 7, computedAt: '2026-07-03T09:00:00.000Z', result: result as never },
+      ],
+    });
+    signedInAs(['manager'], event);
+    const { wrapper } = await mountApp('/events/11');
+
+    const newest = wrapper.get('[data-test="newest-screening"]');
+    expect(newest.get('[data-test="recommendation-badge"]').attributes('data-recommendation')).toBe('conditional');
+    expect(newest.text()).toContain('CHL capacitance shifted +3.74 %');
+    const rows = wrapper.findAll('[data-test="screening-row"]');
+    expect(rows.map((r) => r.get('[data-test="recommendation-badge"]').attributes('data-recommendation'))).toEqual(['no-go', 'conditional']);
+    expect(rows[0].text()).toContain('(comparison)');
+    expect(wrapper.get('[data-test="screenings"] [data-test="cautions"]').exists()).toBe(true);
+  });
+
+  it('lists every row error of a bad readings CSV before anything is uploaded, and uploads nothing', async () => {
+    const { requests } = signedInAs(['tester'], eventDetail(), { 'POST /api/sessions/31/imports': { body: { imported: 0, rows: [] } } });
+    const { wrapper } = await mountApp('/events/11');
+
+    await wrapper.get('[data-test="import-31"]').trigger('click');
+    await settle();
+    await pickFile(
+      wrapper,
+      'import-file',
+      csv(
+        'bad.csv',
+        'quantity,configuration,phase,value,unit\ncapacitance,CH,,3131,pF\ncapacitance,CL,,"9990,5",pF\ninductance,CHL,,5405,pF\nreactance,,,11.6,%\n',
+      ),
+    );
+
+    const errors = wrapper.findAll('[data-test="import-error"]').map((e) => e.text());
+    expect(errors).toEqual([
+      'row 3.value: decimal comma: use a point (3.14)',
+      "row 4.quantity: unknown quantity 'inductance': use one of capacitance, dissipation, reactance, excitation-current, winding-resistance, turns-ratio",
+      'row 5.phase: required for reactance: A, B or C',
+    ]);
+    expect(wrapper.get('[data-test="import-errors"]').text()).toContain('nothing was uploaded');
+    expect(wrapper.find('[data-test="import-upload"]').exists()).toBe(false);
+    expect(requests.some((r) => r.url.startsWith('/api/sessions/'))).toBe(false);
+  });
+
+  it('maps another column layout onto the canonical header, previews the rows and uploads the canonical CSV as a file', async () => {
+    const { requests } = signedInAs(['tester'], eventDetail(), {
+      'POST /api/sessions/31/imports': { body: { imported: 2, rows: [] } },
+    });
+    const { wrapper } = await mountApp('/events/11');
+
+    await wrapper.get('[data-test="import-31"]').trigger('click');
+    await settle();
+    await pickFile(wrapper, 'import-file', csv('testset-export.csv', 'Test,Insulation,Ph,Reading,UOM\ncapacitance,CH,,3131,pF\nreactance,,B,11.60,%\n'));
+
+    expect(wrapper.find('[data-test="import-mapping"]').exists()).toBe(true);
+    expect(requests.some((r) => r.url.startsWith('/api/sessions/'))).toBe(false);
+    await wrapper.get('[data-test="apply-mapping"]').trigger('click');
+    await settle();
+
+    const preview = wrapper.findAll('[data-test="preview-row"]').map((r) => r.text());
+    expect(preview).toEqual(['capacitanceCH3131pF', 'reactanceB11.6%']);
+    await wrapper.get('[data-test="import-upload"]').trigger('click');
+    await vi.waitFor(() => expect(requests.some((r) => r.method === 'POST' && r.url === '/api/sessions/31/imports')).toBe(true));
+
+    const upload = requests.find((r) => r.url === '/api/sessions/31/imports')!;
+    expect(upload.body).toBeInstanceOf(FormData);
+    expect(upload.headers['content-type']).toBeUndefined();
+    const sent = (upload.body as FormData).get('file') as File;
+    expect(sent.name).toBe('testset-export.csv');
+    expect(await sent.text()).toBe('quantity,configuration,phase,value,unit\ncapacitance,CH,,3131,pF\nreactance,,B,11.60,%\n');
+  });
+
+  it('opens a new session for a tester and posts its conditions and readings', async () => {
+    const { requests } = signedInAs(['tester'], eventDetail(), {
+      'POST /api/events/11/sessions': { status: 201, body: { id: 32, eventStatus: 'testing' } },
+    });
+    const { wrapper } = await mountApp('/events/11');
+    expect(wrapper.find('[data-test="attachment-upload"]').exists()).toBe(false);
+
+    await wrapper.get('[data-test="new-session"]').trigger('click');
+    await settle();
+    const fill = async (id: string, value: string) => {
+      await wrapper.get(`input[data-test="${id}"]`).setValue(value);
+    };
+    await fill('session-takenAt', '2026-07-02T09:30');
+    await fill('session-topOilC', '33');
+    await fill('session-bottomOilC', '29');
+    await fill('session-capacitancePF.CH', '3131');
+    await fill('session-dissipationPercent.CH', '0.30');
+    await fill('session-reactance.B.percent', '11.60');
+    await fill('session-tap', '9b');
+    await settle();
+    await wrapper.get('[data-test="session-form"]').trigger('submit');
+    await vi.waitFor(() => expect(requests.some((r) => r.method === 'POST' && r.url === '/api/events/11/sessions')).toBe(true));
+
+    expect(requests.find((r) => r.url === '/api/events/11/sessions')?.body).toEqual({
+      takenAt: '2026-07-02T08:30:00.000Z',
+      topOilC: 33,
+      bottomOilC: 29,
+      capacitancePF: { CH: 3131 },
+      dissipationPercent: { CH: 0.3 },
+      reactance: { B: { percent: 11.6 } },
+      tapPosition: '9b',
+    });
+  });
+
+  it('shows a range error in the session form as the value is typed, and posts nothing', async () => {
+    const { requests } = signedInAs(['tester']);
+    const { wrapper } = await mountApp('/events/11');
+
+    await wrapper.get('[data-test="new-session"]').trigger('click');
+    await settle();
+    await wrapper.get('input[data-test="session-humidityPercent"]').setValue('140');
+    await settle();
+    const field = wrapper.get('input[data-test="session-humidityPercent"]').element.closest('.q-field')!;
+    expect(field.classList.contains('q-field--error')).toBe(true);
+    expect(field.textContent).toContain('%');
+    await wrapper.get('[data-test="session-form"]').trigger('submit');
+    await settle();
+    expect(requests.some((r) => r.method === 'POST')).toBe(false);
+  });
+
+  it('uploads a relay record for a protection engineer and shows a 415 refusal in words', async () => {
+    const refusal: ScriptedResponse = {
+      status: 415,
+      body: { error: { code: 'unsupported_file_type', message: 'A .exe file is not a relay record.', fields: { file: 'A .exe file is not a relay record.' } } },
+    };
+    const { requests } = signedInAs(['protection'], eventDetail(), { 'POST /api/events/11/attachments': refusal });
+    const { wrapper } = await mountApp('/events/11');
+    expect(wrapper.find('[data-test="new-session"]').exists()).toBe(false);
+
+    await pickFile(wrapper, 'attachment-file', new File(['MZ'], 'setup.exe', { type: 'application/octet-stream' }));
+    await wrapper.get('[data-test="attachment-upload"]').trigger('click');
+    await vi.waitFor(() => expect(wrapper.find('[data-test="attachment-error"]').exists()).toBe(true));
+
+    expect(wrapper.get('[data-test="attachment-error"]').text()).toContain('This file type is not accepted: A .exe file is not a relay record.');
+    const upload = requests.find((r) => r.url === '/api/events/11/attachments')!;
+    expect(((upload.body as FormData).get('file') as File).name).toBe('setup.exe');
+  });
+
+  it('says how large a relay record may be when the server answers 413', async () => {
+    signedInAs(['admin'], eventDetail(), {
+      'POST /api/events/11/attachments': { status: 413, body: { error: { code: 'file_too_large', message: 'File too large' } } },
+    });
+    const { wrapper } = await mountApp('/events/11');
+
+    await pickFile(wrapper, 'attachment-file', new File(['x'], 'big.dat'));
+    await wrapper.get('[data-test="attachment-upload"]').trigger('click');
+    await vi.waitFor(() => expect(wrapper.find('[data-test="attachment-error"]').exists()).toBe(true));
+    expect(wrapper.get('[data-test="attachment-error"]').text()).toContain('12 MB at most');
+  });
+
+  it('downloads the case file as JSON from GET /api/events/:id/case', async () => {
+    const caseDoc = { format: 'gapsight-case/1', unit: { serial: 'KVP-HX-T2' } };
+    signedInAs(['engineer'], eventDetail(), { 'GET /api/events/11/case': { body: caseDoc } });
+    const blobs: Blob[] = [];
+    vi.spyOn(URL, 'createObjectURL').mockImplementation((blob) => {
+      blobs.push(blob as Blob);
+      return 'blob:case';
+    });
+    vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
+    const clicked = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(() => undefined);
+    const { wrapper } = await mountApp('/events/11');
+
+    await wrapper.get('[data-test="case-file"]').trigger('click');
+    await vi.waitFor(() => expect(blobs).toHaveLength(1));
+
+    expect(JSON.parse(await blobs[0].text())).toEqual(caseDoc);
+    expect((clicked.mock.contexts[0] as HTMLAnchorElement).download).toBe('gapsight-case-event-11.json');
+  });
+
+  it('keeps the audit trail (who, when, what) in an expansion item', async () => {
+    signedInAs(['engineer']);
+    const { wrapper } = await mountApp('/events/11');
+
+    const audit = wrapper.get('[data-test="audit"]');
+    expect(audit.text()).toContain('Audit trail');
+    await audit.get('.q-item').trigger('click');
+    await settle();
+    const row = wrapper.get('[data-test="audit-row"]').text();
+    expect(row).toContain('Dara Whitcombe');
+    expect(row).toContain('2026-07-01 05:00 +01:00 Europe/London');
+    expect(row).toContain('create fault event 11');
+  });
+});
