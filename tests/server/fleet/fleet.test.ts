@@ -101,6 +101,24 @@ describe('units', () => {
     expect(res.body).toMatchObject({ siteId: site.id, designId: design.id, ratedKVA: 12000, impedancePercent: 8, hvKV: 66, lvKV: 11, phases: 3 });
   });
 
+  it('changes a unit and audits the change with before and after', async () => {
+    const unit = await makeUnit(env.db, { systemImpedancePercent: 0 });
+    const res = await api().patch(`/api/units/${unit.id}`).set(admin).send({ systemImpedancePercent: 0.4, position: 'T9' });
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ systemImpedancePercent: 0.4, position: 'T9' });
+    const entry = await env.db.getRepository(AuditEntry).findOneOrFail({ where: { entity: 'unit', entityId: String(unit.id), action: 'update' } });
+    expect(entry.before).toMatchObject({ systemImpedancePercent: 0, position: 'T1' });
+    expect(entry.after).toMatchObject({ systemImpedancePercent: 0.4, position: 'T9' });
+  });
+
+  it('answers 409 naming the serial when a change would duplicate another unit\'s serial', async () => {
+    const a = await makeUnit(env.db);
+    const b = await makeUnit(env.db);
+    const res = await api().patch(`/api/units/${b.id}`).set(admin).send({ serial: a.serial });
+    expect(res.status).toBe(409);
+    expect(res.body.error.fields.serial).toBeDefined();
+  });
+
   it('rejects unknown site and design ids with 400 naming both', async () => {
     const res = await api().post('/api/units').set(admin).send({ serial: `KVP-${uniq()}`, siteId: 99999999, designId: 99999998 });
     expect(res.status).toBe(400);
