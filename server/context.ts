@@ -8,6 +8,10 @@ export interface AppContext {
   config: Config;
   /** True while the local mail sink runs in this process (the outbox route exists only then). */
   mailSinkRunning: boolean;
+  /** Base URL of the app for links in mails (APP_URL, else the listening address). */
+  appUrl?: string;
+  /** Asks the mail worker to deliver queued notifications now (set by serve()). */
+  kickMail?: () => void;
 }
 
 export function ctx(req: Request): AppContext {

@@ -2,7 +2,9 @@ import type { Server } from 'node:http';
 import type { DataSource } from 'typeorm';
 import { createApp } from './app.js';
 import type { Config } from './config.js';
+import { createTransport } from './mail/mailer.js';
 import { startMailSink, type MailSink } from './mail/sink.js';
+import { startMailWorker } from './features/notifications/notifications.service.js';
 
 export interface Running {
   url: string;
@@ -25,7 +27,10 @@ export async function serve(db: DataSource, config: Config, opts: { staticDir?: 
       throw err;
     }
   }
-  const app = createApp({ db, config, mailSinkRunning: sink !== null }, { staticDir: opts.staticDir });
+  const context = { db, config, mailSinkRunning: sink !== null, appUrl: config.APP_URL } as import('./context.js').AppContext;
+  const worker = startMailWorker(db, { transport: createTransport(config, sink?.port ?? null), from: config.MAIL_FROM }, () => context.appUrl ?? '');
+  context.kickMail = worker.kick;
+  const app = createApp(context, { staticDir: opts.staticDir });
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.PORT, config.HOST);
     s.once('listening', () => resolve(s));
@@ -36,6 +41,8 @@ export async function serve(db: DataSource, config: Config, opts: { staticDir?: 
   });
   const addr = server.address();
   const port = typeof addr === 'object' && addr ? addr.port : config.PORT;
+  context.appUrl ??= `http://${config.HOST}:${port}`;
+  worker.kick();
   let stopping: Promise<void> | null = null;
   const stop = () =>
     (stopping ??= (async () => {
@@ -43,6 +50,7 @@ export async function serve(db: DataSource, config: Config, opts: { staticDir?: 
         server.close(() => r());
         server.closeAllConnections();
       });
+      await worker.stop();
       await sink?.close();
       if (db.isInitialized) await db.destroy();
     })());

@@ -1,6 +1,6 @@
 // Words for the engine's and the API's codes (fault types, sides, protections, statuses, reading-set kinds).
 import type { FaultType, Protection } from '../shared/schemas/case';
-import type { Recommendation } from '../shared/schemas/result';
+import type { Method, Recommendation } from '../shared/schemas/result';
 import type { EventStatus, ReadingSetKind } from './api/units';
 
 export const FAULT_TYPE_LABELS: Record<FaultType, string> = {
@@ -50,4 +50,39 @@ export const KIND_LABELS: Record<ReadingSetKind, string> = {
   commissioning: 'Commissioning',
   routine: 'Routine',
   'post-fault': 'Post-fault',
+};
+
+/** A manager's decision outcome as icon + word. */
+export const OUTCOME_LABELS: Record<'release' | 'release-with-restrictions' | 'hold', { word: string; icon: string }> = {
+  release: { word: 'Release', icon: 'power' },
+  'release-with-restrictions': { word: 'Release with restrictions', icon: 'tune' },
+  hold: { word: 'Hold', icon: 'pan_tool' },
+};
+
+/** An inspection finding's classification as icon + word. */
+export const FINDING_LABELS: Record<string, { word: string; icon: string }> = {
+  'no-damage': { word: 'No damage', icon: 'verified' },
+  'deformation-confirmed': { word: 'Deformation confirmed', icon: 'report' },
+  other: { word: 'Other', icon: 'notes' },
+};
+
+/** An e-mail's delivery state as icon + word. */
+export const NOTIFICATION_STATUS_LABELS: Record<'queued' | 'sent' | 'failed', { word: string; icon: string }> = {
+  queued: { word: 'Queued', icon: 'schedule_send' },
+  sent: { word: 'Sent', icon: 'mark_email_read' },
+  failed: { word: 'Failed', icon: 'error' },
+};
+
+/** The engine's indicator methods in words. */
+export const METHOD_LABELS: Record<Method, string> = {
+  capacitance: 'Capacitance',
+  'power-factor': 'Power factor',
+  reactance: 'Leakage reactance',
+  sweep: 'Frequency response',
+  excitation: 'Excitation current',
+  resistance: 'Winding resistance',
+  ratio: 'Turns ratio',
+  gas: 'Dissolved gases',
+  sisters: 'Sister units',
+  duty: 'Through-fault duty',
 };

@@ -2,3 +2,4 @@
 export * from './roles.js';
 export * from './auth.js';
 export * from './fleet.js';
+export * from './screening.js';

@@ -95,6 +95,40 @@ export interface DecisionView {
   signedAt: string;
 }
 
+export type DecisionOutcome = DecisionView['outcome'];
+
+export interface FollowUpView {
+  id: number;
+  task: string;
+  dueAt: string | null;
+  closedAt: string | null;
+  closedById: number | null;
+  result: string | null;
+}
+
+export type FindingClassification = 'no-damage' | 'deformation-confirmed' | 'other';
+
+export interface FindingView {
+  id: number;
+  /** One of FindingClassification; typed loosely so that an unknown code from a newer server still renders. */
+  classification: string;
+  text: string;
+  recordedById: number | null;
+  recordedAt: string;
+}
+
+/** One e-mail about the event (the manager's mail after a screening), as queued and sent by the server. */
+export interface NotificationView {
+  id: number;
+  to: string;
+  subject: string;
+  status: 'queued' | 'sent' | 'failed';
+  attempts: number;
+  lastError: string | null;
+  sentAt: string | null;
+  createdAt: string;
+}
+
 export interface EventDetail extends FaultEvent {
   unit: Unit & { site: Site; design: Design };
   throughFault: ThroughFault | null;
@@ -102,8 +136,10 @@ export interface EventDetail extends FaultEvent {
   screenings: StoredScreening[];
   decision: DecisionView | null;
   decisions: DecisionView[];
-  followUps: { id: number; task: string; dueAt: string | null; closedAt: string | null; closedById: number | null; result: string | null }[];
-  findings: { id: number; classification: string; text: string; recordedById: number | null; recordedAt: string }[];
+  followUps: FollowUpView[];
+  findings: FindingView[];
+  /** The event's e-mails (optional: servers before the e-mail log leave it out). */
+  notifications?: NotificationView[];
   attachments: Attachment[];
   audit: AuditRow[];
   people: Record<string, Person>;

@@ -71,6 +71,12 @@ export const routes: RouteRecordRaw[] = [
         meta: { title: 'Event file' },
       },
       {
+        path: 'dev/outbox',
+        name: 'outbox',
+        component: () => import('../pages/OutboxPage.vue'),
+        meta: { title: 'Outbox', roles: ['admin', 'manager'], nav: { label: 'Outbox', icon: 'outbox', requiresMailSink: true } },
+      },
+      {
         path: 'forbidden',
         name: 'forbidden',
         component: () => import('../pages/ForbiddenPage.vue'),

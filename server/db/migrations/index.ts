@@ -1,5 +1,6 @@
 import { Init1796178199079 } from './1796178199079-init.js';
 import { CriteriaV11796178199080 } from './1796178199080-criteria-v1.js';
+import { NotificationRetry1796181914464 } from './1796181914464-notification-retry.js';
 
 // Migrations in order, imported as classes (globs of .ts files break under vitest).
-export const migrations = [Init1796178199079, CriteriaV11796178199080];
+export const migrations = [Init1796178199079, CriteriaV11796178199080, NotificationRetry1796181914464];

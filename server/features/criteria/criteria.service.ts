@@ -4,7 +4,7 @@ import { AppError } from '../../common/app-error.js';
 import { CriteriaSet } from './criteria-set.entity.js';
 
 /** A criteria set by version (default: the newest published one), validated before the engine sees it. */
-export async function loadCriteria(m: EntityManager, version?: number): Promise<{ version: number; criteria: Criteria }> {
+export async function loadCriteria(m: EntityManager, version?: number): Promise<{ version: number; status: 'draft' | 'published'; criteria: Criteria }> {
   const repo = m.getRepository(CriteriaSet);
   const row = version
     ? await repo.findOne({ where: { version } })
@@ -12,5 +12,5 @@ export async function loadCriteria(m: EntityManager, version?: number): Promise<
   if (!row) throw new AppError('invalid_input', 'Some fields are invalid.', 400, { criteriaVersion: version ? `no criteria set version ${version}` : 'no published criteria set' });
   const parsed = criteriaSchema.safeParse(row.thresholds);
   if (!parsed.success) throw new AppError('invalid_criteria', `Criteria set version ${row.version} does not validate; fix it before screening.`, 409);
-  return { version: row.version, criteria: parsed.data };
+  return { version: row.version, status: row.status, criteria: parsed.data };
 }

@@ -13,6 +13,7 @@ import { sweepMeta } from '../readings/sweeps.service.js';
 import { Decision } from '../screenings/decision.entity.js';
 import { Finding } from '../screenings/finding.entity.js';
 import { FollowUp } from '../screenings/follow-up.entity.js';
+import { Notification } from '../notifications/notification.entity.js';
 import { Screening } from '../screenings/screening.entity.js';
 import { Unit } from '../units/unit.entity.js';
 import { readingSetConditions, unitView } from '../units/units.service.js';
@@ -95,12 +96,15 @@ export async function getEvent(db: DataSource, id: number) {
   const decisions = screenings.length ? await db.getRepository(Decision).find({ where: { screeningId: In(screenings.map((s) => s.id)) }, order: { signedAt: 'DESC', id: 'DESC' } }) : [];
   const followUps = await db.getRepository(FollowUp).find({ where: { eventId: id }, order: { dueAt: 'ASC', id: 'ASC' } });
   const findings = await db.getRepository(Finding).find({ where: { eventId: id }, order: { recordedAt: 'ASC', id: 'ASC' } });
+  const notifications = await db.getRepository(Notification).find({ where: { eventId: id }, order: { id: 'DESC' }, take: 200 });
   const attachments = await db.getRepository(Attachment).find({ where: { ownerType: 'event', ownerId: id }, order: { id: 'ASC' } });
   const auditRows = await db.getRepository(AuditEntry).find({
     where: [
       { entity: 'fault_event', entityId: String(id) },
       ...(sessions.length ? [{ entity: 'reading_set', entityId: In(sessions.map((s) => String(s.id))) }] : []),
       ...(screenings.length ? [{ entity: 'screening', entityId: In(screenings.map((s) => String(s.id))) }] : []),
+      ...(followUps.length ? [{ entity: 'follow_up', entityId: In(followUps.map((f) => String(f.id))) }] : []),
+      ...(findings.length ? [{ entity: 'finding', entityId: In(findings.map((f) => String(f.id))) }] : []),
     ],
     order: { at: 'ASC', id: 'ASC' },
     take: 500,
@@ -138,6 +142,17 @@ export async function getEvent(db: DataSource, id: number) {
     followUps: followUps.map((f) => ({ id: f.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: f.closedAt?.toISOString() ?? null, closedById: f.closedById, result: f.result })),
     findings: findings.map((f) => ({ id: f.id, classification: f.classification, text: f.text, recordedById: f.recordedById, recordedAt: f.recordedAt.toISOString() })),
     attachments: attachments.map((a) => ({ id: a.id, name: a.name, contentType: a.contentType, kind: a.kind, size: a.size, sha256: a.sha256, createdAt: a.createdAt.toISOString() })),
+    notifications: notifications.map((n) => ({
+      id: n.id,
+      screeningId: n.screeningId,
+      to: n.to,
+      subject: n.subject,
+      status: n.status,
+      attempts: n.attempts,
+      lastError: n.lastError,
+      sentAt: n.sentAt?.toISOString() ?? null,
+      createdAt: n.createdAt.toISOString(),
+    })),
     audit: auditRows.map((a) => ({ id: a.id, at: a.at.toISOString(), userId: a.userId, action: a.action, entity: a.entity, entityId: a.entityId, before: a.before, after: a.after, highlighted: a.highlighted, note: a.note })),
     people,
   };

@@ -2,7 +2,7 @@ import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 
 
 // One e-mail to send: queued after the screening's transaction commits, retried on failure.
 @Entity({ name: 'notification' })
-@Index(['status', 'createdAt'])
+@Index(['status', 'nextAttemptAt'])
 @Index(['eventId'])
 export class Notification {
   @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
@@ -31,6 +31,10 @@ export class Notification {
 
   @Column({ type: 'datetime', precision: 3, nullable: true })
   sentAt!: Date | null;
+
+  /** When a worker may try (again); also a short lease while one is sending. Null once sent or given up. */
+  @Column({ type: 'datetime', precision: 3, nullable: true })
+  nextAttemptAt!: Date | null;
 
   @Column({ type: 'varchar', length: 255, nullable: true })
   messageId!: string | null;

@@ -70,34 +70,37 @@ describe('EventFilePage (/events/:id)', () => {
     expect(attachments[0].text()).toContain('comtrade-cfg · 2 kB');
   });
 
-  it('says plainly that the event is not screened, with the cautions beside it', async () => {
+  it('says what to do next when the event is not screened yet, with the cautions beside it', async () => {
     signedInAs(['manager']);
     const { wrapper } = await mountApp('/events/11');
 
     const section = wrapper.get('[data-test="screenings"]');
-    expect(section.get('[data-test="not-screened"]').text()).toContain('Not screened yet.');
+    expect(section.get('[data-test="not-screened"]').text()).toContain('Enter the post-fault readings, then run the screening');
+    expect(section.find('[data-test="verdict-banner"]').exists()).toBe(false);
     expect(section.find('[data-test="recommendation-badge"]').exists()).toBe(false);
     expect(section.get('[data-test="cautions"]').text()).toContain('decision support for qualified staff');
   });
 
-  it('lists stored screenings with recommendation badges, newest decisive one first with its reason', async () => {
+  it('shows the newest decisive screening in the banner and earlier or comparison runs in the history with badges', async () => {
     const result = { format: 'gapsight-result/1', recommendation: 'conditional', reasons: ['CHL capacitance shifted +3.74 %'], missing: [], unreliable: [], followUps: [], cautions: [], throughFault: null, indicators: [] };
     const event = eventDetail({
       status: 'screened',
       screenings: [
         { id: 2, recommendation: 'no-go', criteriaVersion: 2, comparison: true, computedById: 7, computedAt: '2026-07-03T10:00:00.000Z', result: { ...result, recommendation: 'no-go' } as never },
         { id: 1, recommendation: 'conditional', criteriaVersion: 1, comparison: false, computedById: 7, computedAt: '2026-07-03T09:00:00.000Z', result: result as never },
+        { id: 0, recommendation: 'go', criteriaVersion: 1, comparison: false, computedById: 7, computedAt: '2026-07-02T09:00:00.000Z', result: { ...result, recommendation: 'go' } as never },
       ],
     });
     signedInAs(['manager'], event);
     const { wrapper } = await mountApp('/events/11');
 
-    const newest = wrapper.get('[data-test="newest-screening"]');
-    expect(newest.get('[data-test="recommendation-badge"]').attributes('data-recommendation')).toBe('conditional');
-    expect(newest.text()).toContain('CHL capacitance shifted +3.74 %');
+    const banner = wrapper.get('[data-test="verdict-banner"]');
+    expect(banner.attributes('data-recommendation')).toBe('conditional');
+    expect(banner.text()).toContain('CHL capacitance shifted +3.74 %');
     const rows = wrapper.findAll('[data-test="screening-row"]');
-    expect(rows.map((r) => r.get('[data-test="recommendation-badge"]').attributes('data-recommendation'))).toEqual(['no-go', 'conditional']);
+    expect(rows.map((r) => r.get('[data-test="recommendation-badge"]').attributes('data-recommendation'))).toEqual(['no-go', 'go']);
     expect(rows[0].text()).toContain('(comparison)');
+    expect(rows[1].text()).toContain('(superseded)');
     expect(wrapper.get('[data-test="screenings"] [data-test="cautions"]').text()).toContain('qualified staff');
   });
 

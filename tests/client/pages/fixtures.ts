@@ -1,5 +1,6 @@
 // Invented Kestrel Valley records shaped like the API's answers, for the page tests.
-import type { EventDetail } from '../../../src/api/events';
+import type { EventDetail, StoredScreening } from '../../../src/api/events';
+import type { GapsightResult } from '../../../shared/schemas/result';
 import type { UnitDetail, UnitListItem } from '../../../src/api/units';
 import type { Design } from '../../../src/api/designs';
 
@@ -224,6 +225,7 @@ export function eventDetail(overrides: Partial<EventDetail> = {}): EventDetail {
     decisions: [],
     followUps: [],
     findings: [],
+    notifications: [],
     attachments: [
       { id: 51, name: 'HX-T2-feeder4.cfg', contentType: 'text/plain', kind: 'comtrade-cfg', size: 2048, sha256: 'ab'.repeat(32), createdAt: '2026-07-01T05:00:00.000Z' },
     ],
@@ -236,4 +238,68 @@ export function eventDetail(overrides: Partial<EventDetail> = {}): EventDetail {
     },
     ...overrides,
   };
+}
+
+/** A stored result shaped like the engine's: conditional on a CHL shift, with flagged and ok indicators. */
+export function screeningResult(overrides: Partial<GapsightResult> = {}): GapsightResult {
+  return {
+    format: 'gapsight-result/1',
+    recommendation: 'conditional',
+    reasons: [
+      'CHL capacitance shifted +3.74 % against the 2019-05-02 baseline (investigate from 3 %)',
+      'CL capacitance shifted +1.22 % against the 2019-05-02 baseline',
+    ],
+    missing: ['reactance.B'],
+    unreliable: ['capacitance.CL'],
+    followUps: [
+      'Dissolved-gas sample 24 h after re-energising',
+      'Dissolved-gas sample 1 week after re-energising',
+      'Dissolved-gas sample 1 month after re-energising',
+      'Frequency-response sweep at the next outage',
+    ],
+    cautions: ['The recommendation is decision support for qualified staff.'],
+    throughFault: {
+      category: 'IV',
+      ratedCurrentA: 699.819,
+      currentPerUnit: 9.0023,
+      maxCurrentPerUnit: 9.5238,
+      forceRatioPercent: 89.35,
+      segmentStartPerUnit: 4.7619,
+      highDuty: true,
+      i2t: 15.803,
+      thermalLimitI2t: 1250,
+      mechanicalLimitI2t: 181.41,
+      eventDutyPercent: 8.71,
+      beyondCurve: false,
+      cumulativeI2t: 23.568,
+      cumulativeDutyPercent: 12.99,
+      shotsAboveSegment: 3,
+    },
+    indicators: [
+      { key: 'capacitance.CH.shiftPercent', value: 0.3525641025, level: 'ok', rule: '|shift| < 2 %', source: 'utility practice (from memory)', method: 'capacitance' },
+      { key: 'powerFactor.CH.pf20Percent', value: null, level: 'ok', rule: 'PF20 > 1 % watch', source: 'common practice (from memory)', method: 'power-factor', note: 'temperature outside the 10–70 °C table' },
+      { key: 'capacitance.CHL.shiftPercent', value: 3.7428023, level: 'investigate', rule: '|shift| ≥ 3 %', source: 'utility practice (from memory)', method: 'capacitance' },
+      { key: 'sweep.HV-A-open.class', value: 'slight', level: 'watch', rule: 'DL/T 911 slight', source: 'DL/T 911-2004', method: 'sweep' },
+    ],
+    ...overrides,
+  };
+}
+
+export function storedScreening(overrides: Partial<StoredScreening> = {}): StoredScreening {
+  const result = overrides.result ?? screeningResult();
+  return {
+    id: 61,
+    recommendation: result.recommendation,
+    criteriaVersion: 1,
+    comparison: false,
+    computedById: 7,
+    computedAt: '2026-07-03T09:00:00.000Z',
+    result,
+    ...overrides,
+  };
+}
+
+/** The event after its screening: status `screened`, one decisive screening. */
+export function screenedEvent(overrides: Partial<EventDetail> = {}): EventDetail {
+  return eventDetail({ status: 'screened', screenings: [storedScreening()], ...overrides });
 }

@@ -1,0 +1,153 @@
+import type { DataSource } from 'typeorm';
+import type { z } from 'zod';
+import { decisionGoesAgainst, proposedFollowUpDueAt, AGAINST_REASON_MIN, type DecisionBody, type findingBodySchema } from '../../../shared/schemas/screening.js';
+import type { GapsightResult } from '../../../shared/schemas/result.js';
+import { screenCase } from '../../../shared/screening/index.js';
+import { AppError, conflict, notFound } from '../../common/app-error.js';
+import { audit } from '../../common/audit.js';
+import type { AppContext } from '../../context.js';
+import { loadCriteria } from '../criteria/criteria.service.js';
+import { buildEventCase } from '../events/case-export.service.js';
+import { assertMove, moveEvent } from '../events/events.service.js';
+import { FaultEvent } from '../events/fault-event.entity.js';
+import { queueScreeningMail } from '../notifications/notifications.service.js';
+import { Unit } from '../units/unit.entity.js';
+import { Decision } from './decision.entity.js';
+import { Finding } from './finding.entity.js';
+import { FollowUp } from './follow-up.entity.js';
+import { Screening } from './screening.entity.js';
+
+/**
+ * Screens an event from its stored readings. A normal run moves the event to `screened`, records the unit's latest
+ * recommendation and queues the managers' mail (sent after the transaction commits); a comparison run, under any
+ * criteria version, stores its result and changes nothing else.
+ */
+export async function runScreening(c: AppContext, userId: number, eventId: number, body: { criteriaVersion?: number; comparison: boolean }) {
+  const out = await c.db.transaction(async (m) => {
+    const event = await m.getRepository(FaultEvent).findOne({ where: { id: eventId }, lock: { mode: 'pessimistic_write' } });
+    if (!event) throw notFound('Event');
+    if (!body.comparison) assertMove(event, 'screened', 'A screening');
+    const criteria = await loadCriteria(m, body.criteriaVersion);
+    if (!body.comparison && criteria.status !== 'published') {
+      throw new AppError('invalid_input', 'Some fields are invalid.', 400, { criteriaVersion: `version ${criteria.version} is a draft: run it as a comparison` });
+    }
+    const caseDoc = await buildEventCase(m, eventId);
+    const result = screenCase(caseDoc, criteria.criteria);
+    const repo = m.getRepository(Screening);
+    const s = await repo.save(
+      repo.create({
+        eventId,
+        case: caseDoc as unknown as Record<string, unknown>,
+        result: result as unknown as Record<string, unknown>,
+        recommendation: result.recommendation,
+        criteriaVersion: criteria.version,
+        comparison: body.comparison,
+        computedById: userId,
+      }),
+    );
+    await audit(m, {
+      userId,
+      action: 'screen',
+      entity: 'screening',
+      entityId: s.id,
+      after: { eventId, recommendation: result.recommendation, criteriaVersion: criteria.version, comparison: body.comparison, missing: result.missing, unreliable: result.unreliable },
+    });
+    let queued = 0;
+    if (!body.comparison) {
+      await moveEvent(m, eventId, 'screened', userId, 'A screening');
+      const unit = await m.getRepository(Unit).findOneByOrFail({ id: event.unitId });
+      await m.getRepository(Unit).update(unit.id, { lastRecommendation: result.recommendation });
+      queued = await queueScreeningMail(m, s, unit.siteId, unit.serial);
+    }
+    return { id: s.id, result, criteriaVersion: criteria.version, comparison: body.comparison, computedAt: s.computedAt.toISOString(), mailsQueued: queued };
+  });
+  if (out.mailsQueued) c.kickMail?.();
+  return out;
+}
+
+/** The manager's sign-off on the event's newest screening; moves the event to released or held; confirms follow-ups. */
+export async function decide(db: DataSource, managerId: number, screeningId: number, body: DecisionBody) {
+  return db.transaction(async (m) => {
+    const s = await m.getRepository(Screening).findOne({ where: { id: screeningId } });
+    if (!s) throw notFound('Screening');
+    const event = await m.getRepository(FaultEvent).findOne({ where: { id: s.eventId }, lock: { mode: 'pessimistic_write' } });
+    if (!event) throw notFound('Event');
+    if (s.comparison) throw conflict('A comparison screening is not a basis for a decision.');
+    const newest = await m.getRepository(Screening).findOne({ where: { eventId: s.eventId, comparison: false }, order: { computedAt: 'DESC', id: 'DESC' } });
+    if (newest?.id !== s.id) throw conflict(`A newer screening (${newest?.id}) exists: decide on that one.`);
+    if (event.status !== 'screened') throw new AppError('invalid_status', `A decision is not possible while the event is ${event.status}.`, 409);
+    const against = decisionGoesAgainst(s.recommendation, body.outcome);
+    if (against && body.reason.length < AGAINST_REASON_MIN) {
+      throw new AppError('invalid_input', 'Some fields are invalid.', 400, {
+        reason: `going against the ${s.recommendation} recommendation needs a reason of at least ${AGAINST_REASON_MIN} characters`,
+      });
+    }
+    const now = new Date();
+    const decision = await m.getRepository(Decision).save(
+      m.getRepository(Decision).create({
+        screeningId,
+        managerId,
+        outcome: body.outcome,
+        restrictions: body.restrictions ?? null,
+        reason: body.reason,
+        againstRecommendation: against,
+        signedAt: now,
+      }),
+    );
+    await moveEvent(m, event.id, body.outcome === 'hold' ? 'held' : 'released', managerId, 'A decision');
+    const proposed = (s.result as unknown as GapsightResult).followUps ?? [];
+    const tasks = body.followUps ?? (body.outcome === 'hold' ? [] : proposed.map((task) => ({ task, dueAt: proposedFollowUpDueAt(task, now) })));
+    const followUps = [];
+    for (const t of tasks) {
+      const f = await m.getRepository(FollowUp).save(m.getRepository(FollowUp).create({ eventId: event.id, task: t.task, dueAt: t.dueAt ? new Date(t.dueAt) : null }));
+      await audit(m, { userId: managerId, action: 'create', entity: 'follow_up', entityId: f.id, after: { eventId: event.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null } });
+      followUps.push({ id: f.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: null, closedById: null, result: null });
+    }
+    const view = {
+      id: decision.id,
+      screeningId,
+      managerId,
+      outcome: decision.outcome,
+      restrictions: decision.restrictions,
+      reason: decision.reason,
+      againstRecommendation: against,
+      signedAt: decision.signedAt.toISOString(),
+    };
+    await audit(m, {
+      userId: managerId,
+      action: 'decide',
+      entity: 'fault_event',
+      entityId: event.id,
+      after: { ...view, recommendation: s.recommendation },
+      highlighted: against,
+      note: against ? `against the ${s.recommendation} recommendation` : undefined,
+    });
+    return { ...view, eventStatus: body.outcome === 'hold' ? 'held' : 'released', followUps };
+  });
+}
+
+/** Closes a follow-up with its result (409 when already closed). */
+export async function closeFollowUp(db: DataSource, userId: number, id: number, result: string) {
+  return db.transaction(async (m) => {
+    const f = await m.getRepository(FollowUp).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+    if (!f) throw notFound('Follow-up');
+    if (f.closedAt) throw conflict('This follow-up is already closed.');
+    const before = { closedAt: null, result: null };
+    f.closedAt = new Date();
+    f.closedById = userId;
+    f.result = result;
+    await m.getRepository(FollowUp).save(f);
+    await audit(m, { userId, action: 'update', entity: 'follow_up', entityId: id, before, after: { closedAt: f.closedAt.toISOString(), result } });
+    return { id: f.id, eventId: f.eventId, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: f.closedAt.toISOString(), closedById: userId, result };
+  });
+}
+
+/** Records what an inspection found. */
+export async function recordFinding(db: DataSource, userId: number, eventId: number, body: z.infer<typeof findingBodySchema>) {
+  return db.transaction(async (m) => {
+    if (!(await m.getRepository(FaultEvent).exists({ where: { id: eventId } }))) throw notFound('Event');
+    const f = await m.getRepository(Finding).save(m.getRepository(Finding).create({ eventId, classification: body.classification, text: body.text, recordedById: userId }));
+    await audit(m, { userId, action: 'create', entity: 'finding', entityId: f.id, after: { eventId, classification: f.classification, text: f.text } });
+    return { id: f.id, eventId, classification: f.classification, text: f.text, recordedById: userId, recordedAt: f.recordedAt.toISOString() };
+  });
+}

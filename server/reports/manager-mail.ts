@@ -1,0 +1,188 @@
+// The operations manager's e-mail for one screening: subject, plain text and simple inline-styled HTML with the same
+// content. Pure: no I/O. Written for a tired manager at 3 a.m.: verdict first, short lines.
+import type { ScreeningReportData } from './report-data.js';
+import {
+  PALETTE,
+  PDF_ATTACHED_LINE,
+  RECOMMENDATION_MEANING,
+  RECOMMENDATION_WORD,
+  agreementInWords,
+  caveatsInWords,
+  decisiveReason,
+  dutyInWords,
+  faultInWords,
+  formatInstant,
+  protectionSummary,
+  proposedRestrictions,
+  recommendationColour,
+  shortReason,
+  shotsInWords,
+  testsInWords,
+} from './report-text.js';
+
+export interface ManagerMail {
+  subject: string;
+  text: string;
+  html: string;
+}
+
+/** A section of the mail: a heading and its lines (each line one short statement; `items` are bulleted). */
+interface Section {
+  title: string;
+  lines?: string[];
+  items?: string[];
+  /** Heading drawn as a warning (the proposal label). */
+  note?: string;
+}
+
+const oneLine = (s: string) => s.replace(/[\r\n\t]+/g, ' ').replace(/\s{2,}/g, ' ').trim();
+
+/** HTML-escape text (element content and attribute values). */
+export function escapeHtml(s: string): string {
+  return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
+}
+
+const GLYPH = { go: '✓', conditional: '▲', 'no-go': '✕' } as const;
+
+/** The subject: "[Gapsight] CONDITIONAL — KVP-HX-T2 (Harrow Cross): CHL capacitance shifted +3.42 %…". */
+export function managerMailSubject(d: ScreeningReportData): string {
+  const word = RECOMMENDATION_WORD[d.result.recommendation];
+  const prefix = d.screening.comparison ? '[Gapsight] Comparison run, not for decision: ' : '[Gapsight] ';
+  return oneLine(`${prefix}${word} — ${d.unit.serial} (${d.site.name}): ${shortReason(decisiveReason(d.result))}`);
+}
+
+function sections(d: ScreeningReportData): { headline: string; meaning: string; reason: string; body: Section[] } {
+  const r = d.result;
+  const tz = d.site.timeZone;
+  const word = RECOMMENDATION_WORD[r.recommendation];
+  const position = d.unit.position ? `, ${d.unit.position}` : '';
+  const headline = `${word} — ${d.unit.serial} (${d.site.name}${position})`;
+  const meaning = `${word}: ${RECOMMENDATION_MEANING[r.recommendation]}.`;
+  const reason = `Why: ${decisiveReason(r)}`;
+  const body: Section[] = [];
+
+  if (d.screening.comparison) {
+    body.push({
+      title: 'Comparison run',
+      lines: [`Computed under criteria version ${d.screening.criteriaVersion} for comparison — not the basis of a decision.`],
+    });
+  }
+
+  const prot = protectionSummary(d);
+  body.push({ title: 'Protection', lines: [prot.line] });
+
+  const tf = r.throughFault;
+  const faultLines = [`${faultInWords(d)}`, `${shotsInWords(d.case)}.`];
+  const duty = dutyInWords(r);
+  if (duty) faultLines.push(duty);
+  if (tf?.beyondCurve) faultLines.push('The fault went beyond the through-fault withstand curve.');
+  if (d.event.faultedPhases) faultLines.push(`Faulted phases: ${d.event.faultedPhases}.`);
+  if (d.event.notes) faultLines.push(`Notes: ${oneLine(d.event.notes)}`);
+  body.push({ title: 'The fault', lines: faultLines });
+
+  const computedBy = d.screening.computedBy ? ` by ${d.screening.computedBy.name}` : '';
+  const timeLines = [
+    `Fault: ${formatInstant(d.event.occurredAt, tz)}`,
+    ...(d.case.postFault?.takenAt ? [`Post-fault tests: ${formatInstant(d.case.postFault.takenAt, tz)}`] : []),
+    `Screened: ${formatInstant(d.screening.computedAt, tz)}${computedBy}, criteria version ${d.screening.criteriaVersion}`,
+  ];
+  body.push({ title: 'Times', lines: timeLines });
+
+  const tests = testsInWords(d);
+  body.push({
+    title: 'Tests',
+    lines: [
+      `Done: ${tests.done.length ? tests.done.join('; ') : 'no post-fault tests yet'}.`,
+      `Outstanding: ${tests.outstanding.length ? tests.outstanding.join('; ') : 'none — the required set is complete'}.`,
+    ],
+  });
+
+  const agree = agreementInWords(r);
+  body.push({
+    title: 'Where independent methods agree',
+    lines: [agree.summary],
+    items: agree.groups.map((g) => `${g.method}: ${g.items.join('; ')}`),
+  });
+
+  body.push({ title: 'Data caveats', items: caveatsInWords(d) });
+  body.push({ title: 'All reasons', items: r.reasons.length ? r.reasons : ['No reason recorded.'] });
+
+  body.push({
+    title: 'Proposed restrictions',
+    note: 'PROPOSAL for your decision — not a decision; restrictions are yours to set under your procedures.',
+    items: proposedRestrictions(r.recommendation),
+  });
+  body.push({ title: 'Follow-ups (proposed)', items: r.followUps.length ? r.followUps : ['None proposed.'] });
+
+  const testers = d.testers.length ? d.testers.map((t) => `${t.name} <${t.email}>`) : ['No tester recorded on the post-fault sessions.'];
+  if (d.screening.computedBy && !d.testers.some((t) => t.email === d.screening.computedBy?.email)) {
+    testers.push(`Screening run by ${d.screening.computedBy.name} <${d.screening.computedBy.email}>`);
+  }
+  body.push({ title: 'Who tested — how to reach them', items: testers });
+
+  body.push({ title: 'Cautions', lines: r.cautions });
+  body.push({ title: 'Open the event', lines: [d.eventUrl, 'Sign the decision off in Gapsight.', PDF_ATTACHED_LINE] });
+
+  return { headline, meaning, reason, body };
+}
+
+function renderText(s: ReturnType<typeof sections>): string {
+  const out: string[] = [s.headline, s.meaning, s.reason, ''];
+  for (const sec of s.body) {
+    out.push(sec.title.toUpperCase());
+    if (sec.note) out.push(sec.note);
+    for (const l of sec.lines ?? []) out.push(l);
+    for (const i of sec.items ?? []) out.push(`- ${i}`);
+    out.push('');
+  }
+  out.push('— Gapsight');
+  return out.join('\n');
+}
+
+const isHttpUrl = (u: string) => /^https?:\/\//i.test(u);
+
+function renderHtml(d: ScreeningReportData, s: ReturnType<typeof sections>): string {
+  const rec = d.result.recommendation;
+  const colour = recommendationColour(rec);
+  const e = escapeHtml;
+  const p = (t: string) => `<p style="margin:2px 0;">${e(t)}</p>`;
+  const parts: string[] = [];
+  parts.push(
+    `<div style="font-family:Roboto,'Segoe UI',Arial,sans-serif;font-size:14px;line-height:1.4;color:${PALETTE.graphite};max-width:720px;">`,
+  );
+  parts.push(
+    `<div style="background:${colour};color:#ffffff;padding:12px 16px;border-radius:4px;">` +
+      `<div style="font-size:22px;font-weight:bold;">${e(GLYPH[rec])} ${e(s.headline)}</div>` +
+      `<div style="font-size:15px;margin-top:4px;">${e(s.meaning)}</div>` +
+      `<div style="font-size:15px;margin-top:4px;">${e(s.reason)}</div>` +
+      `</div>`,
+  );
+  for (const sec of s.body) {
+    const caution = sec.title === 'Cautions';
+    const box = caution
+      ? `border:1px solid ${PALETTE.slate};background:${PALETTE.paper};padding:8px 12px;margin-top:14px;`
+      : 'margin-top:14px;';
+    parts.push(`<div style="${box}">`);
+    parts.push(`<h3 style="margin:0 0 4px 0;font-size:15px;color:${PALETTE.slate};">${e(sec.title)}</h3>`);
+    if (sec.note) parts.push(`<p style="margin:2px 0;font-weight:bold;color:${PALETTE.watch};">${e(sec.note)}</p>`);
+    for (const l of sec.lines ?? []) {
+      if (l === d.eventUrl && isHttpUrl(l)) parts.push(`<p style="margin:2px 0;"><a href="${e(l)}" style="color:${PALETTE.ok};">${e(l)}</a></p>`);
+      else parts.push(p(l));
+    }
+    if (sec.items?.length) {
+      parts.push(`<ul style="margin:2px 0;padding-left:20px;">`);
+      for (const i of sec.items) parts.push(`<li>${e(i)}</li>`);
+      parts.push('</ul>');
+    }
+    parts.push('</div>');
+  }
+  parts.push(`<p style="margin-top:16px;color:${PALETTE.muted};font-size:12px;">— Gapsight</p>`);
+  parts.push('</div>');
+  return `<!DOCTYPE html><html><head><meta charset="utf-8"><title>${e(managerMailSubject(d))}</title></head><body>${parts.join('')}</body></html>`;
+}
+
+/** The manager's e-mail for a stored screening: subject, plain text and HTML with the same content. Pure. */
+export function buildManagerMail(d: ScreeningReportData): ManagerMail {
+  const s = sections(d);
+  return { subject: managerMailSubject(d), text: renderText(s), html: renderHtml(d, s) };
+}

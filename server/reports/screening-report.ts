@@ -1,0 +1,339 @@
+// The PDF screening report as a pdfmake document definition. Pure: no I/O (rendering is in ./pdf.ts).
+// Verdict first (banner with word, icon and one-line reason), then reasons, then the evidence, then the data.
+// Levels and recommendations are never shown by colour alone: the word is always printed.
+import type { CanvasElement, Column, Content, TDocumentDefinitions, TableCell } from 'pdfmake/interfaces.js';
+import type { Indicator, Level, ThroughFault } from '../../shared/schemas/result.js';
+import { describeRequired } from '../../shared/screening/verdict.js';
+import type { ScreeningReportData } from './report-data.js';
+import {
+  LEVEL_WORD,
+  PALETTE,
+  RECOMMENDATION_LEVEL,
+  RECOMMENDATION_MEANING,
+  RECOMMENDATION_WORD,
+  caveatsInWords,
+  decisiveReason,
+  faultInWords,
+  formatInstant,
+  formatSignificant,
+  indicatorLabel,
+  indicatorValueText,
+  levelColour,
+  methodWord,
+  protectionSummary,
+  shotsInWords,
+  testsInWords,
+} from './report-text.js';
+
+const LEVEL_ORDER: Record<Level, number> = { critical: 0, investigate: 1, watch: 2, ok: 3 };
+
+/**
+ * An icon-like glyph drawn as vector shapes (Roboto lacks ✓ ▲ ✕): ok a circle with a tick, watch an outlined triangle
+ * with "!", investigate a filled triangle with "!", critical a filled octagon with a cross. `fg` is the shape's colour,
+ * `mark` the colour of the mark inside filled shapes.
+ */
+export function levelIcon(level: Level, size: number, fg: string, mark = '#ffffff'): Column {
+  const s = size;
+  const lw = Math.max(0.8, s / 10);
+  let shapes: CanvasElement[];
+  const bang = (colour: string): CanvasElement[] => [
+    { type: 'line', x1: s / 2, y1: s * 0.38, x2: s / 2, y2: s * 0.68, lineWidth: lw * 1.3, lineColor: colour, lineCap: 'round' },
+    { type: 'ellipse', x: s / 2, y: s * 0.82, r1: lw * 0.75, color: colour },
+  ];
+  const triangle = [
+    { x: s / 2, y: 0.5 },
+    { x: s - 0.5, y: s - 0.5 },
+    { x: 0.5, y: s - 0.5 },
+  ];
+  switch (level) {
+    case 'ok':
+      shapes = [
+        { type: 'ellipse', x: s / 2, y: s / 2, r1: s / 2 - lw / 2, lineWidth: lw, lineColor: fg },
+        {
+          type: 'polyline',
+          points: [
+            { x: s * 0.28, y: s * 0.52 },
+            { x: s * 0.44, y: s * 0.68 },
+            { x: s * 0.73, y: s * 0.34 },
+          ],
+          lineWidth: lw * 1.3,
+          lineColor: fg,
+          lineCap: 'round',
+        },
+      ];
+      break;
+    case 'watch':
+      shapes = [{ type: 'polyline', points: triangle, closePath: true, lineWidth: lw, lineColor: fg }, ...bang(fg)];
+      break;
+    case 'investigate':
+      shapes = [{ type: 'polyline', points: triangle, closePath: true, color: fg, lineColor: fg }, ...bang(mark)];
+      break;
+    case 'critical': {
+      const c = s / 2;
+      const r = s / 2;
+      const points = Array.from({ length: 8 }, (_, k) => {
+        const a = Math.PI / 8 + (k * Math.PI) / 4;
+        return { x: c + r * Math.cos(a), y: c + r * Math.sin(a) };
+      });
+      shapes = [
+        { type: 'polyline', points, closePath: true, color: fg, lineColor: fg },
+        { type: 'line', x1: s * 0.32, y1: s * 0.32, x2: s * 0.68, y2: s * 0.68, lineWidth: lw * 1.4, lineColor: mark, lineCap: 'round' },
+        { type: 'line', x1: s * 0.68, y1: s * 0.32, x2: s * 0.32, y2: s * 0.68, lineWidth: lw * 1.4, lineColor: mark, lineCap: 'round' },
+      ];
+      break;
+    }
+  }
+  return { canvas: shapes, width: s };
+}
+
+/** Level cell: icon + word, in the level's colour. */
+function levelCell(level: Level): TableCell {
+  return {
+    columns: [levelIcon(level, 7, levelColour(level)), { text: LEVEL_WORD[level], color: levelColour(level), bold: level !== 'ok', margin: [3, 0, 0, 0] }],
+    columnGap: 0,
+  };
+}
+
+const tableLayout = {
+  hLineWidth: (i: number) => (i === 0 ? 0 : 0.5),
+  vLineWidth: () => 0,
+  hLineColor: () => PALETTE.rule,
+  paddingLeft: () => 3,
+  paddingRight: () => 3,
+  paddingTop: () => 2,
+  paddingBottom: () => 2,
+};
+
+const heading = (text: string): Content => ({ text, style: 'h2' });
+
+/** Labels and units of the through-fault fields (every field printed; unknown extra fields after these). */
+const THROUGH_FAULT_FIELDS: { key: keyof ThroughFault & string; label: string; unit: string; format?: (v: unknown) => string }[] = [
+  { key: 'category', label: 'IEEE C57.109 / C57.12.00 category', unit: '' },
+  { key: 'ratedCurrentA', label: 'Rated current (side measured)', unit: 'A' },
+  { key: 'currentPerUnit', label: 'Largest shot current', unit: '× rated' },
+  { key: 'maxCurrentPerUnit', label: 'Design maximum current', unit: '× rated' },
+  { key: 'forceRatioPercent', label: 'Force ratio (of the design force)', unit: '%' },
+  { key: 'segmentStartPerUnit', label: 'Mechanical segment start', unit: '× rated' },
+  { key: 'highDuty', label: 'High duty (at or above the segment start)', unit: '' },
+  { key: 'i2t', label: 'Event I²t', unit: '(× rated)²·s' },
+  { key: 'thermalLimitI2t', label: 'Thermal limit I²t', unit: '(× rated)²·s' },
+  { key: 'mechanicalLimitI2t', label: 'Mechanical limit I²t (K)', unit: '(× rated)²·s' },
+  { key: 'eventDutyPercent', label: 'Event duty (of the mechanical limit)', unit: '%' },
+  { key: 'beyondCurve', label: 'Beyond the through-fault curve', unit: '' },
+  { key: 'cumulativeI2t', label: 'Cumulative I²t — Gapsight tally (not an IEEE figure)', unit: '(× rated)²·s' },
+  { key: 'cumulativeDutyPercent', label: 'Cumulative duty — Gapsight tally (not an IEEE figure)', unit: '%' },
+  { key: 'shotsAboveSegment', label: 'Shots at or above the segment start (this and prior faults)', unit: 'shots' },
+];
+
+function fieldValue(v: unknown): string {
+  if (typeof v === 'boolean') return v ? 'YES' : 'no';
+  if (typeof v === 'number') return Number.isInteger(v) ? String(v) : formatSignificant(v, 4);
+  if (v === null || v === undefined) return '—';
+  return typeof v === 'object' ? JSON.stringify(v) : String(v);
+}
+
+function throughFaultTable(tf: ThroughFault): Content {
+  const known = new Set(THROUGH_FAULT_FIELDS.map((f) => f.key));
+  const rows: TableCell[][] = [
+    [
+      { text: 'Quantity', style: 'th' },
+      { text: 'Value', style: 'th', alignment: 'right' },
+      { text: 'Unit', style: 'th' },
+      { text: 'Field', style: 'th' },
+    ],
+  ];
+  const record = tf as Record<string, unknown>;
+  for (const f of THROUGH_FAULT_FIELDS) {
+    rows.push([f.label, { text: fieldValue(record[f.key]), alignment: 'right' }, f.unit, { text: f.key, style: 'mono' }]);
+  }
+  for (const [k, v] of Object.entries(record)) {
+    if (known.has(k as keyof ThroughFault & string)) continue;
+    rows.push([k, { text: fieldValue(v), alignment: 'right' }, '', { text: k, style: 'mono' }]);
+  }
+  return { table: { headerRows: 1, widths: ['*', 60, 70, 110], body: rows }, layout: tableLayout, style: 'table' };
+}
+
+function indicatorTable(indicators: readonly Indicator[]): Content {
+  const sorted = indicators
+    .map((i, n) => ({ i, n }))
+    .sort((a, b) => LEVEL_ORDER[a.i.level] - LEVEL_ORDER[b.i.level] || a.n - b.n)
+    .map((x) => x.i);
+  const rows: TableCell[][] = [
+    [
+      { text: 'Indicator', style: 'th' },
+      { text: 'Value', style: 'th', alignment: 'right' },
+      { text: 'Level', style: 'th' },
+      { text: 'Rule', style: 'th' },
+      { text: 'Source', style: 'th' },
+      { text: 'Method', style: 'th' },
+    ],
+  ];
+  for (const i of sorted) {
+    const extra = [i.reference ? `vs ${i.reference}` : '', i.value !== null && i.note ? i.note : ''].filter(Boolean).join(' · ');
+    rows.push([
+      { stack: [{ text: indicatorLabel(i.key), bold: i.level !== 'ok' }, { text: i.key, style: 'mono' }] },
+      { stack: [{ text: indicatorValueText(i), alignment: i.value === null ? 'left' : 'right' }, ...(extra ? [{ text: extra, style: 'small' }] : [])] },
+      levelCell(i.level),
+      { text: i.rule, style: 'small' },
+      { text: i.source, style: 'small' },
+      { text: methodWord(i.method), style: 'small' },
+    ]);
+  }
+  return {
+    table: { headerRows: 1, dontBreakRows: true, widths: [112, 70, 54, '*', '*', 48], body: rows },
+    layout: tableLayout,
+    style: 'indicatorTable',
+  };
+}
+
+/** The document definition of the screening report for one stored screening. Pure. */
+export function buildReportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
+  const r = d.result;
+  const tz = d.site.timeZone;
+  const rec = r.recommendation;
+  const recLevel = RECOMMENDATION_LEVEL[rec];
+  const recColour = levelColour(recLevel);
+  const word = RECOMMENDATION_WORD[rec];
+  const position = d.unit.position ? ` · ${d.unit.position}` : '';
+  const content: Content[] = [];
+
+  // Title block
+  content.push({ text: 'Gapsight screening report', style: 'title' });
+  content.push({ text: `${d.unit.serial}${position} · ${d.site.name}`, style: 'subtitle' });
+  const computedBy = d.screening.computedBy ? `${d.screening.computedBy.name} <${d.screening.computedBy.email}>` : '—';
+  const mva = d.unit.ratedKVA / 1000;
+  const titleRows: [string, string][] = [
+    ['Unit', `${d.unit.serial}${position} — design ${d.unit.designReference}; ${formatSignificant(mva, 4)} MVA ${formatSignificant(d.unit.hvKV, 4)}/${formatSignificant(d.unit.lvKV, 4)} kV, ${formatSignificant(d.unit.impedancePercent, 4)} % Z`],
+    ['Site', `${d.site.name} (time zone ${d.site.timeZone})`],
+    ['Event', `#${d.event.id}: ${d.event.type} fault, ${d.event.side.toUpperCase()} side, ${formatInstant(d.event.occurredAt, tz)} — status ${d.event.status}`],
+    ['Computed', `${formatInstant(d.screening.computedAt, tz)} by ${computedBy}`],
+    ['Criteria version', String(d.screening.criteriaVersion)],
+    ['Screening', `#${d.screening.id}${d.screening.comparison ? ' (comparison run)' : ''}`],
+    ['Event file', d.eventUrl],
+  ];
+  content.push({
+    table: { widths: [80, '*'], body: titleRows.map(([k, v]) => [{ text: k, style: 'label' }, { text: v }]) },
+    layout: 'noBorders',
+    margin: [0, 4, 0, 6],
+  });
+  if (d.screening.comparison) {
+    content.push({
+      table: {
+        widths: ['*'],
+        body: [[{ text: `COMPARISON RUN — not the basis of a decision (criteria version ${d.screening.criteriaVersion}).`, bold: true, color: PALETTE.watch, margin: [6, 4, 6, 4] }]],
+      },
+      layout: { hLineColor: () => PALETTE.watch, vLineColor: () => PALETTE.watch },
+      margin: [0, 0, 0, 6],
+    });
+  }
+
+  // Verdict banner: icon + word + meaning + one-line reason, white on the recommendation's colour
+  content.push({
+    table: {
+      widths: [34, '*'],
+      body: [
+        [
+          { stack: [levelIcon(recLevel, 28, '#ffffff', recColour)], fillColor: recColour, margin: [6, 8, 0, 6] },
+          {
+            fillColor: recColour,
+            color: '#ffffff',
+            margin: [4, 6, 6, 6],
+            stack: [
+              { text: `Recommendation: ${word}`, fontSize: 20, bold: true },
+              { text: `${word}: ${RECOMMENDATION_MEANING[rec]}.`, fontSize: 10, margin: [0, 2, 0, 0] },
+              { text: decisiveReason(r), fontSize: 10, bold: true, margin: [0, 2, 0, 0] },
+            ],
+          },
+        ],
+      ],
+    },
+    layout: 'noBorders',
+    margin: [0, 2, 0, 8],
+  });
+
+  // Protection and fault
+  const prot = protectionSummary(d);
+  content.push(heading('Protection and fault'));
+  content.push({ text: prot.line, bold: prot.internalSuspected, color: prot.internalSuspected ? PALETTE.critical : PALETTE.graphite });
+  content.push({ text: faultInWords(d) });
+  content.push({ text: `${shotsInWords(d.case)}.`, margin: [0, 0, 0, 4] });
+  if (d.event.faultedPhases) content.push({ text: `Faulted phases: ${d.event.faultedPhases}.` });
+  if (d.event.notes) content.push({ text: `Notes: ${d.event.notes}` });
+  content.push(heading('Through-fault duty (IEEE C57.109)'));
+  if (r.throughFault) content.push(throughFaultTable(r.throughFault));
+  else content.push({ text: 'No fault current recorded: no duty figures.', italics: true });
+
+  // Reasons
+  content.push(heading('Reasons'));
+  content.push(r.reasons.length ? { ol: [...r.reasons] } : { text: 'No reason recorded.', italics: true });
+
+  // Missing and unreliable
+  content.push(heading('Missing and unreliable items'));
+  if (!r.missing.length && !r.unreliable.length) content.push({ text: 'None: the required set is complete and consistent.' });
+  if (r.missing.length) content.push({ text: [{ text: 'Missing: ', bold: true }, r.missing.map((m) => `${describeRequired(m)} (${m})`).join(', ')] });
+  if (r.unreliable.length) content.push({ text: [{ text: 'Unreliable (repeat; treated as missing): ', bold: true }, r.unreliable.map((u) => `${describeRequired(u)} (${u})`).join(', ')] });
+  const tests = testsInWords(d);
+  content.push({ text: [{ text: 'Tests done: ', bold: true }, tests.done.length ? tests.done.join('; ') : 'no post-fault tests yet'], margin: [0, 2, 0, 0] });
+
+  // Data caveats
+  content.push(heading('Data caveats'));
+  content.push({ ul: caveatsInWords(d) });
+
+  // Indicators
+  content.push(heading('Indicators'));
+  content.push({ text: 'Flagged indicators first. Values rounded for reading; the stored result keeps full precision.', style: 'small', margin: [0, 0, 0, 3] });
+  content.push(r.indicators.length ? indicatorTable(r.indicators) : { text: 'No indicators computed.', italics: true });
+
+  // Follow-ups
+  content.push(heading('Follow-ups (proposed)'));
+  content.push(r.followUps.length ? { ul: [...r.followUps] } : { text: 'None proposed.' });
+
+  // Testers
+  content.push(heading('Tested by'));
+  content.push(d.testers.length ? { ul: d.testers.map((t) => `${t.name} <${t.email}>`) } : { text: 'No tester recorded on the post-fault sessions.' });
+
+  // Cautions, boxed, every sentence verbatim
+  content.push(heading('Cautions'));
+  content.push({
+    table: {
+      widths: ['*'],
+      body: [[{ stack: r.cautions.map((c) => ({ text: c, margin: [0, 1, 0, 1] })), margin: [6, 4, 6, 4] }]],
+    },
+    layout: { hLineColor: () => PALETTE.slate, vLineColor: () => PALETTE.slate, hLineWidth: () => 1, vLineWidth: () => 1 },
+    unbreakable: true,
+  });
+
+  const footerLeft = `Gapsight screening #${d.screening.id} · ${d.unit.serial} · event #${d.event.id}`;
+  return {
+    pageSize: 'A4',
+    pageMargins: [40, 40, 40, 44],
+    info: {
+      title: `Gapsight screening report — ${d.unit.serial} (${d.site.name}) — ${word}`,
+      author: 'Gapsight',
+      subject: `Screening #${d.screening.id}, event #${d.event.id}`,
+      keywords: `screening ${d.screening.id}`,
+    },
+    content,
+    footer: (currentPage: number, pageCount: number): Content => ({
+      columns: [
+        { text: footerLeft, alignment: 'left' },
+        { text: `Page ${currentPage} / ${pageCount}`, alignment: 'right', width: 80 },
+      ],
+      margin: [40, 14, 40, 0],
+      fontSize: 7,
+      color: PALETTE.muted,
+    }),
+    defaultStyle: { font: 'Roboto', fontSize: 9, color: PALETTE.graphite, lineHeight: 1.15 },
+    styles: {
+      title: { fontSize: 18, bold: true, color: PALETTE.slate },
+      subtitle: { fontSize: 12, color: PALETTE.copper, margin: [0, 2, 0, 0] },
+      h2: { fontSize: 11, bold: true, color: PALETTE.slate, margin: [0, 10, 0, 3] },
+      label: { bold: true, color: PALETTE.slate },
+      th: { bold: true, color: PALETTE.slate, fillColor: '#e2e8f0' },
+      mono: { fontSize: 6.5, color: PALETTE.muted },
+      small: { fontSize: 7 },
+      table: { fontSize: 8 },
+      indicatorTable: { fontSize: 7.5 },
+    },
+  };
+}

@@ -1,0 +1,67 @@
+import { z } from 'zod';
+import { FOLLOW_UPS } from '../screening/verdict.js';
+
+// Bodies of the screening, decision, follow-up and finding routes, and the decision rules both sides apply.
+
+export const screeningRunBodySchema = z.object({
+  criteriaVersion: z.number().int().positive('not a criteria-set version').optional(),
+  comparison: z.boolean().default(false),
+});
+
+export const DECISION_OUTCOMES = ['release', 'release-with-restrictions', 'hold'] as const;
+export type DecisionOutcome = (typeof DECISION_OUTCOMES)[number];
+
+/** Characters a reason needs when the decision goes against the recommendation. */
+export const AGAINST_REASON_MIN = 20;
+
+/** Whether a decision goes against the recommendation: go → hold; conditional → plain release; no-go → any release. */
+export function decisionGoesAgainst(recommendation: 'go' | 'conditional' | 'no-go', outcome: DecisionOutcome): boolean {
+  if (recommendation === 'go') return outcome === 'hold';
+  if (recommendation === 'conditional') return outcome === 'release';
+  return outcome !== 'hold';
+}
+
+export const followUpInputSchema = z.object({
+  task: z.string().trim().min(1, 'required').max(300),
+  dueAt: z
+    .string()
+    .refine((s) => !Number.isNaN(Date.parse(s)), { message: 'not an ISO 8601 date-time' })
+    .nullable()
+    .optional(),
+});
+
+export const decisionBodySchema = z
+  .object({
+    outcome: z.enum(DECISION_OUTCOMES),
+    reason: z.string().trim().min(1, 'required').max(5000),
+    restrictions: z.string().trim().max(5000).optional(),
+    followUps: z.array(followUpInputSchema).max(20).optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.outcome === 'release-with-restrictions' && !v.restrictions) {
+      ctx.addIssue({ code: 'custom', path: ['restrictions'], message: 'required for a release with restrictions' });
+    }
+  });
+export type DecisionBody = z.infer<typeof decisionBodySchema>;
+
+export const followUpCloseSchema = z.object({ result: z.string().trim().min(1, 'required').max(5000) });
+
+export const findingBodySchema = z.object({
+  classification: z.enum(['no-damage', 'deformation-confirmed', 'other']),
+  text: z.string().trim().min(1, 'required').max(10000),
+});
+
+const HOUR = 3600_000;
+/** Due offsets of the proposed follow-ups after re-energising (common practice); a sweep waits for the next outage. */
+const FOLLOW_UP_DUE_HOURS: Record<string, number | null> = {
+  [FOLLOW_UPS.gas24h]: 24,
+  [FOLLOW_UPS.gas1w]: 24 * 7,
+  [FOLLOW_UPS.gas1m]: 24 * 30,
+  [FOLLOW_UPS.sweepNextOutage]: null,
+};
+
+/** The due date of a proposed follow-up counted from `from` (null when it has none). */
+export function proposedFollowUpDueAt(task: string, from: Date): string | null {
+  const hours = FOLLOW_UP_DUE_HOURS[task];
+  return typeof hours === 'number' ? new Date(from.getTime() + hours * HOUR).toISOString() : null;
+}
