@@ -186,8 +186,25 @@ function indicatorTable(indicators: readonly Indicator[]): Content {
   };
 }
 
+/** Characters the bundled Roboto lacks, with what is printed instead (checked against the font's cmap in a test). */
+export const PDF_GLYPH_SUBSTITUTES: Record<string, string> = { '→': '›' };
+
+/** Copies a value, replacing missing glyphs in every string (functions, e.g. the footer, are kept as they are). */
+function withPrintableGlyphs<T>(v: T): T {
+  if (typeof v === 'string') return v.replace(/[→]/g, (ch) => PDF_GLYPH_SUBSTITUTES[ch] ?? ch) as T;
+  if (Array.isArray(v)) return v.map(withPrintableGlyphs) as T;
+  if (v && typeof v === 'object' && Object.getPrototypeOf(v) === Object.prototype) {
+    return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, withPrintableGlyphs(x)])) as T;
+  }
+  return v;
+}
+
 /** The document definition of the screening report for one stored screening. Pure. */
 export function buildReportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
+  return withPrintableGlyphs(reportDocDefinition(d));
+}
+
+function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
   const r = d.result;
   const tz = d.site.timeZone;
   const rec = r.recommendation;

@@ -17,8 +17,8 @@ const tableWithLaterPages: RouteRecordRaw[] = [
   {
     ...shellRoute,
     children: [
-      // The real fleet route is replaced by a stand-in page, so the drawer entries stay the ones under test.
-      ...(shellRoute.children ?? []).filter((r) => r.name !== 'not-found' && r.name !== 'units'),
+      // The real fleet and outbox routes are replaced by stand-in pages, so the drawer entries stay the ones under test.
+      ...(shellRoute.children ?? []).filter((r) => r.name !== 'not-found' && r.name !== 'units' && r.name !== 'outbox'),
       { path: 'units', name: 'units', component: page, meta: { nav: { label: 'Fleet', icon: 'bolt' } } },
       {
         path: 'criteria',

@@ -223,6 +223,7 @@ describe('EventFilePage — decision panel', () => {
       screenings: [storedScreening({ recommendation: 'go', result: screeningResult({ recommendation: 'go' }) })],
       decision: signed,
       decisions: [signed],
+      people: { ...screenedEvent().people, '9': { id: 9, name: 'Priya Nair', email: 'p.nair@kestrel-valley.example' } },
     }));
     const { wrapper } = await mountApp('/events/11');
 

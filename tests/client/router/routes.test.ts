@@ -54,4 +54,11 @@ describe('route table', () => {
     expect(byName.get('event-new')?.meta?.nav?.label).toBe('Log a fault');
     expect(byName.get('event-file')?.props).toBe(true);
   });
+
+  it('has the outbox at /dev/outbox for admin and manager, in the drawer only while the mail sink runs', () => {
+    const outbox = pages.find((record) => record.name === 'outbox');
+    expect(outbox?.path).toBe('dev/outbox');
+    expect(outbox?.meta?.roles).toEqual(['admin', 'manager']);
+    expect(outbox?.meta?.nav).toEqual({ label: 'Outbox', icon: 'outbox', requiresMailSink: true });
+  });
 });

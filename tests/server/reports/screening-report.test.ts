@@ -1,7 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces.js';
 import { renderPdf } from '../../../server/reports/pdf.js';
-import { buildReportDocDefinition } from '../../../server/reports/screening-report.js';
+import { buildReportDocDefinition, PDF_GLYPH_SUBSTITUTES } from '../../../server/reports/screening-report.js';
+
+// What the PDF prints for a text: characters the bundled font lacks are substituted.
+const printed = (s: string) => [...s].map((ch) => PDF_GLYPH_SUBSTITUTES[ch] ?? ch).join('');
 import { exampleCaseReport, internalFaultReport, recentEventReport } from './report-fixtures.js';
 
 const PRESENTATION_KEYS = new Set(['style', 'color', 'fillColor', 'alignment', 'lineColor', 'lineCap', 'type', 'widths', 'layout', 'font']);
@@ -82,7 +85,7 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
     const d = recentEventReport();
     d.result = { ...d.result, missing: ['sweep'], unreliable: ['reactance.B'] };
     const text = allText(buildReportDocDefinition(d));
-    for (const r of d.result.reasons) expect(text).toContain(r);
+    for (const r of d.result.reasons) expect(text).toContain(printed(r));
     for (const f of d.result.followUps) expect(text).toContain(f);
     expect(text).toContain('sweep (sweep)');
     expect(text).toContain('reactance phase B (reactance.B)');
@@ -93,7 +96,7 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
     const text = allText(buildReportDocDefinition(d));
     for (const i of d.result.indicators) {
       expect(text).toContain(i.key);
-      expect(text).toContain(i.rule);
+      expect(text).toContain(printed(i.rule));
       expect(text).toContain(i.source);
     }
     expect(text).toContain('INVESTIGATE');
@@ -131,5 +134,27 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
     await renderPdf(def);
     expect(JSON.stringify(def)).toBe(defBefore);
     expect(JSON.stringify(buildReportDocDefinition(d))).toBe(defBefore);
+  });
+});
+
+describe('the report text and the bundled Roboto font', () => {
+  it('uses only characters the font can draw', async () => {
+    const fontkitModule = (await import('fontkit')) as unknown as { openSync?: (p: string) => unknown; default?: { openSync(p: string): unknown } };
+    const fontkit = { openSync: (p: string) => (fontkitModule.openSync ?? fontkitModule.default!.openSync)(p) };
+    const { createRequire } = await import('node:module');
+    const require = createRequire(import.meta.url);
+    // The TTF pdfmake ships (pdfmake's package exports do not list it, so resolve its folder from package.json).
+    const fontPath = require.resolve('pdfmake/package.json').replace(/package\.json$/, 'fonts/Roboto/Roboto-Regular.ttf');
+    const font = fontkit.openSync(fontPath) as unknown as { hasGlyphForCodePoint(cp: number): boolean };
+    const strings: string[] = [];
+    const walk = (v: unknown) => {
+      if (typeof v === 'string') strings.push(v);
+      else if (Array.isArray(v)) v.forEach(walk);
+      else if (v && typeof v === 'object') Object.values(v).forEach(walk);
+    };
+    const cases = ['clean-go', 'conditional', 'duty-only-go', 'high-duty-missing', 'no-go-internal', 'no-go-readings', 'sisters-no-baseline', 'sweeps'];
+    for (const data of [recentEventReport(), internalFaultReport(), ...cases.map(exampleCaseReport)]) walk(buildReportDocDefinition(data));
+    const missing = new Set([...strings.join('')].filter((ch) => ch.charCodeAt(0) > 127 && !font.hasGlyphForCodePoint(ch.codePointAt(0)!)));
+    expect([...missing]).toEqual([]);
   });
 });
