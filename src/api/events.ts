@@ -120,6 +120,8 @@ export interface FindingView {
 /** One e-mail about the event (the manager's mail after a screening), as queued and sent by the server. */
 export interface NotificationView {
   id: number;
+  /** The screening the mail reports on. */
+  screeningId?: number;
   to: string;
   subject: string;
   status: 'queued' | 'sent' | 'failed';

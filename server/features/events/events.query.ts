@@ -109,7 +109,7 @@ export async function getEvent(db: DataSource, id: number) {
     order: { at: 'ASC', id: 'ASC' },
     take: 500,
   });
-  const userIds = [...new Set([e.createdById, ...sessions.map((s) => s.createdById), ...screenings.map((s) => s.computedById), ...decisions.map((d) => d.managerId), ...auditRows.map((a) => a.userId)].filter((x): x is number => typeof x === 'number'))];
+  const userIds = [...new Set([e.createdById, ...sessions.map((s) => s.createdById), ...screenings.map((s) => s.computedById), ...decisions.map((d) => d.managerId), ...followUps.map((f) => f.closedById), ...findings.map((f) => f.recordedById), ...auditRows.map((a) => a.userId)].filter((x): x is number => typeof x === 'number'))];
   const users = userIds.length ? await db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
   const people = Object.fromEntries(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
   return {
