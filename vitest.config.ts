@@ -25,6 +25,8 @@ export default defineConfig({
         test: {
           name: 'e2e',
           environment: 'node',
+          // After every other project: its app server runs a mail worker over the shared test database.
+          sequence: { groupOrder: 1 },
           include: ['tests/e2e/**/*.test.ts'],
           fileParallelism: false,
           testTimeout: 60000,
