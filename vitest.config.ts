@@ -25,8 +25,8 @@ export default defineConfig({
         test: {
           name: 'e2e',
           environment: 'node',
-          // After every other project: its app server runs a mail worker over the shared test database.
-          sequence: { groupOrder: 1 },
+          // A database of its own: its app server runs a mail worker, and the demo flow changes the demo events.
+          env: { DB_NAME: 'gapsight_e2e' },
           include: ['tests/e2e/**/*.test.ts'],
           fileParallelism: false,
           testTimeout: 60000,

@@ -77,6 +77,8 @@ async function main(): Promise<number> {
   ensureDatabaseAndUser(paths, 'gapsight_test', 'gapsight', dbPassword);
   // A second, empty database for tests that need a database of their own (the demo seed at a fixed date).
   ensureDatabaseAndUser(paths, 'gapsight_fixed', 'gapsight', dbPassword);
+  // The browser tests' own database (their app server runs a mail worker and walks the demo flow).
+  ensureDatabaseAndUser(paths, 'gapsight_e2e', 'gapsight', dbPassword);
   console.log(`✓ MariaDB on 127.0.0.1:${dbPort} (datadir ${paths.datadir})`);
 
   Object.assign(process.env, {
@@ -101,7 +103,12 @@ async function main(): Promise<number> {
   await db.initialize();
   const ran = await db.runMigrations({ transaction: 'each' });
   await db.destroy();
-  console.log(`✓ ${ran.length} migration(s) applied`);
+  const { DataSource } = await import('typeorm');
+  const e2eDb = new DataSource({ ...db.options, database: 'gapsight_e2e' } as typeof db.options);
+  await e2eDb.initialize();
+  await e2eDb.runMigrations({ transaction: 'each' });
+  await e2eDb.destroy();
+  console.log(`✓ ${ran.length} migration(s) applied (test and browser-test databases)`);
 
   if (!process.env.SKIP_E2E_BUILD) {
     step('Client build for the browser tests');
