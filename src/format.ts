@@ -1,14 +1,8 @@
 // How the client writes numbers and times: numbers with a sensible precision (tabular figures come from CSS),
 // dates in ISO form in the site's time zone, with the zone named.
+import { formatSignificant, offsetText, pad2 as pad, validZone, wallClock, zoneOffsetMinutes } from '../shared/format';
 
-/** A number with at most `digits` significant digits, no exponent, trailing zeros kept off ("3131", "0.28", "15.8"). */
-export function formatSignificant(value: number | null | undefined, digits = 4): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  if (value === 0) return '0';
-  const magnitude = Math.floor(Math.log10(Math.abs(value)));
-  const decimals = Math.max(0, digits - 1 - magnitude);
-  return Number(value.toFixed(Math.min(decimals, 12))).toString();
-}
+export { formatSignificant, zoneOffsetMinutes };
 
 /** A number with a fixed number of decimals ("9.0"). */
 export function formatFixed(value: number | null | undefined, decimals = 1): string {
@@ -21,55 +15,6 @@ export function formatBytes(bytes: number): string {
   if (bytes < 1024) return `${bytes} B`;
   if (bytes < 1024 * 1024) return `${formatSignificant(bytes / 1024, 3)} kB`;
   return `${formatSignificant(bytes / (1024 * 1024), 3)} MB`;
-}
-
-interface WallClock {
-  year: number;
-  month: number;
-  day: number;
-  hour: number;
-  minute: number;
-  second: number;
-}
-
-function wallClock(date: Date, timeZone: string): WallClock {
-  const parts = new Intl.DateTimeFormat('en-GB', {
-    timeZone,
-    hourCycle: 'h23',
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    second: '2-digit',
-  }).formatToParts(date);
-  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? 0);
-  return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour') % 24, minute: get('minute'), second: get('second') };
-}
-
-/** Minutes the zone is ahead of UTC at that instant (Europe/London in summer: 60). */
-export function zoneOffsetMinutes(date: Date, timeZone: string): number {
-  const w = wallClock(date, timeZone);
-  const asUtc = Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second);
-  return Math.round((asUtc - Math.floor(date.getTime() / 1000) * 1000) / 60000);
-}
-
-function offsetText(minutes: number): string {
-  const sign = minutes < 0 ? '−' : '+';
-  const abs = Math.abs(minutes);
-  return `${sign}${String(Math.floor(abs / 60)).padStart(2, '0')}:${String(abs % 60).padStart(2, '0')}`;
-}
-
-const pad = (n: number) => String(n).padStart(2, '0');
-
-function validZone(timeZone: string | null | undefined): string {
-  if (!timeZone) return 'UTC';
-  try {
-    new Intl.DateTimeFormat('en', { timeZone });
-    return timeZone;
-  } catch {
-    return 'UTC';
-  }
 }
 
 /** An instant in ISO form on the site's wall clock, with offset and zone: "2026-11-28 03:12 +00:00 Europe/London". */

@@ -4,19 +4,12 @@ import type { GapsightCase } from '../../shared/schemas/case.js';
 import type { GapsightResult, Indicator, Level, Method, Recommendation } from '../../shared/schemas/result.js';
 import { describeRequired } from '../../shared/screening/verdict.js';
 import type { ScreeningReportData } from './report-data.js';
+import { formatSignificant, offsetText, pad2 as pad, validZone, wallClock, zoneOffsetMinutes } from '../../shared/format.js';
+
+export { formatSignificant };
 
 // ---------------------------------------------------------------------------------------------------------------------
 // Numbers
-
-/** At most `digits` significant digits, no exponent, no trailing zeros ("3131", "0.28", "15.8"). */
-export function formatSignificant(value: number | null | undefined, digits = 4): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  if (value === 0) return '0';
-  const magnitude = Math.floor(Math.log10(Math.abs(value)));
-  const decimals = Math.max(0, digits - 1 - magnitude);
-  const text = Number(value.toFixed(Math.min(decimals, 12))).toString();
-  return text.includes('e') ? value.toPrecision(digits) : text;
-}
 
 /** A percentage or similar figure for reading: 89 · 8.7 · 0.29 (and a sign when asked: +3.42 is kept at 3 digits). */
 export function formatFigure(value: number | null | undefined, signed = false): string {
@@ -51,42 +44,6 @@ export function ordinal(n: number): string {
 // ---------------------------------------------------------------------------------------------------------------------
 // Times (ISO form on the site's wall clock, zone named)
 
-function validZone(timeZone: string | null | undefined): string {
-  if (!timeZone) return 'UTC';
-  try {
-    new Intl.DateTimeFormat('en', { timeZone });
-    return timeZone;
-  } catch {
-    return 'UTC';
-  }
-}
-
-interface WallClock {
-  year: number;
-  month: number;
-  day: number;
-  hour: number;
-  minute: number;
-  second: number;
-}
-
-function wallClock(date: Date, timeZone: string): WallClock {
-  const parts = new Intl.DateTimeFormat('en-GB', {
-    timeZone,
-    hourCycle: 'h23',
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    second: '2-digit',
-  }).formatToParts(date);
-  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? 0);
-  return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour') % 24, minute: get('minute'), second: get('second') };
-}
-
-const pad = (n: number) => String(n).padStart(2, '0');
-
 /** "2026-11-28 03:12 Europe/London (UTC+00:00)"; a date-only string stays as it is; empty → "—". */
 export function formatInstant(iso: string | null | undefined, timeZone: string | null | undefined): string {
   if (!iso) return '—';
@@ -95,11 +52,7 @@ export function formatInstant(iso: string | null | undefined, timeZone: string |
   if (Number.isNaN(date.getTime())) return iso;
   const zone = validZone(timeZone);
   const w = wallClock(date, zone);
-  const asUtc = Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second);
-  const offset = Math.round((asUtc - Math.floor(date.getTime() / 1000) * 1000) / 60000);
-  const sign = offset < 0 ? '−' : '+';
-  const abs = Math.abs(offset);
-  return `${w.year}-${pad(w.month)}-${pad(w.day)} ${pad(w.hour)}:${pad(w.minute)} ${zone} (UTC${sign}${pad(Math.floor(abs / 60))}:${pad(abs % 60)})`;
+  return `${w.year}-${pad(w.month)}-${pad(w.day)} ${pad(w.hour)}:${pad(w.minute)} ${zone} (UTC${offsetText(zoneOffsetMinutes(date, zone))})`;
 }
 
 /** The date part on the site's wall clock ("2026-11-28"); a date-only string stays as it is. */
