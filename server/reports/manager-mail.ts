@@ -97,7 +97,7 @@ function sections(d: ScreeningReportData): { headline: string; meaning: string; 
     ],
   });
 
-  const agree = agreementInWords(r);
+  const agree = agreementInWords(r, d.criteria);
   body.push({
     title: 'Where independent methods agree',
     lines: [agree.summary],

@@ -10,6 +10,7 @@ import { Screening } from '../features/screenings/screening.entity.js';
 import { Unit } from '../features/units/unit.entity.js';
 import { User } from '../features/users/user.entity.js';
 import type { ScreeningReportData } from './report-data.js';
+import { loadCriteria } from '../features/criteria/criteria.service.js';
 
 /** Assembles what the e-mail and the PDF say about a stored screening. */
 export async function loadReportData(m: EntityManager, screeningId: number, appUrl: string): Promise<ScreeningReportData> {
@@ -63,6 +64,7 @@ export async function loadReportData(m: EntityManager, screeningId: number, appU
     testers,
     case: parsedCase.value,
     result: parsedResult.data,
+    criteria: (await loadCriteria(m, s.criteriaVersion)).criteria,
     eventUrl: `${appUrl.replace(/\/$/, '')}/events/${event.id}`,
   };
 }

@@ -1,5 +1,6 @@
 import type { GapsightCase } from '../../shared/schemas/case.js';
 import type { GapsightResult } from '../../shared/schemas/result.js';
+import type { Criteria } from '../../shared/screening/criteria.js';
 
 /** Everything the manager's e-mail and the PDF report say about one stored screening (assembled from the database). */
 export interface ScreeningReportData {
@@ -31,6 +32,8 @@ export interface ScreeningReportData {
   /** The case the engine was given (dates of baseline/previous, tap and temperature for the caveats). */
   case: GapsightCase;
   result: GapsightResult;
+  /** The criteria set the screening ran under (default: version 1); the mail explains corroboration with it. */
+  criteria?: Criteria;
   /** Link to the event file in the app. */
   eventUrl: string;
   /** Optional: where the baseline comes from, in words ("factory test", "commissioning test 2009"); default "factory or commissioning test". */

@@ -2,7 +2,9 @@
 // The result JSON keeps full precision; everything here rounds for display the way the UI does.
 import type { GapsightCase } from '../../shared/schemas/case.js';
 import type { GapsightResult, Indicator, Level, Method, Recommendation } from '../../shared/schemas/result.js';
-import { describeRequired } from '../../shared/screening/verdict.js';
+import { corroboratingMethods, describeRequired } from '../../shared/screening/verdict.js';
+import { criteriaV1, type Criteria } from '../../shared/screening/criteria.js';
+import { levelRank } from '../../shared/screening/levels.js';
 import type { ScreeningReportData } from './report-data.js';
 import { formatSignificant, offsetText, pad2 as pad, validZone, wallClock, zoneOffsetMinutes } from '../../shared/format.js';
 
@@ -82,8 +84,7 @@ export function wholeYears(from: string, to: string): number | null {
 
 export const RECOMMENDATION_WORD: Record<Recommendation, string> = { go: 'GO', conditional: 'CONDITIONAL', 'no-go': 'NO-GO' };
 export const LEVEL_WORD: Record<Level, string> = { ok: 'OK', watch: 'WATCH', investigate: 'INVESTIGATE', critical: 'CRITICAL' };
-const LEVEL_RANK: Record<Level, number> = { ok: 0, watch: 1, investigate: 2, critical: 3 };
-export const levelAtLeast = (l: Level, min: Level) => LEVEL_RANK[l] >= LEVEL_RANK[min];
+export const levelAtLeast = (l: Level, min: Level) => levelRank(l) >= levelRank(min);
 
 /** What each recommendation means, in one line. */
 export const RECOMMENDATION_MEANING: Record<Recommendation, string> = {
@@ -151,9 +152,6 @@ const METHOD_WORDS: Record<Method, string> = {
 };
 export const methodWord = (m: string) => METHOD_WORDS[m as Method] ?? m;
 
-/** Methods that count as independent evidence (capacitance and its power factor are one test). */
-const INDEPENDENT: readonly Method[] = ['capacitance', 'reactance', 'sweep', 'excitation', 'resistance', 'ratio', 'gas'];
-const SAME_TEST: Partial<Record<Method, Method>> = { 'power-factor': 'capacitance' };
 
 /** A short label for an indicator key ("CHL capacitance shift vs baseline"); unknown keys are returned as they are. */
 export function indicatorLabel(key: string): string {
@@ -397,7 +395,7 @@ export function testsInWords(d: ScreeningReportData): { done: string[]; outstand
 }
 
 /** Where independent methods agree: flagged indicators grouped by method, plus the corroboration reason if any. */
-export function agreementInWords(result: GapsightResult): { groups: { method: string; items: string[] }[]; summary: string } {
+export function agreementInWords(result: GapsightResult, criteria: Criteria = criteriaV1): { groups: { method: string; items: string[] }[]; summary: string } {
   const flagged = result.indicators.filter((i) => levelAtLeast(i.level, 'watch'));
   const byMethod = new Map<string, Indicator[]>();
   for (const i of flagged) byMethod.set(i.method, [...(byMethod.get(i.method) ?? []), i]);
@@ -406,10 +404,10 @@ export function agreementInWords(result: GapsightResult): { groups: { method: st
     items: list.map((i) => `${indicatorLabel(i.key)} ${indicatorValueText(i)} (${LEVEL_WORD[i.level]})`),
   }));
   const corroboration = result.reasons.find((r) => /^Independent methods agree/.test(r));
-  const independentFlagging = new Set(
-    flagged.map((i) => SAME_TEST[i.method] ?? i.method).filter((m) => INDEPENDENT.includes(m)),
-  );
-  const tested = new Set(result.indicators.map((i) => SAME_TEST[i.method] ?? i.method).filter((m) => INDEPENDENT.includes(m)));
+  // Which methods count as independent (and which are one test) is the criteria set's, as in the verdict.
+  const vc = criteria.verdict;
+  const independentFlagging = new Set<string>(corroboratingMethods(result.indicators, criteria));
+  const tested = new Set(result.indicators.map((i) => vc.sameTestAs[i.method] ?? i.method).filter((m) => vc.independentMethods.includes(m as Method)));
   const quiet = [...tested].filter((m) => !independentFlagging.has(m)).map(methodWord);
   let summary: string;
   if (corroboration) summary = corroboration;
