@@ -83,6 +83,7 @@ export const METHOD_LABELS: Record<Method, string> = {
   resistance: 'Winding resistance',
   ratio: 'Turns ratio',
   gas: 'Dissolved gases',
+  bushing: 'Bushings',
   sisters: 'Sister units',
   duty: 'Through-fault duty',
 };

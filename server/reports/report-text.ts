@@ -5,6 +5,9 @@ import type { GapsightResult, Indicator, Level, Method, Recommendation } from '.
 import { corroboratingMethods, describeRequired } from '../../shared/screening/verdict.js';
 import { criteriaV1, type Criteria } from '../../shared/screening/criteria.js';
 import { levelRank } from '../../shared/screening/levels.js';
+import { decisiveReason } from '../../shared/screening/reasons.js';
+
+export { decisiveReason };
 import type { ScreeningReportData } from './report-data.js';
 import { formatSignificant, offsetText, pad2 as pad, validZone, wallClock, zoneOffsetMinutes } from '../../shared/format.js';
 
@@ -147,6 +150,7 @@ const METHOD_WORDS: Record<Method, string> = {
   resistance: 'winding resistance',
   ratio: 'turns ratio',
   gas: 'dissolved gases',
+  bushing: 'bushings',
   sisters: 'sister-unit statistics',
   duty: 'through-fault duty',
 };
@@ -257,23 +261,6 @@ export function indicatorValueText(i: Indicator): string {
 
 // ---------------------------------------------------------------------------------------------------------------------
 // What the report says
-
-const INFORMATIONAL = [/full post-fault test set required and present/i, /does not rule out axial movement/i, /^No own baseline for some quantities/i];
-
-/** The reason that decides the recommendation, as it is written in the result (first decisive one). */
-export function decisiveReason(result: GapsightResult): string {
-  const reasons = result.reasons;
-  const find = (re: RegExp) => reasons.find((r) => re.test(r));
-  const internal = find(/^Internal protection operated/);
-  if (internal) return internal;
-  const hold = find(/hold pending tests:|^Complete:/);
-  if (hold) return hold;
-  const corroboration = find(/^Independent methods agree/);
-  const overall = result.overallLevel;
-  if (corroboration && overall && !result.indicators.some((i) => i.level === overall)) return corroboration;
-  const decisive = reasons.find((r) => !INFORMATIONAL.some((re) => re.test(r)));
-  return decisive ?? reasons[0] ?? 'No reason recorded';
-}
 
 /** The decisive reason shortened for a subject line: the reference and the threshold in brackets are left off. */
 export function shortReason(reason: string, max = 90): string {

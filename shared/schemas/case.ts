@@ -13,6 +13,10 @@ const isoDate = () =>
 
 export const faultTypeSchema = z.enum(['three-phase', 'phase-to-phase', 'phase-to-phase-to-ground', 'phase-to-ground']);
 export const faultSideSchema = z.enum(['hv', 'lv']);
+/** What the shots' `currentKA` are (rules revision 2): line currents (default) or winding currents. */
+export const currentIsSchema = z.enum(['line', 'winding']);
+export const sweepWindingSchema = z.enum(['hv', 'lv', 'tv']);
+export const sweepPhaseSchema = z.enum(['A', 'B', 'C']);
 export const protectionSchema = z.enum([
   'differential',
   'restricted-earth-fault',
@@ -53,6 +57,9 @@ export const faultSchema = z.looseObject({
   occurredAt: isoDate(),
   type: faultTypeSchema,
   side: faultSideSchema,
+  /** Side the fault was on (default: `side`, where the current was measured). */
+  location: faultSideSchema.optional(),
+  currentIs: currentIsSchema.optional(),
   transformerTripped: z.boolean().optional(),
   protectionOperated: z.array(protectionSchema).optional(),
   shots: z.array(shotSchema),
@@ -63,6 +70,8 @@ export const priorFaultSchema = z.looseObject({
   occurredAt: isoDate(),
   type: faultTypeSchema,
   side: faultSideSchema,
+  location: faultSideSchema.optional(),
+  currentIs: currentIsSchema.optional(),
   shots: z.array(shotSchema),
 });
 
@@ -101,11 +110,27 @@ export const dissolvedGasSchema = z.looseObject({
 
 const phaseValues = () => z.record(z.string().min(1), positive());
 
+/** One bushing terminal's readings (C1 main insulation, C2 tap insulation, their DF in percent). */
+export const bushingSchema = z.looseObject({
+  c1PF: positive(),
+  c1DissipationPercent: nonNegative().optional(),
+  c2PF: positive().optional(),
+  c2DissipationPercent: nonNegative().optional(),
+  /** Winding the terminal belongs to; default HV when the label starts with `H` or `1`. */
+  winding: sweepWindingSchema.optional(),
+});
+
 /** A reading set (baseline, previous, post-fault, or a sister's latest set) — every section optional. */
 export const readingSetSchema = z.looseObject({
   takenAt: isoDate().optional(),
   temperatureC: finite().optional(),
   tapPosition: z.union([z.string(), finite()]).optional(),
+  /** The core was demagnetised before the excitation and sweep tests (or they came before any DC test). */
+  demagnetised: z.boolean().optional(),
+  /** Hours between de-energising and the tests. */
+  hoursDeEnergised: nonNegative().optional(),
+  /** Measured winding temperature for the resistance correction (`resistanceTemperatureC` means the same). */
+  windingTemperatureC: finite().optional(),
   capacitancePF: z.record(z.string().min(1), positive()).optional(),
   capacitanceModes: z.record(z.string().min(1), capacitanceModeSchema).optional(),
   dissipationPercent: z.record(z.string().min(1), nonNegative()).optional(),
@@ -118,6 +143,7 @@ export const readingSetSchema = z.looseObject({
   turnsRatio: phaseValues().optional(),
   dissolvedGasPPM: dissolvedGasSchema.optional(),
   dissipationByFrequency: z.record(z.string().min(1), z.array(z.tuple([positive(), nonNegative()]))).optional(),
+  bushings: z.record(z.string().min(1), bushingSchema).optional(),
 });
 
 export const sisterSchema = readingSetSchema.extend({ serial: z.string().min(1) });
@@ -133,6 +159,9 @@ export const sweepTestTypeSchema = z.enum([
 export const sweepSchema = z.looseObject({
   label: z.string().min(1),
   testType: sweepTestTypeSchema,
+  winding: sweepWindingSchema.optional(),
+  phase: sweepPhaseSchema.optional(),
+  baselineTapPosition: z.union([z.string(), finite()]).optional(),
   tapPosition: z.union([z.string(), finite()]).optional(),
   demagnetised: z.boolean().optional(),
   baseline: z.array(sweepPointSchema).optional(),
@@ -162,6 +191,8 @@ export type Sister = z.infer<typeof sisterSchema>;
 export type Sweep = z.infer<typeof sweepSchema>;
 export type SweepPoint = z.infer<typeof sweepPointSchema>;
 export type DissolvedGas = z.infer<typeof dissolvedGasSchema>;
+export type Bushing = z.infer<typeof bushingSchema>;
+export type CurrentIs = z.infer<typeof currentIsSchema>;
 export type FaultType = z.infer<typeof faultTypeSchema>;
 export type Protection = z.infer<typeof protectionSchema>;
 

@@ -12,9 +12,13 @@ export const methodSchema = z.enum([
   'resistance',
   'ratio',
   'gas',
+  'bushing',
   'sisters',
   'duty',
 ]);
+
+/** What an indicator compares (rules revision 2). */
+export const basisSchema = z.enum(['change', 'sisters', 'phase-comparison', 'state', 'duty']);
 
 export const indicatorSchema = z
   .looseObject({
@@ -24,6 +28,10 @@ export const indicatorSchema = z
     rule: z.string(),
     source: z.string(),
     method: methodSchema,
+    /** Revision 2: always present in new results; results stored before it lack it. */
+    basis: basisSchema.optional(),
+    /** A change judged under a known doubt (temperature, remanence): never corroborates. */
+    lowConfidence: z.boolean().optional(),
     note: z.string().optional(),
     /** Optional: phase or capacitance configuration the indicator is about (used to say where methods agree). */
     location: z.string().optional(),
@@ -51,6 +59,10 @@ export const throughFaultSchema = z.looseObject({
   cumulativeI2t: z.number(),
   cumulativeDutyPercent: z.number(),
   shotsAboveSegment: z.number().int(),
+  /** Revision 2 (absent in results stored before it). */
+  windingCurrentFactor: z.number().nullable().optional(),
+  currentBasis: z.enum(['winding', 'line-converted', 'line-assumed']).optional(),
+  thermalDurationPercent: z.number().nullable().optional(),
 });
 
 export const resultSchema = z.looseObject({
@@ -66,11 +78,14 @@ export const resultSchema = z.looseObject({
   /** Optional additions: the overall level after corroboration and the criteria-set version used. */
   overallLevel: levelSchema.optional(),
   criteriaVersion: z.number().int().optional(),
+  /** Rules revision the result was computed with (2); a result without it was computed with revision 1. */
+  engineRevision: z.number().int().optional(),
 });
 
 export type Level = z.infer<typeof levelSchema>;
 export type Recommendation = z.infer<typeof recommendationSchema>;
 export type Method = z.infer<typeof methodSchema>;
+export type Basis = z.infer<typeof basisSchema>;
 export type Indicator = z.infer<typeof indicatorSchema>;
 export type ThroughFault = z.infer<typeof throughFaultSchema>;
 export type IeeeCategory = ThroughFault['category'];

@@ -32,6 +32,12 @@ export const criteriaSchema = z.object({
     riseSource: source(),
     absoluteWatchPercent: z.number().positive(),
     absoluteSource: source(),
+    /** Revision 2: a PF20 rise below this many percentage points is within repeatability (ok). */
+    minRisePoints: z.number().nonnegative().optional(),
+    minRiseSource: source().optional(),
+    /** Revision 2: insulation temperatures further apart than this make the rise low-confidence (at most watch). */
+    temperatureDoubtC: z.number().positive().optional(),
+    temperatureDoubtSource: source().optional(),
   }),
   reactance: z.object({
     iecCategories: z.array(
@@ -47,6 +53,9 @@ export const criteriaSchema = z.object({
     threePhaseSource: source(),
     threePhaseFactor: z.number().positive(),
     formulaSource: source(),
+    /** Revision 2: per-phase %X more than this from the phases' mean → watch (state). */
+    phaseAverageTolerancePercent: z.number().positive().optional(),
+    phaseAverageSource: source().optional(),
   }),
   sweep: z.object({
     bandsHz: z.object({
@@ -74,6 +83,11 @@ export const criteriaSchema = z.object({
     }),
     source: source(),
     coreRegionSource: source(),
+    /** Revision 2: the fixed linear grid (Hz) both traces are interpolated onto. */
+    grid: z.object({ fromHz: z.number().positive(), toHz: z.number().positive(), stepHz: z.number().positive(), source: source() }).optional(),
+    /** Revision 2: A–C phase comparison (no baseline trace) is judged on these bands only, capped at this level. */
+    phaseComparisonCap: levelSchema.optional(),
+    phaseComparisonSource: source().optional(),
   }),
   sisters: z.object({
     modifiedZConstant: z.number().positive(),
@@ -152,6 +166,9 @@ export const criteriaSchema = z.object({
     imbalanceBands: bandsSchema,
     imbalanceAboveKVA: z.number().nonnegative(),
     imbalanceSource: source(),
+    /** Revision 2: without a measured winding temperature, the oil temperature stands in only after this many hours de-energised. */
+    minHoursDeEnergised: z.number().nonnegative().optional(),
+    hoursSource: source().optional(),
   }),
   ratio: z.object({
     changeBands: bandsSchema,
@@ -159,6 +176,30 @@ export const criteriaSchema = z.object({
     nameplateBands: bandsSchema,
     nameplateSource: source(),
   }),
+  /** Revision 2 blocks (absent from version 1: the engine then uses version 2's values). */
+  bushing: z
+    .object({
+      c1ShiftBands: bandsSchema,
+      c1ShiftSource: source(),
+      hvShareOfCH: z.number().positive(),
+      hvShareSource: source(),
+    })
+    .optional(),
+  plausibility: z
+    .object({
+      maxFactor: z.number().gt(1),
+      ratioMaxPercent: z.number().positive(),
+      source: source(),
+    })
+    .optional(),
+  remanence: z
+    .object({
+      allPhasesChangePercent: z.number().positive(),
+      source: source(),
+    })
+    .optional(),
+  stateCap: levelSchema.optional(),
+  lowConfidenceCap: levelSchema.optional(),
   dfFrequency: z.object({
     minPoints: z.number().int().min(4),
     conductiveRiseBands: bandsSchema,
@@ -177,6 +218,7 @@ export const criteriaSchema = z.object({
 });
 
 export type Criteria = z.infer<typeof criteriaSchema>;
+export type CriteriaBushing = NonNullable<Criteria['bushing']>;
 export type Band = z.infer<typeof bandSchema>;
 
 const FROM_MEMORY = 'from memory';
@@ -390,3 +432,80 @@ export const criteriaV1: Criteria = {
     corroborationSource: 'Gapsight case format: two or more independent methods at watch or above raise one step',
   },
 };
+
+/**
+ * Criteria set version 2 (rules revision 2): version 1 plus auto-transformer defaults, the power-factor repeatability
+ * floor and temperature doubt, the resistance cooling time, per-phase reactance against the phases' mean, the fixed
+ * sweep grid, bushings, plausibility and remanence. Published by a migration: never change it once landed.
+ */
+export const criteriaV2: Criteria = {
+  ...criteriaV1,
+  version: 2,
+  name: 'Gapsight defaults, rules revision 2 (criteria set 2)',
+  capacitance: {
+    ...criteriaV1.capacitance,
+    requiredByWindings: {
+      'two-winding': ['CH', 'CL', 'CHL'],
+      'three-winding': ['CH', 'CL', 'CT', 'CHL', 'CHT', 'CLT'],
+      auto: ['CH'],
+      'auto-tertiary': ['CH', 'CT', 'CHT'],
+    },
+    requiredSource:
+      'Gapsight case format (revision 2): two-winding CH, CL, CHL; three-winding CH, CL, CT, CHL, CHT, CLT; auto CH; auto-tertiary CH, CT, CHT (series and common windings are one circuit)',
+  },
+  powerFactor: {
+    ...criteriaV1.powerFactor,
+    minRisePoints: 0.1,
+    minRiseSource: 'common practice (from memory): a PF20 change below 0.1 percentage point is within test repeatability',
+    temperatureDoubtC: 10,
+    temperatureDoubtSource:
+      'common practice (from memory): one generic correction curve cannot stand for every insulation system; sets more than 10 °C apart are compared with low confidence',
+  },
+  reactance: {
+    ...criteriaV1.reactance,
+    phaseAverageTolerancePercent: 3,
+    phaseAverageSource: 'IEEE C57.152 / IEEE 62 practice (from memory): per-phase values within ±3 % of their average',
+  },
+  sweep: {
+    ...criteriaV1.sweep,
+    grid: {
+      fromHz: 1000,
+      toHz: 1000000,
+      stepHz: 1000,
+      source: 'DL/T 911 thresholds assume a linear sweep about 1 kHz apart (from memory): fixed grid 1, 2, … 1000 kHz',
+    },
+    phaseComparisonCap: 'investigate',
+    phaseComparisonSource: 'Gapsight rule: phases A and C of one winding compared over the mid and high bands (no baseline trace), capped at investigate',
+  },
+  resistance: {
+    ...criteriaV1.resistance,
+    minHoursDeEnergised: 4,
+    hoursSource: "common practice (from memory): after 4 h de-energised the windings have cooled to the oil's temperature",
+  },
+  bushing: {
+    c1ShiftBands: [
+      { from: 5, level: 'investigate' },
+      { from: 10, level: 'critical' },
+    ],
+    c1ShiftSource: 'IEEE 62-1995 lineage: C1 change < 5 % acceptable, 5–10 % investigate; above 10 % dangerous (common practice)',
+    hvShareOfCH: 0.5,
+    hvShareSource: 'Gapsight rule: HV bushings whose C1 changes add up to at least half of the CH change explain it',
+  },
+  plausibility: {
+    maxFactor: 1.5,
+    ratioMaxPercent: 10,
+    source: 'Gapsight rule: a reading 1.5 × (or 1/1.5 ×) its reference, or a ratio 10 % off, is a unit or connection error, not a deformation',
+  },
+  remanence: {
+    allPhasesChangePercent: 10,
+    source: 'common practice (from memory): a trip or a DC test leaves the core magnetised; all phases moving the same way points to remanence',
+  },
+  stateCap: 'watch',
+  lowConfidenceCap: 'watch',
+};
+
+/** Criteria sets the engine knows by heart, by version (the database holds the published copies). */
+export const BUILT_IN_CRITERIA: readonly Criteria[] = [criteriaV1, criteriaV2];
+
+/** Rules revision the engine implements (result field `engineRevision`). */
+export const ENGINE_REVISION = 2;

@@ -66,3 +66,4 @@ export function screenCase(c: GapsightCase, criteria: Criteria = criteriaV1): Ga
     criteriaVersion: criteria.version,
   };
 }
+export * from './reasons.js';

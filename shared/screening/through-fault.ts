@@ -1,5 +1,5 @@
 // Through-fault duty (IEEE C57.12.00 categories, IEEE C57.109 curves) and the Gapsight cumulative I²t tally.
-import type { Fault, PriorFault, Shot, Unit } from '../schemas/case.js';
+import type { CurrentIs, Fault, FaultType, PriorFault, Shot, Unit } from '../schemas/case.js';
 import type { IeeeCategory, Indicator, ThroughFault } from '../schemas/result.js';
 import { criteriaV1, type Criteria } from './criteria.js';
 import { indicator, roundSignificant } from './levels.js';
@@ -62,15 +62,91 @@ export function mechanicalTimeS(currentPerUnit: number, k: number): number {
   return k / (currentPerUnit * currentPerUnit);
 }
 
-/** Per-unit currents of a fault's shots (each fault on its own measured side). */
-export function shotsPerUnit(unit: Unit, fault: { side: 'hv' | 'lv'; shots: readonly Shot[] }): number[] {
+export type Connection = { kind: 'wye' | 'delta' | 'zigzag'; grounded: boolean; auto: boolean };
+export type VectorGroupParts = { hv: Connection; lv: Connection | null };
+
+/**
+ * The HV and LV connections of a vector group: the leading capitals (`D`, `Y`/`YN`, `Z`/`ZN`) are the HV winding, the
+ * small letters after them the LV winding (`a` = auto, treated as wye–wye). Null when it cannot be read.
+ */
+export function parseVectorGroup(vectorGroup: string | undefined | null): VectorGroupParts | null {
+  if (!vectorGroup) return null;
+  const m = /^\s*(YN|Y|D|ZN|Z)\s*(yn|y|d|zn|z|an|a)?/.exec(vectorGroup.trim());
+  if (!m) return null;
+  const conn = (code: string): Connection => {
+    const c = code.toLowerCase();
+    if (c.startsWith('a')) return { kind: 'wye', grounded: c.endsWith('n'), auto: true };
+    return { kind: c.startsWith('d') ? 'delta' : c.startsWith('z') ? 'zigzag' : 'wye', grounded: c.length > 1 && c.endsWith('n'), auto: false };
+  };
+  const hv = conn(m[1]);
+  const lv = m[2] ? conn(m[2]) : null;
+  // An auto-transformer's common winding is grounded when its HV neutral is.
+  if (lv?.auto && hv.grounded) lv.grounded = true;
+  return { hv, lv };
+}
+
+export type CurrentBasis = 'winding' | 'line-converted' | 'line-assumed';
+export type WindingCurrent = { factor: number | null; basis: CurrentBasis; reason?: string };
+
+type FaultLike = { type: FaultType; side: 'hv' | 'lv'; location?: 'hv' | 'lv'; currentIs?: CurrentIs };
+
+const SQRT3 = Math.sqrt(3);
+
+/**
+ * Winding-current factor k (winding per-unit = k × line per-unit) of a fault: the table of the case format, "Winding
+ * current" (IEEE C37.91 / C57.109 practice; delta relations). `factor` null = unknown: the line current is used as it is.
+ */
+export function windingCurrentFactor(unit: Pick<Unit, 'phases' | 'vectorGroup'>, fault: FaultLike): WindingCurrent {
+  const vg = parseVectorGroup(unit.vectorGroup);
+  if (fault.currentIs === 'winding') {
+    // A delta winding's rated current is the rated line current over √3: its per-unit current is √3 × I/I_line-rated
+    // (a deliberate reading of the contract's "factor 1", which holds for wye and single-phase windings).
+    const delta = unit.phases === 3 && (fault.side === 'hv' ? vg?.hv : vg?.lv)?.kind === 'delta';
+    return { factor: delta ? SQRT3 : 1, basis: 'winding' };
+  }
+  if (unit.phases === 1) return { factor: 1, basis: 'line-converted' };
+  if (fault.type === 'three-phase') return { factor: 1, basis: 'line-converted' };
+  const assumed = (why: string): WindingCurrent => ({
+    factor: null,
+    basis: 'line-assumed',
+    reason: `${why}: the line current is used as the winding current — enter the winding current or attach the relay record`,
+  });
+  if (!vg || !vg.lv) return assumed('no vector group on the unit, so the winding current cannot be derived');
+  if (vg.hv.kind === 'zigzag' || vg.lv.kind === 'zigzag') return assumed('zigzag winding: the winding current cannot be derived from the line current');
+  const measured = fault.side === 'hv' ? vg.hv : vg.lv;
+  const location = fault.location ?? fault.side;
+  const faulted = location === 'hv' ? vg.hv : vg.lv;
+  const sameSide = location === fault.side;
+  if (fault.type === 'phase-to-phase' || fault.type === 'phase-to-phase-to-ground') {
+    if (sameSide) return { factor: measured.kind === 'delta' ? 2 / SQRT3 : 1, basis: 'line-converted' };
+    if (measured.kind === 'delta' && faulted.kind === 'wye') return { factor: SQRT3 / 2, basis: 'line-converted' };
+    return { factor: 1, basis: 'line-converted' };
+  }
+  // phase-to-ground
+  if (sameSide) {
+    if (measured.kind === 'wye') return { factor: 1, basis: 'line-converted' };
+    return assumed('ground fault measured at delta terminals: the winding current is not fixed by the line current');
+  }
+  if (measured.kind === 'delta' && faulted.kind === 'wye' && faulted.grounded) return { factor: SQRT3, basis: 'line-converted' };
+  if (measured.kind === 'wye') return { factor: 1, basis: 'line-converted' };
+  return assumed('ground fault on an ungrounded or delta side, measured on the other side');
+}
+
+/** Line per-unit currents of a fault's shots (each fault on its own measured side). */
+export function linePerUnit(unit: Unit, fault: { side: 'hv' | 'lv'; shots: readonly Shot[] }): number[] {
   const kV = fault.side === 'hv' ? unit.hvKV : unit.lvKV;
   const base = ratedCurrentA(unit.ratedKVA, kV, unit.phases);
   return fault.shots.map((s) => (s.currentKA * 1000) / base);
 }
 
-/** I²t of a fault: Σ over its shots of (per-unit current)²·duration. */
-export function faultI2t(unit: Unit, fault: { side: 'hv' | 'lv'; shots: readonly Shot[] }): number {
+/** Winding per-unit currents of a fault's shots: k × line per-unit (k = 1 when unknown, line-assumed). */
+export function shotsPerUnit(unit: Unit, fault: FaultLike & { shots: readonly Shot[] }): number[] {
+  const k = windingCurrentFactor(unit, fault).factor ?? 1;
+  return linePerUnit(unit, fault).map((x) => x * k);
+}
+
+/** I²t of a fault: Σ over its shots of (winding per-unit current)²·duration. */
+export function faultI2t(unit: Unit, fault: FaultLike & { shots: readonly Shot[] }): number {
   const pu = shotsPerUnit(unit, fault);
   return fault.shots.reduce((sum, s, k) => sum + pu[k] * pu[k] * s.durationS, 0);
 }
@@ -92,6 +168,7 @@ export function computeThroughFault(
   const maxPu = maxCurrentPerUnit(unit, category, criteria);
   const segment = segmentStartPerUnit(maxPu, category, criteria);
   const mech = mechanicalLimitI2t(maxPu, category, criteria);
+  const winding = windingCurrentFactor(unit, fault);
   const i2t = faultI2t(unit, fault);
   const highDuty = roundSignificant(currentPerUnit, digits) >= roundSignificant(segment, digits);
   const totalDurationS = fault.shots.reduce((s, x) => s + x.durationS, 0);
@@ -118,6 +195,9 @@ export function computeThroughFault(
     cumulativeI2t,
     cumulativeDutyPercent: (100 * cumulativeI2t) / mech,
     shotsAboveSegment,
+    windingCurrentFactor: winding.factor,
+    currentBasis: winding.basis,
+    thermalDurationPercent: highDuty ? null : (100 * totalDurationS) / thermalCurveTimeS(currentPerUnit, criteria),
   };
 }
 
