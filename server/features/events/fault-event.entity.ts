@@ -28,8 +28,17 @@ export class FaultEvent {
   @Column({ type: 'varchar', length: 10, nullable: true })
   faultedPhases!: string | null;
 
+  /** Where the fault current was measured. */
   @Column({ type: 'varchar', length: 2 })
   side!: 'hv' | 'lv';
+
+  /** The side the fault was on (rules revision 2; null = the same as `side`). */
+  @Column({ type: 'varchar', length: 2, nullable: true })
+  location!: 'hv' | 'lv' | null;
+
+  /** What the shots' currents are (rules revision 2): `line` (null means line) or `winding`. */
+  @Column({ type: 'varchar', length: 8, nullable: true })
+  currentIs!: 'line' | 'winding' | null;
 
   @Column({ type: 'json' })
   shots!: { currentKA: number; durationS: number }[];

@@ -68,8 +68,17 @@ export class ReadingSet {
   @Column({ type: 'double', nullable: true })
   testFrequencyHz!: number | null;
 
+  /** Hours between de-energising and the tests (the case format's `hoursDeEnergised`). */
   @Column({ type: 'double', nullable: true })
   hoursDeenergised!: number | null;
+
+  /** The core was demagnetised before the excitation and sweep tests (or they came before any DC test). */
+  @Column({ type: 'boolean', nullable: true })
+  demagnetised!: boolean | null;
+
+  /** Measured winding temperature for the resistance correction, °C. */
+  @Column({ type: 'double', nullable: true })
+  windingTemperatureC!: number | null;
 
   /** Optional fields of the case format that have no column (kept as given). */
   @Column({ type: 'json', nullable: true })

@@ -24,8 +24,20 @@ export class SweepTrace {
   @Column({ type: 'varchar', length: 60, nullable: true })
   terminals!: string | null;
 
+  /** Winding the trace was taken on (rules revision 2): hv, lv or tv; null counts as HV. */
+  @Column({ type: 'varchar', length: 2, nullable: true })
+  winding!: 'hv' | 'lv' | 'tv' | null;
+
+  /** Phase of the trace: A, B or C. */
+  @Column({ type: 'varchar', length: 1, nullable: true })
+  phase!: 'A' | 'B' | 'C' | null;
+
   @Column({ type: 'varchar', length: 20, nullable: true })
   tapPosition!: string | null;
+
+  /** Tap position of the baseline trace this one is compared with (default: the baseline trace's own tap). */
+  @Column({ type: 'varchar', length: 20, nullable: true })
+  baselineTapPosition!: string | null;
 
   @Column({ type: 'boolean', nullable: true })
   demagnetised!: boolean | null;
