@@ -3,8 +3,11 @@
 // the post-fault readings (all sessions of an event) and a sister unit's latest readings.
 import type { ReadingSet } from '../schemas/case.js';
 
-/** Sections merged key by key (a configuration, a phase): a newer set replaces only the keys it has. */
-const PER_KEY = ['capacitancePF', 'capacitanceModes', 'dissipationPercent', 'reactance', 'excitationCurrentMA', 'windingResistanceOhm', 'turnsRatio', 'dissipationByFrequency'] as const;
+/**
+ * Sections merged key by key (a configuration, a phase, a bushing terminal): a newer set replaces only the keys it has
+ * (a bushing terminal's C1/C2 readings come whole from the newest set that tested that terminal).
+ */
+const PER_KEY = ['capacitancePF', 'capacitanceModes', 'dissipationPercent', 'reactance', 'excitationCurrentMA', 'windingResistanceOhm', 'turnsRatio', 'dissipationByFrequency', 'bushings'] as const;
 /** Sections that are one measurement: the newest set that has it gives all of it. */
 const WHOLE = ['threePhaseEquivalent', 'dissolvedGasPPM'] as const;
 
@@ -22,7 +25,10 @@ const has = (s: ReadingSet, key: string) => {
  * Merges reading sets, oldest first, so that each quantity keeps its newest value (ties keep input order).
  * Conditions follow the values they qualify: the insulation temperature comes from the newest set that gave a
  * dissipation factor, the tap position from the newest set that gave reactance, the excitation voltage and the
- * resistance temperature from the newest set that gave those currents and resistances.
+ * resistance temperature from the newest set that gave those currents and resistances. Rules revision 2: `demagnetised`
+ * qualifies the excitation test, `hoursDeEnergised` and `windingTemperatureC` the resistance test — each comes from the
+ * newest set that gave those values (absent there = absent, never borrowed from an older test), or, when no set gave
+ * them, from the newest set that has it.
  */
 export function mergeReadingSets(sets: readonly ReadingSet[]): ReadingSet | undefined {
   if (!sets.length) return undefined;
@@ -41,6 +47,13 @@ export function mergeReadingSets(sets: readonly ReadingSet[]): ReadingSet | unde
   if (tempSource) out.temperatureC = tempSource.temperatureC;
   const tapSource = newest((s) => has(s, 'reactance') && s.tapPosition !== undefined) ?? newest((s) => s.tapPosition !== undefined);
   if (tapSource) out.tapPosition = tapSource.tapPosition;
+  const conditionOf = (key: 'demagnetised' | 'hoursDeEnergised' | 'windingTemperatureC', qualifies: string) => {
+    const source = newest((s) => has(s, qualifies)) ?? newest((s) => s[key] !== undefined);
+    if (source && source[key] !== undefined) out[key] = source[key];
+  };
+  conditionOf('demagnetised', 'excitationCurrentMA');
+  conditionOf('hoursDeEnergised', 'windingResistanceOhm');
+  conditionOf('windingTemperatureC', 'windingResistanceOhm');
   if (out.excitationKV === undefined) {
     const kv = newest((s) => s.excitationKV !== undefined);
     if (kv) out.excitationKV = kv.excitationKV;

@@ -13,7 +13,7 @@ export interface ReadingRowData {
 }
 
 /** The set-level fields kept as columns, not rows. */
-export const SET_LEVEL_KEYS = ['takenAt', 'temperatureC', 'tapPosition'] as const;
+export const SET_LEVEL_KEYS = ['takenAt', 'temperatureC', 'tapPosition', 'demagnetised', 'hoursDeEnergised', 'windingTemperatureC'] as const;
 
 /** Case keys that map to rows; anything else a loose set carries goes to the set's `extra`. */
 export const ROW_KEYS = [
@@ -29,7 +29,20 @@ export const ROW_KEYS = [
   'turnsRatio',
   'dissolvedGasPPM',
   'dissipationByFrequency',
+  'bushings',
 ] as const;
+
+/**
+ * Bushing readings: one row per terminal and reading, `configuration` = the terminal label (`H1`, `1U`, …), `mode` = the
+ * terminal's winding (`hv`, `lv`, `tv`) when given, so the whole entry comes back from its rows.
+ */
+export const BUSHING_QUANTITIES = {
+  c1PF: ['bushing-c1', 'pF'],
+  c1DissipationPercent: ['bushing-c1-dissipation', '%'],
+  c2PF: ['bushing-c2', 'pF'],
+  c2DissipationPercent: ['bushing-c2-dissipation', '%'],
+} as const;
+const BUSHING_WINDINGS = ['hv', 'lv', 'tv'];
 
 const MODE_KEYS = { gstPF: 'GST', gstGuardPF: 'GST-guard', ustPF: 'UST' } as const;
 const REACTANCE_PARTS = { volts: ['volts', 'V'], amps: ['amps', 'A'], watts: ['watts', 'W'], zBaseOhm: ['zBase', 'ohm'] } as const;
@@ -80,6 +93,14 @@ export function readingSetToRows(set: ReadingSet): ReadingRowData[] {
   }
   for (const [cfg, pts] of Object.entries(set.dissipationByFrequency ?? {})) {
     for (const [f, df] of pts) out.push(row('dissipation-frequency', df, '%', { configuration: cfg, frequencyHz: f }));
+  }
+  for (const [terminal, b] of Object.entries(set.bushings ?? {})) {
+    const rec = b as Record<string, unknown>;
+    const mode = typeof rec.winding === 'string' ? rec.winding : null;
+    for (const [key, [quantity, unit]] of Object.entries(BUSHING_QUANTITIES)) {
+      const v = rec[key];
+      if (typeof v === 'number') out.push(row(quantity, v, unit, { configuration: terminal, mode }));
+    }
   }
   return out;
 }
@@ -136,6 +157,15 @@ export function rowsToReadingSet(rows: readonly ReadingRowData[]): ReadingSet {
       case 'dissipation-frequency': {
         const curves = bucket<[number, number][]>(set, 'dissipationByFrequency');
         (curves[cfg] ??= []).push([r.frequencyHz ?? 0, r.value]);
+        break;
+      }
+      case 'bushing-c1':
+      case 'bushing-c1-dissipation':
+      case 'bushing-c2':
+      case 'bushing-c2-dissipation': {
+        const key = Object.entries(BUSHING_QUANTITIES).find(([, [q]]) => q === r.quantity)![0];
+        const terminals = bucket<Record<string, unknown>>(set, 'bushings');
+        terminals[cfg] = { ...terminals[cfg], [key]: r.value, ...(r.mode && BUSHING_WINDINGS.includes(r.mode) ? { winding: r.mode } : {}) };
         break;
       }
       default:
