@@ -3,7 +3,7 @@ import type { GapsightCase } from '../schemas/case.js';
 import type { Indicator } from '../schemas/result.js';
 import type { Criteria } from './criteria.js';
 import { describeBands, indicator, roundSignificant } from './levels.js';
-import { baselineOrSisters, ownReferenceLabel, shiftIndicator } from './reference.js';
+import { baselineOrSisters, IMPLAUSIBLE_NOTE, isImplausible, ownReferenceLabel, shiftIndicator } from './reference.js';
 
 /** Consistency of a two-winding set: 100·((GST − GST-guard) − UST)/UST (IEEE C57.152 test terms). */
 export function capacitanceConsistencyPercent(gstPF: number, gstGuardPF: number, ustPF: number): number {
@@ -43,12 +43,17 @@ export function capacitanceIndicators(c: GapsightCase, criteria: Criteria): Capa
           'capacitance',
           `|(GST − GST-guard) − UST| ≥ ${cc.consistencyLimitPercent} % → unreliable (repeat the test)`,
           cc.consistencySource,
-          { location: cfg, note: bad ? 'unreliable: repeat the test' : undefined },
+          { basis: 'state', location: cfg, note: bad ? 'unreliable: repeat the test' : undefined },
         ),
       );
     }
     const sisterValues = (c.sisters ?? []).map((s) => s.capacitancePF?.[cfg]).filter((v): v is number => v !== undefined);
     const baseRef = baselineOrSisters(c.baseline?.capacitancePF?.[cfg], c.baseline?.takenAt, sisterValues, criteria);
+    const prevValue = c.previous?.capacitancePF?.[cfg];
+    if (!unreliableNote && [baseRef?.value, prevValue].some((r) => r !== undefined && isImplausible(value, r, criteria))) {
+      unreliable.push(`capacitance.${cfg}`);
+      unreliableNote = `${IMPLAUSIBLE_NOTE}: not judged`;
+    }
     if (baseRef) {
       const ind = shiftIndicator({
         key: `capacitance.${cfg}.shiftPercent`,
@@ -65,7 +70,7 @@ export function capacitanceIndicators(c: GapsightCase, criteria: Criteria): Capa
       if (unreliableNote) ind.level = 'ok';
       indicators.push(ind);
     }
-    const prev = c.previous?.capacitancePF?.[cfg];
+    const prev = prevValue;
     if (prev !== undefined) {
       const ind = shiftIndicator({
         key: `capacitance.${cfg}.shiftFromPreviousPercent`,

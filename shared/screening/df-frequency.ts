@@ -52,11 +52,12 @@ export function dfFrequencyIndicators(c: GapsightCase, criteria: Criteria): Indi
     const key = (k: string) => `dfFrequency.${cfg}.${k}`;
     const fit = points.length >= dc.minPoints ? fitDissipationOverFrequency(points) : null;
     const why = points.length < dc.minPoints ? `fewer than ${dc.minPoints} frequencies (${points.length})` : 'fit not possible (repeated frequencies)';
-    out.push(indicator(key('conductiveCoefficient'), fit ? fit.a : null, 'ok', 'power-factor', `${info}: A (% ·Hz), parallel-equivalent (conductive) loss`, dc.source, { note: fit ? undefined : why, location: cfg }));
-    out.push(indicator(key('seriesCoefficient'), fit ? fit.b : null, 'ok', 'power-factor', `${info}: B (%/Hz), series-equivalent loss`, dc.source, { note: fit ? undefined : why, location: cfg }));
-    out.push(indicator(key('constantPercent'), fit ? fit.c : null, 'ok', 'power-factor', `${info}: C (%)`, dc.source, { note: fit ? undefined : why, location: cfg }));
+    out.push(indicator(key('conductiveCoefficient'), fit ? fit.a : null, 'ok', 'power-factor', `${info}: A (% ·Hz), parallel-equivalent (conductive) loss`, dc.source, { basis: 'state', note: fit ? undefined : why, location: cfg }));
+    out.push(indicator(key('seriesCoefficient'), fit ? fit.b : null, 'ok', 'power-factor', `${info}: B (%/Hz), series-equivalent loss`, dc.source, { basis: 'state', note: fit ? undefined : why, location: cfg }));
+    out.push(indicator(key('constantPercent'), fit ? fit.c : null, 'ok', 'power-factor', `${info}: C (%)`, dc.source, { basis: 'state', note: fit ? undefined : why, location: cfg }));
     out.push(
       indicator(key('rSquared'), fit ? fit.rSquared : null, 'ok', 'power-factor', `${info}: fit quality R²`, dc.source, {
+        basis: 'state',
         note: !fit ? why : fit.rSquared === null ? 'all DF values equal: R² undefined' : undefined,
         location: cfg,
       }),
@@ -67,6 +68,7 @@ export function dfFrequencyIndicators(c: GapsightCase, criteria: Criteria): Indi
     const change = baseFit && baseFit.a > 0 ? shiftPercent(fit.a, baseFit.a) : null;
     out.push(
       indicator(key('conductiveChangePercent'), change, change === null ? 'ok' : capLevel(levelFromBands(change, dc.conductiveRiseBands, d), dc.maxLevel), 'power-factor', `${describeBands(dc.conductiveRiseBands, ' %', 'rise of the A/f term')} (informative, ${dc.maxLevel} at most)`, dc.source, {
+        basis: 'change',
         note: change === null ? (baseFit ? 'baseline A term not positive: change not meaningful' : 'baseline fit not possible') : undefined,
         location: cfg,
       }),
@@ -74,6 +76,7 @@ export function dfFrequencyIndicators(c: GapsightCase, criteria: Criteria): Indi
     const sChange = baseFit && baseFit.b > 0 ? shiftPercent(fit.b, baseFit.b) : null;
     out.push(
       indicator(key('seriesChangePercent'), sChange, 'ok', 'power-factor', 'informative: change of the B·f term against the baseline fit', dc.source, {
+        basis: 'change',
         note: sChange === null ? (baseFit ? 'baseline B term not positive: change not meaningful' : 'baseline fit not possible') : undefined,
         location: cfg,
       }),

@@ -44,6 +44,7 @@ export function gasIndicators(c: GapsightCase, criteria: Criteria): Indicator[] 
     const rise = pre ? post.C2H2 - (pre.gas.C2H2 ?? 0) : null;
     out.push(
       indicator('gas.C2H2.risePPM', rise, rise === null ? 'ok' : levelFromBands(rise, gc.acetyleneRiseBands, d), 'gas', describeBands(gc.acetyleneRiseBands, ' ppm', 'acetylene rise'), gc.source, {
+        basis: 'change',
         note: rise === null ? noPre : undefined,
         reference: pre?.label,
       }),
@@ -56,6 +57,7 @@ export function gasIndicators(c: GapsightCase, criteria: Criteria): Indicator[] 
     if (rise !== null && acetylenePresent && roundSignificant(rise, d) >= gc.hydrogenRiseWithAcetylenePPM) level = gc.hydrogenWithAcetyleneLevel;
     out.push(
       indicator('gas.H2.risePPM', rise, level, 'gas', `hydrogen rise ≥ ${gc.hydrogenRiseWithAcetylenePPM} ppm with acetylene present → ${gc.hydrogenWithAcetyleneLevel}`, gc.source, {
+        basis: 'change',
         note: rise === null ? noPre : undefined,
         reference: pre?.label,
       }),
@@ -65,6 +67,7 @@ export function gasIndicators(c: GapsightCase, criteria: Criteria): Indicator[] 
     const zone = duvalTriangle1Zone(post.CH4 ?? 0, post.C2H4 ?? 0, post.C2H2 ?? 0, criteria);
     out.push(
       indicator('gas.duvalZone', zone, 'ok', 'gas', 'informative: Duval triangle 1 zone of the post-fault sample', gc.duvalSource, {
+        basis: 'state',
         note: zone === null ? 'CH4 + C2H4 + C2H2 is zero' : undefined,
       }),
     );

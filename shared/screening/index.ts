@@ -2,7 +2,9 @@
 import type { GapsightCase } from '../schemas/case.js';
 import type { GapsightResult, Indicator } from '../schemas/result.js';
 import { capacitanceIndicators, capacitancePatternHints } from './capacitance.js';
-import { criteriaV1, type Criteria } from './criteria.js';
+import { criteriaV2, ENGINE_REVISION, type Criteria } from './criteria.js';
+import { bushingIndicators, noteBushingsOnCH } from './bushing.js';
+import { capLevel } from './levels.js';
 import { dfFrequencyIndicators } from './df-frequency.js';
 import { excitationIndicators } from './excitation.js';
 import { gasIndicators } from './gas.js';
@@ -29,29 +31,39 @@ export * from './excitation.js';
 export * from './resistance.js';
 export * from './ratio.js';
 export * from './df-frequency.js';
+export * from './bushing.js';
 export * from './verdict.js';
 
-/** Screen one case against a criteria set (default: version 1) and return the `gapsight-result/1` document. */
-export function screenCase(c: GapsightCase, criteria: Criteria = criteriaV1): GapsightResult {
+/** Screen one case against a criteria set (default: version 2) and return the `gapsight-result/1` document. */
+export function screenCase(c: GapsightCase, criteria: Criteria = criteriaV2): GapsightResult {
   const throughFault = computeThroughFault(c.unit, c.fault, c.priorFaults ?? [], criteria);
   const cap = capacitanceIndicators(c, criteria);
   const reactance = reactanceIndicators(c, criteria);
   const excitation = excitationIndicators(c, criteria);
+  const sweeps = sweepIndicators(c.sweeps ?? [], criteria);
+  const resistance = resistanceIndicators(c, criteria);
+  const ratio = ratioIndicators(c, criteria);
   const indicators: Indicator[] = [
     ...dutyIndicators(throughFault, criteria),
     ...cap.indicators,
     ...powerFactorIndicators(c, criteria, cap.unreliable),
     ...dfFrequencyIndicators(c, criteria),
+    ...bushingIndicators(c, criteria),
     ...reactance.indicators,
-    ...sweepIndicators(c.sweeps ?? [], criteria),
+    ...sweeps.indicators,
     ...gasIndicators(c, criteria),
     ...excitation.indicators,
-    ...resistanceIndicators(c, criteria),
-    ...ratioIndicators(c, criteria),
+    ...resistance.indicators,
+    ...ratio.indicators,
     ...sisterIndicators(c, criteria),
   ];
-  const unreliable = [...cap.unreliable, ...reactance.unreliable, ...excitation.unreliable];
-  const verdict = decideVerdict(c, indicators, throughFault, unreliable, criteria, capacitancePatternHints(indicators));
+  // Step 2 of the verdict: every state item is at most the state cap (an absolute value is not a new deformation).
+  const stateCap = criteria.stateCap ?? 'watch';
+  for (const i of indicators) if (i.basis === 'state') i.level = capLevel(i.level, stateCap);
+  const bushingNote = noteBushingsOnCH(c, indicators, criteria);
+  const unreliable = [...cap.unreliable, ...reactance.unreliable, ...excitation.unreliable, ...resistance.unreliable, ...ratio.unreliable, ...sweeps.unreliable];
+  const hints = [...capacitancePatternHints(indicators), ...(bushingNote ? [bushingNote] : [])];
+  const verdict = decideVerdict(c, indicators, throughFault, unreliable, criteria, hints);
   return {
     format: 'gapsight-result/1',
     recommendation: verdict.recommendation,
@@ -64,6 +76,7 @@ export function screenCase(c: GapsightCase, criteria: Criteria = criteriaV1): Ga
     indicators,
     overallLevel: verdict.overallLevel,
     criteriaVersion: criteria.version,
+    engineRevision: ENGINE_REVISION,
   };
 }
 export * from './reasons.js';

@@ -1,5 +1,5 @@
 // Levels: ordering, rounding before comparison, bands with inclusive lower ends, caps.
-import type { Indicator, Level, Method } from '../schemas/result.js';
+import type { Basis, Indicator, Level, Method } from '../schemas/result.js';
 import type { Band } from './criteria.js';
 
 export const LEVELS: readonly Level[] = ['ok', 'watch', 'investigate', 'critical'];
@@ -53,10 +53,11 @@ export function indicator(
   method: Method,
   rule: string,
   source: string,
-  extra: { note?: string; location?: string; reference?: string } = {},
+  extra: { basis: Basis; note?: string; location?: string; reference?: string; lowConfidence?: boolean },
 ): Indicator {
-  const out: Indicator = { key, value, level, rule, source, method };
+  const out: Indicator = { key, value, level, rule, source, method, basis: extra.basis };
   if (value === null && !extra.note) throw new Error(`indicator ${key}: a null value needs a note`);
+  if (extra.lowConfidence) out.lowConfidence = true;
   if (extra.note) out.note = extra.note;
   if (extra.location) out.location = extra.location;
   if (extra.reference) out.reference = extra.reference;

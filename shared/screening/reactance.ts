@@ -3,7 +3,8 @@ import type { GapsightCase, ReactancePhase, Unit } from '../schemas/case.js';
 import type { Indicator, Level } from '../schemas/result.js';
 import type { Criteria } from './criteria.js';
 import { describeBands, indicator, levelFromBands } from './levels.js';
-import { baselineOrSisters, ownReferenceLabel, shiftIndicator } from './reference.js';
+import { criteriaV2 } from './criteria.js';
+import { baselineOrSisters, IMPLAUSIBLE_NOTE, isImplausible, ownReferenceLabel, shiftIndicator } from './reference.js';
 
 /** Wye-equivalent impedance base in ohms: kV²·1000/kVA. */
 export function zBaseOhm(kV: number, kVA: number): number {
@@ -82,37 +83,41 @@ export function reactanceIndicators(c: GapsightCase, criteria: Criteria): Reacta
   const baseMismatch = postTap !== undefined && baseTap !== undefined && tapText(postTap) !== tapText(baseTap);
   const prevMismatch = postTap !== undefined && prevTap !== undefined && tapText(postTap) !== tapText(prevTap);
   const mismatchNote = (refTap: string | number | undefined, what: string) =>
-    `tap position differs (${what} ${tapText(refTap)}, post-fault ${tapText(postTap)}): reactance unreliable, not judged`;
+    `tap mismatch (${what} at tap ${tapText(refTap)}, post-fault at ${tapText(postTap)}): repeat at tap ${tapText(refTap)}; not judged`;
 
   const postPercent: Record<string, number> = {};
   for (const [phase, entry] of Object.entries(post)) {
     const value = reactancePercent(entry, unit);
     postPercent[phase] = value;
-    if (baseMismatch) unreliable.push(`reactance.${phase}`);
-    out.push(indicator(`reactance.${phase}.percent`, value, 'ok', 'reactance', 'post-fault per-phase %X (never compared with nameplate)', rc.formulaSource, { location: phase }));
+    out.push(indicator(`reactance.${phase}.percent`, value, 'ok', 'reactance', 'post-fault per-phase %X (never compared with nameplate)', rc.formulaSource, { basis: 'state', location: phase }));
     const sisterValues = (c.sisters ?? [])
       .map((s) => s.reactance?.[phase])
       .filter((v): v is ReactancePhase => v !== undefined)
       .map((v) => reactancePercent(v, unit));
     const baseEntry = c.baseline?.reactance?.[phase];
     const ref = baselineOrSisters(baseEntry ? reactancePercent(baseEntry, unit) : undefined, c.baseline?.takenAt, sisterValues, criteria);
+    const prevEntry = c.previous?.reactance?.[phase];
+    const prevValue = prevEntry ? reactancePercent(prevEntry, unit) : undefined;
+    const implausible = [ref?.value, prevValue].some((r) => r !== undefined && isImplausible(value, r, criteria));
+    if ((baseMismatch && ref && !ref.fromSisters) || implausible) unreliable.push(`reactance.${phase}`);
     if (ref) {
       const notes: string[] = [];
       if (baseEntry && isMeasured(baseEntry) !== isMeasured(entry)) notes.push('data quality: one side gives volts/amps and the other a percent');
       if (baseMismatch && !ref.fromSisters) notes.push(mismatchNote(baseTap, 'baseline'));
+      if (implausible) notes.push(`${IMPLAUSIBLE_NOTE}: not judged`);
       const ind = shiftIndicator({ key: `reactance.${phase}.shiftPercent`, value, reference: ref, bands: scaled, method: 'reactance', rule, source, location: phase, criteria, note: notes.join('; ') || undefined });
-      if (baseMismatch && !ref.fromSisters) ind.level = 'ok';
+      if ((baseMismatch && !ref.fromSisters) || implausible) ind.level = 'ok';
       out.push(ind);
     }
-    const prevEntry = c.previous?.reactance?.[phase];
-    if (prevEntry) {
+    if (prevEntry && prevValue !== undefined) {
       const notes: string[] = [];
       if (isMeasured(prevEntry) !== isMeasured(entry)) notes.push('data quality: one side gives volts/amps and the other a percent');
       if (prevMismatch) notes.push(mismatchNote(prevTap, 'previous'));
+      if (implausible) notes.push(`${IMPLAUSIBLE_NOTE}: not judged`);
       const ind = shiftIndicator({
         key: `reactance.${phase}.shiftFromPreviousPercent`,
         value,
-        reference: { value: reactancePercent(prevEntry, unit), label: ownReferenceLabel('previous', c.previous?.takenAt), fromSisters: false },
+        reference: { value: prevValue, label: ownReferenceLabel('previous', c.previous?.takenAt), fromSisters: false },
         bands: scaled,
         method: 'reactance',
         rule,
@@ -121,7 +126,7 @@ export function reactanceIndicators(c: GapsightCase, criteria: Criteria): Reacta
         criteria,
         note: notes.join('; ') || undefined,
       });
-      if (prevMismatch) ind.level = 'ok';
+      if (prevMismatch || implausible) ind.level = 'ok';
       out.push(ind);
     }
   }
@@ -129,7 +134,21 @@ export function reactanceIndicators(c: GapsightCase, criteria: Criteria): Reacta
   const phases = Object.keys(postPercent);
   if (unit.phases === 3 && phases.length >= 2) {
     const postSpread = phaseSpreadPercent(phases.map((p) => postPercent[p]));
-    out.push(indicator('reactance.phaseSpreadPercent', postSpread, 'ok', 'reactance', 'informative: an absolute spread is built into three-limb cores', rc.spreadSource));
+    out.push(indicator('reactance.phaseSpreadPercent', postSpread, 'ok', 'reactance', 'informative: an absolute spread is built into three-limb cores', rc.spreadSource, { basis: 'state' }));
+    if (unit.phases === 3 && phases.length === 3) {
+      const tol = rc.phaseAverageTolerancePercent ?? criteriaV2.reactance.phaseAverageTolerancePercent!;
+      const mean = phases.reduce((a, p) => a + postPercent[p], 0) / phases.length;
+      for (const p of phases) {
+        const dev = (100 * (postPercent[p] - mean)) / mean;
+        out.push(
+          indicator(`reactance.${p}.deviationFromAveragePercent`, dev, levelFromBands(Math.abs(dev), [{ from: tol, level: 'watch' }], digits), 'reactance', `|deviation from the phases' mean| ≥ ${tol} % → watch (a state: single-phase flux paths differ)`, rc.phaseAverageSource ?? criteriaV2.reactance.phaseAverageSource!, {
+            basis: 'state',
+            location: p,
+            reference: `mean of the three phases (${mean.toFixed(3)} %)`,
+          }),
+        );
+      }
+    }
     const base = c.baseline?.reactance;
     if (base && phases.every((p) => base[p] !== undefined)) {
       const baseSpread = phaseSpreadPercent(phases.map((p) => reactancePercent(base[p], unit)));
@@ -142,6 +161,7 @@ export function reactanceIndicators(c: GapsightCase, criteria: Criteria): Reacta
       }
       out.push(
         indicator('reactance.phaseSpreadChangePoints', change, level, 'reactance', `${describeBands(rc.spreadChangeBands, ' points', 'spread change (signed; a fall is ok)')}`, rc.spreadSource, {
+          basis: 'change',
           note,
           reference: ownReferenceLabel('baseline', c.baseline?.takenAt),
         }),
@@ -152,11 +172,12 @@ export function reactanceIndicators(c: GapsightCase, criteria: Criteria): Reacta
   const tpe = c.postFault?.threePhaseEquivalent;
   if (tpe) {
     const z = threePhaseEquivalentPercent(tpe.e12, tpe.e23, tpe.e31, tpe.amps, unit.ratedKVA, unit.hvKV, rc.threePhaseFactor);
-    out.push(indicator('reactance.threePhase.percent', z, 'ok', 'reactance', '%Z = (1/60)·((e12 + e23 + e31)/I)·(kVA/kV²)', rc.formulaSource));
+    out.push(indicator('reactance.threePhase.percent', z, 'ok', 'reactance', '%Z = (1/60)·((e12 + e23 + e31)/I)·(kVA/kV²)', rc.formulaSource, { basis: 'state' }));
     const dev = (100 * (z - unit.impedancePercent)) / unit.impedancePercent;
     const level = levelFromBands(Math.abs(dev), [{ from: rc.threePhaseTolerancePercent, level: rc.threePhaseLevel }], digits);
     out.push(
       indicator('reactance.threePhase.deviationFromNameplatePercent', dev, level, 'reactance', `|deviation from nameplate| ≥ ${rc.threePhaseTolerancePercent} % → ${rc.threePhaseLevel}`, rc.threePhaseSource, {
+        basis: 'state',
         reference: `nameplate ${unit.impedancePercent} %`,
       }),
     );

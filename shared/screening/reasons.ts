@@ -2,7 +2,15 @@
 // It reads the engine's own reason wording (verdict.ts), so it lives beside the engine.
 import type { GapsightResult } from '../schemas/result.js';
 
-const INFORMATIONAL = [/full post-fault test set required and present/i, /does not rule out axial movement/i, /^No own baseline for some quantities/i];
+const INFORMATIONAL = [
+  /full post-fault test set required and present/i,
+  /does not rule out axial movement/i,
+  /^No own baseline for some quantities/i,
+  /^Fault in the thermal region/,
+  /^Winding current not derived/,
+  /^Not judged \(unreliable\)/,
+  /^Unit stayed in service and the fault was not high duty/,
+];
 
 /** The reason that decides the recommendation, as it is written in the result (first decisive one). */
 export function decisiveReason(result: GapsightResult): string {
@@ -10,7 +18,9 @@ export function decisiveReason(result: GapsightResult): string {
   const find = (re: RegExp) => reasons.find((r) => re.test(r));
   const internal = find(/^Internal protection operated/);
   if (internal) return internal;
-  const hold = find(/hold pending tests:|^Complete:/);
+  const outOfService = find(/^Unit is still in service: take out of service for tests/);
+  if (outOfService) return outOfService;
+  const hold = find(/hold pending tests:|take out of service for tests:|^Complete:/);
   if (hold) return hold;
   const corroboration = find(/^Independent methods agree/);
   const overall = result.overallLevel;

@@ -1,7 +1,7 @@
 // References for shift indicators: the unit's own baseline or previous value, or the sisters' median standing in.
 import { median } from 'simple-statistics';
 import type { Indicator, Level, Method } from '../schemas/result.js';
-import type { Band, Criteria } from './criteria.js';
+import { criteriaV2, type Band, type Criteria } from './criteria.js';
 import { capLevel, indicator, levelFromBands } from './levels.js';
 
 export type Reference = {
@@ -69,8 +69,24 @@ export function shiftIndicator(args: {
   }
   if (args.note) notes.push(args.note);
   return indicator(args.key, shift, level, args.method, args.rule, source, {
+    basis: reference.fromSisters ? 'sisters' : 'change',
     note: notes.length ? notes.join('; ') : undefined,
     location: args.location,
     reference: reference.label,
   });
+}
+
+export const IMPLAUSIBLE_NOTE = 'implausible against the reference — check the unit of measure and the connection';
+
+/** Plausibility limits of a criteria set (revision 2; version 1 sets use the revision-2 defaults). */
+export function plausibilityOf(criteria: Criteria): NonNullable<Criteria['plausibility']> {
+  return criteria.plausibility ?? criteriaV2.plausibility!;
+}
+
+/** Whether a value is more than `maxFactor` × or less than 1/`maxFactor` × its reference (a unit or connection error). */
+export function isImplausible(value: number, reference: number, criteria: Criteria): boolean {
+  if (!(reference > 0) || !(value > 0)) return false;
+  const f = plausibilityOf(criteria).maxFactor;
+  const ratio = value / reference;
+  return ratio > f || ratio < 1 / f;
 }

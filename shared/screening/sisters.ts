@@ -4,7 +4,7 @@ import { mean, median, medianAbsoluteDeviation, sampleStandardDeviation } from '
 import type { GapsightCase, ReactancePhase } from '../schemas/case.js';
 import type { Indicator } from '../schemas/result.js';
 import type { Criteria } from './criteria.js';
-import { indicator, levelFromBands } from './levels.js';
+import { capLevel, indicator, levelFromBands } from './levels.js';
 import { reactancePercent } from './reactance.js';
 
 export type ModifiedZ = { value: number | null; median: number; mad: number; madFloored: boolean; note?: string };
@@ -94,16 +94,19 @@ export function sisterIndicators(c: GapsightCase, criteria: Criteria): Indicator
         'sisters',
         `informative: 100·(x − median of ${n} sisters)/median`,
         'common practice',
-        { note: med === 0 ? 'sisters\' median is zero' : undefined, location: q.location, reference: `sisters' median (${n} units)` },
+        { basis: 'state', note: med === 0 ? 'sisters\' median is zero' : undefined, location: q.location, reference: `sisters' median (${n} units)` },
       ),
     );
     const all = [...q.sisters, q.value];
     if (n >= sc.minSistersModifiedZ) {
       const m = modifiedZScore(q.value, all, sc.modifiedZConstant, sc.madFloorFractionOfMedian);
-      const level = m.value === null ? 'ok' : levelFromBands(Math.abs(m.value), [{ from: sc.modifiedZLimit, level: sc.modifiedZLevel }], criteria.rounding.significantDigits);
+      // A sister statistic describes a state (a unit may always have been the family's outlier): at most the state cap.
+      const stateCap = criteria.stateCap ?? 'watch';
+      const level = m.value === null ? 'ok' : capLevel(levelFromBands(Math.abs(m.value), [{ from: sc.modifiedZLimit, level: sc.modifiedZLevel }], criteria.rounding.significantDigits), stateCap);
       const notes = [m.note, m.madFloored ? `MAD raised to the floor of ${sc.madFloorFractionOfMedian * 100} % of |median|` : undefined].filter(Boolean);
       out.push(
-        indicator(`sisters.${q.name}.modifiedZ`, m.value, level, 'sisters', `|M| ≥ ${sc.modifiedZLimit} → ${sc.modifiedZLevel} (over this unit and ${n} sisters)`, sc.modifiedZSource, {
+        indicator(`sisters.${q.name}.modifiedZ`, m.value, level, 'sisters', `|M| ≥ ${sc.modifiedZLimit} → ${capLevel(sc.modifiedZLevel, stateCap)} (over this unit and ${n} sisters; a state, ${stateCap} at most)`, sc.modifiedZSource, {
+          basis: 'state',
           note: notes.length ? notes.join('; ') : undefined,
           location: q.location,
         }),
@@ -113,6 +116,7 @@ export function sisterIndicators(c: GapsightCase, criteria: Criteria): Indicator
     const gCrit = grubbsCritical(all.length, sc.grubbsAlpha);
     out.push(
       indicator(`sisters.${q.name}.grubbsG`, g, 'ok', 'sisters', `supporting: G > G_crit ${gCrit.toFixed(4)} (n ${all.length}, α ${sc.grubbsAlpha}) marks an outlier`, sc.grubbsSource, {
+        basis: 'state',
         note: g === null ? 'standard deviation is zero' : g > gCrit ? 'Grubbs: outlier' : 'Grubbs: not an outlier',
         location: q.location,
       }),
@@ -122,6 +126,7 @@ export function sisterIndicators(c: GapsightCase, criteria: Criteria): Indicator
       const dq = dixonQ(q.value, all);
       out.push(
         indicator(`sisters.${q.name}.dixonQ`, dq, 'ok', 'sisters', `supporting: Q > Q95 ${qCrit} (n ${all.length}) marks an outlier`, sc.dixonSource, {
+          basis: 'state',
           note: dq === null ? 'this unit is not the extreme value of the set (or the range is zero)' : dq > qCrit ? 'Dixon: outlier' : 'Dixon: not an outlier',
           location: q.location,
         }),

@@ -208,23 +208,39 @@ export function frequentFaultExceeded(tf: ThroughFault, criteria: Criteria = cri
   return limit !== null && tf.shotsAboveSegment > limit;
 }
 
-/** Duty indicators (method `duty`: they frame other evidence and never count for corroboration). */
+/** Duty indicators (method `duty`, basis `duty`: they frame other evidence and never count for corroboration). */
 export function dutyIndicators(tf: ThroughFault | null, criteria: Criteria = criteriaV1): Indicator[] {
   if (!tf) return [];
   const c = criteria.throughFault;
   const digits = criteria.rounding.significantDigits;
   const out: Indicator[] = [];
+  const duty = { basis: 'duty' as const };
+  // The beyond-curve level sits on the event's I²t for a high-duty event, on the time against the thermal curve otherwise.
   out.push(
     indicator(
       'duty.eventDutyPercent',
       tf.eventDutyPercent,
-      tf.beyondCurve ? c.beyondCurveLevel : 'ok',
+      tf.beyondCurve && tf.highDuty ? c.beyondCurveLevel : 'ok',
       'duty',
-      `beyond the through-fault curve (${tf.highDuty ? 'mechanical segment: I²t > K' : 'thermal curve: duration > allowed time'}) → ${c.beyondCurveLevel}`,
+      tf.highDuty ? `beyond the mechanical segment (I²t of the event's shots > K) → ${c.beyondCurveLevel}` : 'informative for a thermal-region event (judged on its duration: duty.thermalDurationPercent)',
       c.curveSource,
-      { note: tf.beyondCurve ? 'the fault lasted longer than the curve allows' : undefined },
+      { ...duty, note: tf.beyondCurve && tf.highDuty ? 'the fault lasted longer than the curve allows' : undefined },
     ),
   );
+  if (!tf.highDuty) {
+    const pct = tf.thermalDurationPercent ?? null;
+    out.push(
+      indicator(
+        'duty.thermalDurationPercent',
+        pct,
+        tf.beyondCurve ? c.beyondCurveLevel : 'ok',
+        'duty',
+        `total duration of the shots > the thermal curve's time at the largest shot's current (> 100 %) → ${c.beyondCurveLevel}`,
+        c.curveSource,
+        { ...duty, note: pct === null ? 'no thermal-curve time at this current' : tf.beyondCurve ? 'the fault lasted longer than the curve allows' : undefined },
+      ),
+    );
+  }
   const over = roundSignificant(tf.currentPerUnit, digits) > roundSignificant(tf.maxCurrentPerUnit, digits);
   out.push(
     indicator(
@@ -234,7 +250,7 @@ export function dutyIndicators(tf: ThroughFault | null, criteria: Criteria = cri
       'duty',
       `current above the largest through-fault current (force ratio above 100 %) → ${c.overMaxCurrentLevel}`,
       c.curveSource,
-      { note: over ? 'current above the design maximum: check the impedances' : undefined },
+      { ...duty, note: over ? 'current above the design maximum: check the impedances and the current entered' : undefined },
     ),
   );
   const frequent = frequentFaultExceeded(tf, criteria);
@@ -245,11 +261,13 @@ export function dutyIndicators(tf: ThroughFault | null, criteria: Criteria = cri
       tf.shotsAboveSegment,
       frequent ? c.frequentFaultLevel : 'ok',
       'duty',
-      limit === null ? `category ${tf.category}: no frequent-fault count rule` : `more than ${limit} shots at or above the segment start → ${c.frequentFaultLevel}`,
+      limit === null
+        ? `category ${tf.category}: no frequent-fault count rule`
+        : `more than ${limit} shots at or above the segment start → ${c.frequentFaultLevel} (the segment is applied to every fault of categories II and III: a conservative choice)`,
       c.frequentFaultSource,
-      { note: frequent ? 'frequent-fault duty' : undefined },
+      { ...duty, note: frequent ? 'frequent-fault duty' : undefined },
     ),
   );
-  out.push(indicator('duty.cumulativeDutyPercent', tf.cumulativeDutyPercent, 'ok', 'duty', 'informative: Gapsight tally of I²t against K', c.tallySource));
+  out.push(indicator('duty.cumulativeDutyPercent', tf.cumulativeDutyPercent, 'ok', 'duty', 'informative: Gapsight tally of I²t against K', c.tallySource, duty));
   return out;
 }
