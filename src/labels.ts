@@ -1,6 +1,7 @@
 // Words for the engine's and the API's codes (fault types, sides, protections, statuses, reading-set kinds).
-import type { FaultType, Protection } from '../shared/schemas/case';
-import type { Method, Recommendation } from '../shared/schemas/result';
+import type { CurrentIs, FaultType, Protection } from '../shared/schemas/case';
+import type { Basis, Indicator, Method, Recommendation } from '../shared/schemas/result';
+import type { CurrentBasis } from '../shared/screening/through-fault';
 import type { EventStatus, ReadingSetKind } from './api/units';
 
 export const FAULT_TYPE_LABELS: Record<FaultType, string> = {
@@ -87,3 +88,39 @@ export const METHOD_LABELS: Record<Method, string> = {
   sisters: 'Sister units',
   duty: 'Through-fault duty',
 };
+
+/** What an indicator compares (rules revision 2), in words. `phase-comparison` names its phases from the key. */
+export const BASIS_LABELS: Record<Basis, string> = {
+  change: 'against own baseline',
+  sisters: 'against sister units',
+  'phase-comparison': 'phase comparison',
+  state: 'state (absolute value)',
+  duty: 'duty',
+};
+
+/** An indicator's basis in words: a change against `previous` says so; a phase comparison names its phases. */
+export function basisText(i: Pick<Indicator, 'key' | 'basis' | 'reference'>): string {
+  if (!i.basis) return '—';
+  if (i.basis === 'change' && /previous/i.test(`${i.key} ${i.reference ?? ''}`)) return 'against own previous test';
+  if (i.basis === 'phase-comparison') {
+    const m = /\.([ABC])([ABC])\./.exec(i.key);
+    return m ? `phase ${m[1]} vs ${m[2]}` : BASIS_LABELS['phase-comparison'];
+  }
+  return BASIS_LABELS[i.basis];
+}
+
+/** How the duty's per-unit current was obtained (result `throughFault.currentBasis`). */
+export const CURRENT_BASIS_LABELS: Record<CurrentBasis, string> = {
+  winding: 'entered as winding current',
+  'line-converted': 'converted from the line current by the vector group',
+  'line-assumed': 'line current used as the winding current (factor unknown)',
+};
+
+/** What the shots' currents are (fault field `currentIs`). */
+export const CURRENT_IS_LABELS: Record<CurrentIs, string> = {
+  line: 'Line currents (relay or recorder on the line CTs)',
+  winding: 'Winding currents',
+};
+
+/** Sweep windings and phases (sweep fields `winding`, `phase`). */
+export const WINDING_LABELS: Record<'hv' | 'lv' | 'tv', string> = { hv: 'HV', lv: 'LV', tv: 'TV (tertiary)' };

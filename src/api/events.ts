@@ -1,7 +1,7 @@
 // Fault events and what hangs on them: log a fault, the event file, relay records, sessions, readings CSV imports,
 // sweeps and the case document.
 import type { z } from 'zod';
-import type { FaultType, GapsightCase, Protection, ReadingSet as CaseReadingSet, Shot } from '../../shared/schemas/case';
+import type { CurrentIs, DissolvedGas, FaultType, GapsightCase, Protection, ReadingSet as CaseReadingSet, Shot } from '../../shared/schemas/case';
 import type { eventBodySchema, eventListQuerySchema, sessionBodySchema, sweepUploadFieldsSchema } from '../../shared/schemas/fleet';
 import type { ReadingRow } from '../../shared/imports/readings-csv';
 import type { GapsightResult, Recommendation, ThroughFault } from '../../shared/schemas/result';
@@ -10,11 +10,17 @@ import type { Design } from './designs';
 import type { Site } from './sites';
 import type { EventStatus, ReadingSetWithValues, SweepMeta, Unit } from './units';
 
-/** The body of POST /api/events as the form sends it. */
-export type EventBody = z.input<typeof eventBodySchema>;
-/** The body of POST /api/events/:id/sessions. */
-export type SessionBody = z.input<typeof sessionBodySchema>;
-export type SweepUploadFields = z.input<typeof sweepUploadFieldsSchema>;
+/** The body of POST /api/events as the form sends it (rules revision 2: where the fault was, line or winding currents). */
+export type EventBody = z.input<typeof eventBodySchema> & { location?: 'hv' | 'lv'; currentIs?: CurrentIs };
+/** The pre-fault oil sample sent with a session: its sampling time and gases. */
+export interface PreFaultGasBody {
+  takenAt: string;
+  dissolvedGasPPM: DissolvedGas;
+}
+/** The body of POST /api/events/:id/sessions (rules revision 2 adds the pre-fault oil sample). */
+export type SessionBody = z.input<typeof sessionBodySchema> & { preFaultGas?: PreFaultGasBody };
+/** Multipart fields of a sweep upload (rules revision 2: winding, phase, baseline tap position — sent as text). */
+export type SweepUploadFields = z.input<typeof sweepUploadFieldsSchema> & { winding?: 'hv' | 'lv' | 'tv'; phase?: 'A' | 'B' | 'C'; baselineTapPosition?: string };
 export type EventListQuery = Partial<z.output<typeof eventListQuerySchema>>;
 
 export interface FaultEvent {
@@ -24,6 +30,9 @@ export interface FaultEvent {
   type: FaultType;
   faultedPhases: string | null;
   side: 'hv' | 'lv';
+  /** Rules revision 2 (absent from events logged before it): side the fault was on, and what the shot currents are. */
+  location?: 'hv' | 'lv' | null;
+  currentIs?: CurrentIs | null;
   shots: Shot[];
   transformerTripped: boolean;
   protectionOperated: Protection[];

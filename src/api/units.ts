@@ -1,6 +1,6 @@
 // The fleet — GET /api/units (paged, sorted, filtered on the server) and GET /api/units/:id (the unit file).
 import type { z } from 'zod';
-import type { FaultType, ReadingSet as CaseReadingSet, Shot } from '../../shared/schemas/case';
+import type { CurrentIs, FaultType, ReadingSet as CaseReadingSet, Shot } from '../../shared/schemas/case';
 import type { Protection } from '../../shared/schemas/case';
 import type { UNIT_SORTS, unitListQuerySchema } from '../../shared/schemas/fleet';
 import type { Recommendation, ThroughFault } from '../../shared/schemas/result';
@@ -102,6 +102,9 @@ export interface UnitEventSummary {
   occurredAt: string;
   type: FaultType;
   side: 'hv' | 'lv';
+  /** Rules revision 2 (absent from events logged before it): side the fault was on, and what the shot currents are. */
+  location?: 'hv' | 'lv' | null;
+  currentIs?: CurrentIs | null;
   status: EventStatus;
   transformerTripped: boolean;
   protectionOperated: Protection[];
