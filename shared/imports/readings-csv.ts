@@ -18,11 +18,23 @@ export const READING_QUANTITIES = [
   'excitation-current',
   'winding-resistance',
   'turns-ratio',
+  // Rules revision 2 (api.md "Readings CSV quantities added with rules revision 2").
+  'gas',
+  'bushing-c1',
+  'bushing-c1-dissipation',
+  'bushing-c2',
+  'bushing-c2-dissipation',
+  'excitation-voltage',
+  'winding-temperature',
 ] as const;
 export type ReadingQuantity = (typeof READING_QUANTITIES)[number];
 
+/** The dissolved gases of the case format, as `configuration` of a `gas` row (any letter case in the file). */
+export const DISSOLVED_GASES = ['H2', 'CH4', 'C2H6', 'C2H4', 'C2H2', 'CO', 'CO2'] as const;
+
 export type ReadingRow = {
   quantity: ReadingQuantity;
+  /** Configuration (CH, CHL), gas (H2) or bushing terminal (H1); null for per-phase and whole-set quantities. */
   configuration: string | null;
   phase: string | null;
   value: number;
@@ -31,46 +43,64 @@ export type ReadingRow = {
 
 export type ReadingsCsvResult = { ok: true; rows: ReadingRow[] } | { ok: false; fields: Record<string, string> };
 
+/** One bushing terminal as imported (its C1 may already be in the session). */
+export type ImportedBushing = { c1PF?: number; c1DissipationPercent?: number; c2PF?: number; c2DissipationPercent?: number };
+
 /** Part of a `gapsight-case/1` reading set, as built from imported rows. */
 export type ReadingSetPart = {
   capacitancePF?: Record<string, number>;
   dissipationPercent?: Record<string, number>;
   reactance?: Record<string, { percent: number }>;
   excitationCurrentMA?: Record<string, number>;
+  excitationKV?: number;
   windingResistanceOhm?: Record<string, number>;
+  windingTemperatureC?: number;
   turnsRatio?: Record<string, number>;
+  dissolvedGasPPM?: Record<string, number>;
+  bushings?: Record<string, ImportedBushing>;
 };
 
 type QuantitySpec = {
-  keyedBy: 'configuration' | 'phase';
+  /** What names the reading: a configuration, a phase, a gas, a bushing terminal, or nothing (one value per set). */
+  keyedBy: 'configuration' | 'phase' | 'gas' | 'terminal' | 'set';
   /** Accepted unit spellings (lower case, or Ω as written) → canonical unit and the factor to it. */
   units: Record<string, { unit: string; factor: number }>;
   unitHint: string;
   /** Smallest allowed value and whether it is itself allowed. */
   min: { value: number; inclusive: boolean };
+  /** Largest allowed value (inclusive), when the quantity has one (a temperature in °C). */
+  max?: number;
   setKey: keyof ReadingSetPart;
+  /** The reading of a bushing terminal this quantity is. */
+  bushingKey?: keyof ImportedBushing;
 };
 
 const PF = { unit: 'pF', factor: 1 };
+const NF = { unit: 'pF', factor: 1000 };
+const PERCENT = { unit: '%', factor: 1 };
 const OHM = { unit: 'ohm', factor: 1 };
+const PPM = { unit: 'ppm', factor: 1 };
+const KV = { unit: 'kV', factor: 1 };
+const DEG_C = { unit: 'degC', factor: 1 };
 const POSITIVE = { value: 0, inclusive: false };
+const NON_NEGATIVE = { value: 0, inclusive: true };
 
 const QUANTITIES: Record<ReadingQuantity, QuantitySpec> = {
   capacitance: {
     keyedBy: 'configuration',
-    units: { pf: PF, nf: { unit: 'pF', factor: 1000 } },
+    units: { pf: PF, nf: NF },
     unitHint: 'pF or nF',
     min: POSITIVE,
     setKey: 'capacitancePF',
   },
   dissipation: {
     keyedBy: 'configuration',
-    units: { '%': { unit: '%', factor: 1 } },
+    units: { '%': PERCENT },
     unitHint: '%',
-    min: { value: 0, inclusive: true },
+    min: NON_NEGATIVE,
     setKey: 'dissipationPercent',
   },
-  reactance: { keyedBy: 'phase', units: { '%': { unit: '%', factor: 1 } }, unitHint: '%', min: POSITIVE, setKey: 'reactance' },
+  reactance: { keyedBy: 'phase', units: { '%': PERCENT }, unitHint: '%', min: POSITIVE, setKey: 'reactance' },
   'excitation-current': {
     keyedBy: 'phase',
     units: { ma: { unit: 'mA', factor: 1 } },
@@ -93,10 +123,40 @@ const QUANTITIES: Record<ReadingQuantity, QuantitySpec> = {
     min: POSITIVE,
     setKey: 'turnsRatio',
   },
+  // Dissolved gases in ppm (µL/L, the same thing for gas in oil: IEC 60599 writes µL/L).
+  gas: {
+    keyedBy: 'gas',
+    units: { ppm: PPM, 'µl/l': PPM, 'ul/l': PPM },
+    unitHint: 'ppm',
+    min: NON_NEGATIVE,
+    setKey: 'dissolvedGasPPM',
+  },
+  'bushing-c1': { keyedBy: 'terminal', units: { pf: PF, nf: NF }, unitHint: 'pF or nF', min: POSITIVE, setKey: 'bushings', bushingKey: 'c1PF' },
+  'bushing-c1-dissipation': { keyedBy: 'terminal', units: { '%': PERCENT }, unitHint: '%', min: NON_NEGATIVE, setKey: 'bushings', bushingKey: 'c1DissipationPercent' },
+  'bushing-c2': { keyedBy: 'terminal', units: { pf: PF, nf: NF }, unitHint: 'pF or nF', min: POSITIVE, setKey: 'bushings', bushingKey: 'c2PF' },
+  'bushing-c2-dissipation': { keyedBy: 'terminal', units: { '%': PERCENT }, unitHint: '%', min: NON_NEGATIVE, setKey: 'bushings', bushingKey: 'c2DissipationPercent' },
+  'excitation-voltage': {
+    keyedBy: 'set',
+    units: { kv: KV, v: { unit: 'kV', factor: 0.001 } },
+    unitHint: 'kV or V',
+    min: POSITIVE,
+    setKey: 'excitationKV',
+  },
+  // A measured winding temperature in °C; -60 … 250 °C catches a value written in kelvin or °F.
+  'winding-temperature': {
+    keyedBy: 'set',
+    units: { degc: DEG_C, '°c': DEG_C, '\u2103': DEG_C },
+    unitHint: 'degC',
+    min: { value: -60, inclusive: true },
+    max: 250,
+    setKey: 'windingTemperatureC',
+  },
 };
 
 const PHASES = ['A', 'B', 'C'];
 const CONFIGURATION = /^[A-Za-z]{1,16}$/;
+/** A bushing terminal label: letters and digits (`H1`, `X0`, `1U`), '.', '-' or '_' inside, at most 20 characters. */
+const TERMINAL = /^[A-Za-z0-9](?:[A-Za-z0-9._-]{0,18}[A-Za-z0-9])?$/;
 /** Above this many bad rows the rest are counted, not listed, so a wrong file cannot produce a huge answer. */
 const MAX_LISTED_BAD_ROWS = 1000;
 
@@ -234,16 +294,37 @@ function checkReading(cells: string[], index: Record<ReadingsColumn, number>): R
   let phase: string | null = null;
   const configurationText = cell('configuration');
   const phaseText = cell('phase');
-  if (spec.keyedBy === 'configuration') {
-    if (configurationText === '') errors.configuration = `required for ${quantity} (e.g. CH, CL, CHL)`;
-    else if (!CONFIGURATION.test(configurationText)) errors.configuration = 'a configuration is a label of letters (e.g. CH, CHL)';
-    else configuration = configurationText.toUpperCase();
-    if (phaseText !== '') errors.phase = `leave empty for ${quantity}: it is given per configuration`;
-  } else {
-    if (phaseText === '') errors.phase = `required for ${quantity}: A, B or C`;
-    else if (!PHASES.includes(phaseText.toUpperCase())) errors.phase = `must be A, B or C (found '${phaseText}')`;
-    else phase = phaseText.toUpperCase();
-    if (configurationText !== '') errors.configuration = `leave empty for ${quantity}: it is given per phase`;
+  switch (spec.keyedBy) {
+    case 'configuration':
+      if (configurationText === '') errors.configuration = `required for ${quantity} (e.g. CH, CL, CHL)`;
+      else if (!CONFIGURATION.test(configurationText)) errors.configuration = 'a configuration is a label of letters (e.g. CH, CHL)';
+      else configuration = configurationText.toUpperCase();
+      if (phaseText !== '') errors.phase = `leave empty for ${quantity}: it is given per configuration`;
+      break;
+    case 'gas': {
+      const gas = DISSOLVED_GASES.find((g) => g === configurationText.toUpperCase());
+      if (configurationText === '') errors.configuration = `required for gas: one of ${DISSOLVED_GASES.join(', ')}`;
+      else if (gas === undefined) errors.configuration = `unknown gas '${configurationText}': use one of ${DISSOLVED_GASES.join(', ')}`;
+      else configuration = gas;
+      if (phaseText !== '') errors.phase = 'leave empty for gas: the gas goes in configuration';
+      break;
+    }
+    case 'terminal':
+      if (configurationText === '') errors.configuration = `required for ${quantity}: the bushing terminal (e.g. H1, X1, 1U)`;
+      else if (!TERMINAL.test(configurationText)) errors.configuration = 'a bushing terminal is a label of letters and digits (e.g. H1, 1U), at most 20 characters';
+      else configuration = configurationText.toUpperCase();
+      if (phaseText !== '') errors.phase = `leave empty for ${quantity}: the bushing terminal goes in configuration`;
+      break;
+    case 'phase':
+      if (phaseText === '') errors.phase = `required for ${quantity}: A, B or C`;
+      else if (!PHASES.includes(phaseText.toUpperCase())) errors.phase = `must be A, B or C (found '${phaseText}')`;
+      else phase = phaseText.toUpperCase();
+      if (configurationText !== '') errors.configuration = `leave empty for ${quantity}: it is given per phase`;
+      break;
+    case 'set':
+      if (configurationText !== '') errors.configuration = `leave empty for ${quantity}: it is one value for the whole set`;
+      if (phaseText !== '') errors.phase = `leave empty for ${quantity}: it is one value for the whole set`;
+      break;
   }
 
   const unitText = cell('unit');
@@ -256,10 +337,12 @@ function checkReading(cells: string[], index: Record<ReadingsColumn, number>): R
     const { value: min, inclusive } = spec.min;
     if (inclusive ? number.value < min : number.value <= min) {
       errors.value = inclusive ? `must be ${min} or more` : `must be greater than ${min}`;
+    } else if (spec.max !== undefined && number.value > spec.max) {
+      errors.value = `must be ${spec.max} or less (${spec.unitHint}: check the unit)`;
     }
   }
   if (Object.keys(errors).length > 0 || !('value' in number) || unit === undefined) return { errors };
-  // nF → pF: ×1000, rounded to 12 significant digits so 3.131 nF gives 3131 pF, not 3131.0000000000005.
+  // nF → pF: ×1000 (V → kV: ×0.001), rounded to 12 significant digits so 3.131 nF gives 3131 pF, not 3131.0000000000005.
   const value = unit.factor === 1 ? number.value : Number((number.value * unit.factor).toPrecision(12));
   return { row: { quantity, configuration, phase, value, unit: unit.unit }, errors };
 }
@@ -270,8 +353,16 @@ function splitByDecimalComma(cells: string[], columns: number, valueIndex: numbe
   return isDecimalCommaNumber(`${cells[valueIndex]},${cells[valueIndex + 1]}`);
 }
 
+export interface ReadingsCsvOptions {
+  /**
+   * Bushing terminals whose C1 capacitance is already known (the session's): a file may then give only their other
+   * readings. Any other terminal needs its `bushing-c1` row in the file (the case format requires C1 with a bushing).
+   */
+  knownBushingTerminals?: Iterable<string>;
+}
+
 /** Parse a readings CSV: every reading checked, every bad row listed as "row N.field" (N = file line, header = 1). */
-export function parseReadingsCsv(text: string): ReadingsCsvResult {
+export function parseReadingsCsv(text: string, options: ReadingsCsvOptions = {}): ReadingsCsvResult {
   const normalised = normaliseCsvText(text);
   if (normalised.trim() === '') return { ok: false, fields: { file: 'the file is empty: expected a header quantity,configuration,phase,value,unit and one reading a row' } };
 
@@ -290,6 +381,7 @@ export function parseReadingsCsv(text: string): ReadingsCsvResult {
 
   const columns = headerRecord.cells.length;
   const rows: ReadingRow[] = [];
+  const rowLines = new Map<ReadingRow, number>();
   const firstSeen = new Map<string, number>();
   let badRows = 0;
   const addRowErrors = (line: number, errors: Record<string, string>) => {
@@ -319,26 +411,41 @@ export function parseReadingsCsv(text: string): ReadingsCsvResult {
     const key = `${row.quantity}|${label}`;
     const earlier = firstSeen.get(key);
     if (earlier !== undefined) {
-      const field = row.configuration !== null ? 'configuration' : 'phase';
-      addRowErrors(line, { [field]: `${row.quantity} ${label} is already given in row ${earlier}` });
+      const field = row.configuration !== null ? 'configuration' : row.phase !== null ? 'phase' : 'quantity';
+      addRowErrors(line, { [field]: `${row.quantity}${label ? ` ${label}` : ''} is already given in row ${earlier}` });
       continue;
     }
     firstSeen.set(key, line);
     rows.push(row);
+    rowLines.set(row, line);
+  }
+  // A bushing's other readings need its C1 (in this file or already in the session).
+  const known = new Set([...(options.knownBushingTerminals ?? [])].map((t) => t.toUpperCase()));
+  const reported = new Set<string>();
+  for (const row of rows) {
+    const terminal = row.configuration ?? '';
+    if (QUANTITIES[row.quantity].keyedBy !== 'terminal' || row.quantity === 'bushing-c1' || known.has(terminal) || reported.has(terminal)) continue;
+    if (firstSeen.has(`bushing-c1|${terminal}`)) continue;
+    reported.add(terminal);
+    addRowErrors(rowLines.get(row)!, { configuration: `bushing ${terminal} has no bushing-c1 row: give its C1 capacitance too` });
   }
   if (badRows > MAX_LISTED_BAD_ROWS) fields.more = `${badRows - MAX_LISTED_BAD_ROWS} more bad rows not listed`;
   if (Object.keys(fields).length > 0) return { ok: false, fields };
   return { ok: true, rows };
 }
 
-/** Checked rows → the matching part of a case-format reading set (reactance as `{ percent }`). */
+/** Checked rows → the matching part of a case-format reading set (reactance as `{ percent }`, bushings by terminal). */
 export function readingRowsToSet(rows: readonly ReadingRow[]): ReadingSetPart {
   const set: ReadingSetPart = {};
   for (const row of rows) {
     const spec = QUANTITIES[row.quantity];
-    const label = (spec.keyedBy === 'configuration' ? row.configuration : row.phase) ?? '';
+    const label = (spec.keyedBy === 'phase' ? row.phase : row.configuration) ?? '';
     if (spec.setKey === 'reactance') {
       set.reactance = { ...set.reactance, [label]: { percent: row.value } };
+    } else if (spec.setKey === 'bushings') {
+      set.bushings = { ...set.bushings, [label]: { ...set.bushings?.[label], [spec.bushingKey!]: row.value } };
+    } else if (spec.setKey === 'excitationKV' || spec.setKey === 'windingTemperatureC') {
+      set[spec.setKey] = row.value;
     } else {
       set[spec.setKey] = { ...set[spec.setKey], [label]: row.value };
     }

@@ -1,5 +1,20 @@
 import { z } from 'zod';
-import { conductorSchema, faultSideSchema, faultTypeSchema, protectionSchema, readingSetSchema, shotSchema, sweepTestTypeSchema, windingsSchema } from './case.js';
+import {
+  bushingSchema,
+  capacitanceModeSchema,
+  conductorSchema,
+  currentIsSchema,
+  faultSideSchema,
+  faultTypeSchema,
+  protectionSchema,
+  reactancePhaseSchema,
+  readingSetSchema,
+  shotSchema,
+  sweepPhaseSchema,
+  sweepTestTypeSchema,
+  sweepWindingSchema,
+  windingsSchema,
+} from './case.js';
 
 // Request bodies of the fleet, reading and event routes (api.md), shared by server validation and client forms.
 
@@ -85,18 +100,73 @@ const sessionConditions = {
   instrumentSerial: z.string().max(60).optional(),
   testKV: finite.positive().optional(),
   testFrequencyHz: finite.positive().optional(),
+  /** The older spelling of the case format's `hoursDeEnergised` (still accepted; give one of the two). */
   hoursDeenergised: finite.nonnegative().optional(),
   notes: z.string().max(5000).optional(),
 };
 
-export const readingSetBodySchema = readingSetSchema.extend({
-  ...sessionConditions,
-  kind: z.enum(['factory', 'commissioning', 'routine']),
-  isReference: z.boolean().optional(),
-});
+/**
+ * A keyed section of a reading-set body: labels fit the reading rows' columns (a configuration, gas or bushing terminal
+ * 20 characters, a phase 8), so a long label is a 400 naming it, not a database error.
+ */
+function keyed<T extends z.ZodType>(values: T, maxKey: number, what: string) {
+  return z.record(z.string().min(1).max(maxKey), values, {
+    error: (issue) => (issue.code === 'invalid_key' ? `a ${what} label of 1 to ${maxKey} characters` : undefined),
+  });
+}
+const positiveValue = finite.positive();
+const nonNegativeValue = finite.nonnegative();
+
+/** The case format's reading-set sections as the API takes them (same shapes, labels bounded, values checked). */
+const readingSections = {
+  capacitancePF: keyed(positiveValue, 20, 'configuration').optional(),
+  capacitanceModes: keyed(capacitanceModeSchema, 20, 'configuration').optional(),
+  dissipationPercent: keyed(nonNegativeValue, 20, 'configuration').optional(),
+  reactance: keyed(reactancePhaseSchema, 8, 'phase').optional(),
+  excitationCurrentMA: keyed(positiveValue, 8, 'phase').optional(),
+  excitationKV: positiveValue.optional(),
+  windingResistanceOhm: keyed(positiveValue, 8, 'phase').optional(),
+  resistanceTemperatureC: finite.min(-60).max(250).optional(),
+  turnsRatio: keyed(positiveValue, 8, 'phase').optional(),
+  /** Gases in ppm: H2, CH4, C2H6, C2H4, C2H2, CO, CO2 (others, such as O2 and N2, are kept too). */
+  dissolvedGasPPM: keyed(nonNegativeValue, 20, 'gas').optional(),
+  dissipationByFrequency: keyed(z.array(z.tuple([positiveValue, nonNegativeValue])), 20, 'configuration').optional(),
+  bushings: keyed(bushingSchema, 20, 'bushing terminal').optional(),
+  demagnetised: z.boolean().optional(),
+  hoursDeEnergised: nonNegativeValue.optional(),
+  windingTemperatureC: finite.min(-60, 'must be -60 or more (°C)').max(250, 'must be 250 or less (°C: check the unit)').optional(),
+};
+
+/** Both spellings of the hours de-energised may be given only when they agree. */
+function sameHours(body: { hoursDeEnergised?: number; hoursDeenergised?: number }, ctx: z.RefinementCtx) {
+  if (body.hoursDeEnergised !== undefined && body.hoursDeenergised !== undefined && body.hoursDeEnergised !== body.hoursDeenergised) {
+    ctx.addIssue({ code: 'custom', path: ['hoursDeEnergised'], message: `differs from hoursDeenergised (${body.hoursDeenergised}): give one of the two` });
+  }
+}
+
+export const readingSetBodySchema = readingSetSchema
+  .extend({
+    ...readingSections,
+    ...sessionConditions,
+    kind: z.enum(['factory', 'commissioning', 'routine']),
+    isReference: z.boolean().optional(),
+  })
+  .superRefine(sameHours);
 export type ReadingSetBody = z.infer<typeof readingSetBodySchema>;
 
-export const sessionBodySchema = readingSetSchema.extend(sessionConditions);
+/**
+ * The unit's pre-fault dissolved-gas sample, entered with a post-fault session: stored as a routine reading set of the
+ * unit dated at its sampling time (before the fault), so that the case's `previous` carries it.
+ */
+export const preFaultGasSchema = z.object({
+  takenAt: isoDateTime,
+  dissolvedGasPPM: keyed(nonNegativeValue, 20, 'gas').refine((g) => Object.keys(g).length > 0, { message: 'at least one gas (H2, CH4, C2H6, C2H4, C2H2, CO, CO2) in ppm' }),
+});
+export type PreFaultGas = z.infer<typeof preFaultGasSchema>;
+
+export const sessionBodySchema = readingSetSchema
+  .extend({ ...readingSections, ...sessionConditions, preFaultGas: preFaultGasSchema.optional() })
+  .superRefine(sameHours);
 export type SessionBody = z.infer<typeof sessionBodySchema>;
 
 export const eventBodySchema = z.object({
@@ -104,6 +174,10 @@ export const eventBodySchema = z.object({
   occurredAt: isoDateTime,
   type: faultTypeSchema,
   side: faultSideSchema,
+  /** Side the fault was on (rules revision 2; default: `side`, where the current was measured). */
+  location: faultSideSchema.optional(),
+  /** What the shots' currents are (rules revision 2): `line` (default) or `winding`. */
+  currentIs: currentIsSchema.optional(),
   faultedPhases: z.string().trim().regex(/^[ABCN]{1,4}$/, 'phases like A, BC or ABC').optional(),
   shots: z.array(shotSchema.pick({ currentKA: true, durationS: true }).extend({ currentKA: finite.positive().max(500, 'above 500 kA: check the unit'), durationS: finite.positive().max(60, 'above 60 s: check the unit') })).min(1, 'at least one shot'),
   transformerTripped: z.boolean().default(true),
@@ -125,7 +199,15 @@ export const sweepUploadFieldsSchema = z.object({
   label: z.string().trim().min(1, 'required').max(60),
   testType: sweepTestTypeSchema,
   terminals: z.string().trim().max(60).optional(),
-  tapPosition: z.string().trim().max(20).optional(),
-  demagnetised: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
+  tapPosition: z.string().trim().max(20, 'at most 20 characters').optional(),
+  demagnetised: z.enum(['true', 'false'], { message: 'true or false' }).transform((v) => v === 'true').optional(),
+  /** Rules revision 2: the winding (`hv`, `lv`, `tv`; none counts as HV) and the phase (`A`, `B`, `C`) of the trace. */
+  winding: z.enum(sweepWindingSchema.options, { message: 'hv, lv or tv' }).optional(),
+  phase: z.enum(sweepPhaseSchema.options, { message: 'A, B or C' }).optional(),
+  /** Tap of the baseline trace this post-fault trace is compared with (default: the baseline trace's own tap). */
+  baselineTapPosition: z.string().trim().max(20, 'at most 20 characters').optional(),
 });
-export const unitSweepUploadFieldsSchema = sweepUploadFieldsSchema.extend({ readingSetId: z.coerce.number().int().positive('not a valid id') });
+export const unitSweepUploadFieldsSchema = sweepUploadFieldsSchema.extend({
+  readingSetId: z.coerce.number().int().positive('not a valid id'),
+  baselineTapPosition: z.undefined({ message: 'only for post-fault traces: the tap of a baseline trace is its tapPosition' }).optional(),
+});

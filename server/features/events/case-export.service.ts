@@ -1,6 +1,6 @@
 import { In, LessThan, Not, type EntityManager } from 'typeorm';
 import { mergeReadingSets } from '../../../shared/readings/merge.js';
-import type { GapsightCase, ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
+import type { Fault, GapsightCase, PriorFault, ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
 import { notFound } from '../../common/app-error.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
 import { loadCaseReadingSets } from '../readings/readings.service.js';
@@ -26,14 +26,43 @@ export function caseUnit(unit: Unit): GapsightCase['unit'] {
   };
 }
 
+/** A logged event as the case format's fault (or prior fault): location and current basis only when recorded. */
+export function caseFault(e: FaultEvent): Fault {
+  return {
+    occurredAt: e.occurredAt.toISOString(),
+    type: e.type,
+    side: e.side,
+    ...(e.location !== null ? { location: e.location } : {}),
+    ...(e.currentIs !== null ? { currentIs: e.currentIs } : {}),
+    transformerTripped: e.transformerTripped,
+    protectionOperated: e.protectionOperated as Fault['protectionOperated'],
+    shots: e.shots,
+  };
+}
+
+/** An earlier event of the unit as a prior fault (its own side, location and current basis). */
+export function casePriorFault(p: FaultEvent): PriorFault {
+  return {
+    occurredAt: p.occurredAt.toISOString(),
+    type: p.type,
+    side: p.side,
+    ...(p.location !== null ? { location: p.location } : {}),
+    ...(p.currentIs !== null ? { currentIs: p.currentIs } : {}),
+    shots: p.shots,
+  };
+}
+
 const isReferenceSet = (s: ReadingSet) => s.kind === 'factory' || s.kind === 'commissioning' || (s.isReference && s.kind !== 'post-fault');
 
 function mergeOf(sets: ReadingSet[], values: Map<number, CaseReadingSet>): CaseReadingSet | undefined {
   return mergeReadingSets(sets.map((s) => values.get(s.id)!).filter(Boolean));
 }
 
+/** Conditions alone (no measured value) do not make a reading set. */
+const CONDITION_ONLY = ['takenAt', 'temperatureC', 'tapPosition', 'demagnetised', 'hoursDeEnergised', 'windingTemperatureC'];
+
 function isEmptySet(s: CaseReadingSet | undefined): boolean {
-  return !s || Object.keys(s).every((k) => ['takenAt', 'temperatureC', 'tapPosition'].includes(k));
+  return !s || Object.keys(s).every((k) => CONDITION_ONLY.includes(k));
 }
 
 /**
@@ -80,15 +109,8 @@ export async function buildEventCase(m: EntityManager, eventId: number): Promise
   const c: GapsightCase = {
     format: 'gapsight-case/1',
     unit: caseUnit(unit),
-    fault: {
-      occurredAt: event.occurredAt.toISOString(),
-      type: event.type,
-      side: event.side,
-      transformerTripped: event.transformerTripped,
-      protectionOperated: event.protectionOperated as NonNullable<GapsightCase['fault']>['protectionOperated'],
-      shots: event.shots,
-    },
-    priorFaults: priorEvents.map((p) => ({ occurredAt: p.occurredAt.toISOString(), type: p.type, side: p.side, shots: p.shots })),
+    fault: caseFault(event),
+    priorFaults: priorEvents.map(casePriorFault),
     ...(baseline && !isEmptySet(baseline) ? { baseline } : {}),
     ...(previous && !isEmptySet(previous) ? { previous } : {}),
     ...(postFault && !isEmptySet(postFault) ? { postFault } : {}),
@@ -115,10 +137,18 @@ async function eventSweeps(m: EntityManager, sessions: ReadingSet[], referenceSe
   return labels.map((label) => {
     const p = post.find((t) => t.label === label)!;
     const b = refs.find((t) => t.label === label) ?? routine.find((t) => t.label === label);
+    // Winding and phase: the post-fault trace's, else its baseline trace's. The baseline tap: as recorded with the
+    // post-fault trace, else the baseline trace's own tap.
+    const winding = p.winding ?? b?.winding ?? null;
+    const phase = p.phase ?? b?.phase ?? null;
+    const baselineTap = p.baselineTapPosition ?? b?.tapPosition ?? null;
     return {
       label,
       testType: p.testType,
+      ...(winding !== null ? { winding } : {}),
+      ...(phase !== null ? { phase } : {}),
       ...(p.tapPosition !== null ? { tapPosition: p.tapPosition } : {}),
+      ...(b && baselineTap !== null ? { baselineTapPosition: baselineTap } : {}),
       ...(p.demagnetised !== null ? { demagnetised: p.demagnetised } : {}),
       ...(b ? { baseline: b.points as [number, number][] } : {}),
       postFault: p.points as [number, number][],

@@ -18,7 +18,7 @@ import { Screening } from '../screenings/screening.entity.js';
 import { Unit } from '../units/unit.entity.js';
 import { readingSetConditions, unitView } from '../units/units.service.js';
 import { User } from '../users/user.entity.js';
-import { caseUnit } from './case-export.service.js';
+import { caseFault, casePriorFault, caseUnit } from './case-export.service.js';
 import { FaultEvent } from './fault-event.entity.js';
 
 export function eventView(e: FaultEvent) {
@@ -29,6 +29,8 @@ export function eventView(e: FaultEvent) {
     type: e.type,
     faultedPhases: e.faultedPhases,
     side: e.side,
+    location: e.location,
+    currentIs: e.currentIs,
     shots: e.shots,
     transformerTripped: e.transformerTripped,
     protectionOperated: e.protectionOperated,
@@ -42,11 +44,7 @@ export function eventView(e: FaultEvent) {
 /** The event's through-fault duty (with the unit's earlier faults counted), as the engine computes it. */
 export async function eventThroughFault(db: DataSource, e: FaultEvent, unit: Unit) {
   const prior = await db.getRepository(FaultEvent).find({ where: { unitId: e.unitId, occurredAt: LessThan(e.occurredAt), id: Not(e.id) } });
-  return computeThroughFault(
-    caseUnit(unit),
-    { occurredAt: e.occurredAt.toISOString(), type: e.type, side: e.side, transformerTripped: e.transformerTripped, shots: e.shots },
-    prior.map((p) => ({ occurredAt: p.occurredAt.toISOString(), type: p.type, side: p.side, shots: p.shots })),
-  );
+  return computeThroughFault(caseUnit(unit), caseFault(e), prior.map(casePriorFault));
 }
 
 /** The event-list query of one page (exported so a test can EXPLAIN it): the event table alone, through its indexes. */

@@ -29,6 +29,8 @@ export interface NewReadingSet {
   /** The values, in the case format's reading-set shape (plus the conditions above). */
   body: CaseReadingSet & SessionConditions;
   userId: number | null;
+  /** A note for the audit entry (why the set was stored). */
+  auditNote?: string;
 }
 
 const CONDITION_KEYS = ['topOilC', 'bottomOilC', 'ambientC', 'humidityPercent', 'instrument', 'instrumentSerial', 'testKV', 'testFrequencyHz', 'hoursDeenergised', 'notes', 'isReference', 'kind'];
@@ -64,7 +66,9 @@ export async function insertReadingSet(m: EntityManager, input: NewReadingSet): 
       instrumentSerial: b.instrumentSerial ?? null,
       testKV: b.testKV ?? null,
       testFrequencyHz: b.testFrequencyHz ?? null,
-      hoursDeenergised: b.hoursDeenergised ?? null,
+      hoursDeenergised: b.hoursDeEnergised ?? b.hoursDeenergised ?? null,
+      demagnetised: b.demagnetised ?? null,
+      windingTemperatureC: b.windingTemperatureC ?? null,
       notes: b.notes ?? null,
       extra: Object.keys(extra).length ? extra : null,
       createdById: input.userId,
@@ -78,6 +82,7 @@ export async function insertReadingSet(m: EntityManager, input: NewReadingSet): 
     entity: 'reading_set',
     entityId: set.id,
     after: { unitId: set.unitId, kind: set.kind, eventId: set.eventId, takenAt: set.takenAt.toISOString(), readings: rows.length },
+    ...(input.auditNote ? { note: input.auditNote } : {}),
   });
   return set;
 }
@@ -88,7 +93,10 @@ export function caseDate(d: Date): string {
   return iso.endsWith('T00:00:00.000Z') ? iso.slice(0, 10) : iso.replace('.000Z', 'Z');
 }
 
-/** Loads reading sets as case-format reading sets (values + takenAt, temperatureC, tapPosition), keyed by id. */
+/**
+ * Loads reading sets as case-format reading sets (values + takenAt, temperatureC, tapPosition and the revision-2 doubts
+ * `demagnetised`, `hoursDeEnergised`, `windingTemperatureC`), keyed by id.
+ */
 export async function loadCaseReadingSets(m: EntityManager, sets: ReadingSet[]): Promise<Map<number, CaseReadingSet>> {
   const out = new Map<number, CaseReadingSet>();
   if (!sets.length) return out;
@@ -101,6 +109,9 @@ export async function loadCaseReadingSets(m: EntityManager, sets: ReadingSet[]):
       takenAt: caseDate(s.takenAt),
       ...(s.temperatureC !== null ? { temperatureC: s.temperatureC } : {}),
       ...(s.tapPosition !== null ? { tapPosition: s.tapPosition } : {}),
+      ...(s.demagnetised !== null ? { demagnetised: s.demagnetised } : {}),
+      ...(s.hoursDeenergised !== null ? { hoursDeEnergised: s.hoursDeenergised } : {}),
+      ...(s.windingTemperatureC !== null ? { windingTemperatureC: s.windingTemperatureC } : {}),
       ...values,
     });
   }

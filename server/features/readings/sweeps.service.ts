@@ -13,6 +13,10 @@ export interface SweepFields {
   terminals?: string;
   tapPosition?: string;
   demagnetised?: boolean;
+  winding?: 'hv' | 'lv' | 'tv';
+  phase?: 'A' | 'B' | 'C';
+  /** Post-fault traces only: the tap of the baseline trace compared with (default: that trace's own tap). */
+  baselineTapPosition?: string;
 }
 
 /** Checks an uploaded sweep file (extension, text content) and parses its points; 415 / 400 naming the problem. */
@@ -40,9 +44,12 @@ export async function insertSweepTrace(
       readingSetId,
       label: fields.label,
       testType: fields.testType,
-      terminals: fields.terminals ?? null,
-      tapPosition: fields.tapPosition ?? null,
+      terminals: fields.terminals || null,
+      tapPosition: fields.tapPosition || null,
       demagnetised: fields.demagnetised ?? null,
+      winding: fields.winding ?? null,
+      phase: fields.phase ?? null,
+      baselineTapPosition: fields.baselineTapPosition || null,
       points: parsed.points,
       pointCount: parsed.points.length,
       minHz: parsed.minHz,
@@ -52,7 +59,7 @@ export async function insertSweepTrace(
       createdById: userId,
     }),
   );
-  await audit(m, { userId, action: 'create', entity: 'sweep_trace', entityId: trace.id, after: { readingSetId, label: trace.label, testType: trace.testType, pointCount: trace.pointCount, sha256: trace.sha256, fileName } });
+  await audit(m, { userId, action: 'create', entity: 'sweep_trace', entityId: trace.id, after: { readingSetId, label: trace.label, testType: trace.testType, winding: trace.winding, phase: trace.phase, tapPosition: trace.tapPosition, baselineTapPosition: trace.baselineTapPosition, demagnetised: trace.demagnetised, pointCount: trace.pointCount, sha256: trace.sha256, fileName } });
   return trace;
 }
 
@@ -64,7 +71,10 @@ export function sweepMeta(t: SweepTrace) {
     label: t.label,
     testType: t.testType,
     terminals: t.terminals,
+    winding: t.winding,
+    phase: t.phase,
     tapPosition: t.tapPosition,
+    baselineTapPosition: t.baselineTapPosition,
     demagnetised: t.demagnetised,
     pointCount: t.pointCount,
     minHz: t.minHz,

@@ -6,7 +6,7 @@ import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import { Design } from '../designs/design.entity.js';
 import { designView } from '../designs/designs.service.js';
-import { caseUnit } from '../events/case-export.service.js';
+import { caseFault, caseUnit } from '../events/case-export.service.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
 import { insertReadingSet, loadCaseReadingSets } from '../readings/readings.service.js';
@@ -111,11 +111,13 @@ export async function getUnit(db: DataSource, id: number) {
       occurredAt: e.occurredAt.toISOString(),
       type: e.type,
       side: e.side,
+      location: e.location,
+      currentIs: e.currentIs,
       status: e.status,
       transformerTripped: e.transformerTripped,
       protectionOperated: e.protectionOperated,
       shots: e.shots,
-      throughFault: computeThroughFault(unitForDuty, { occurredAt: e.occurredAt.toISOString(), type: e.type, side: e.side, shots: e.shots }),
+      throughFault: computeThroughFault(unitForDuty, caseFault(e)),
     })),
   };
 }
@@ -140,6 +142,8 @@ export function readingSetConditions(s: ReadingSet) {
     testKV: s.testKV,
     testFrequencyHz: s.testFrequencyHz,
     hoursDeenergised: s.hoursDeenergised,
+    demagnetised: s.demagnetised,
+    windingTemperatureC: s.windingTemperatureC,
     notes: s.notes,
     createdById: s.createdById,
     createdAt: s.createdAt.toISOString(),

@@ -5,7 +5,7 @@ import { FaultEvent } from '../../../server/features/events/fault-event.entity.j
 import { Reading } from '../../../server/features/readings/reading.entity.js';
 import { Unit } from '../../../server/features/units/unit.entity.js';
 import { parseCase } from '../../../shared/schemas/case.js';
-import { screenCase } from '../../../shared/screening/index.js';
+import { criteriaV2, screenCase } from '../../../shared/screening/index.js';
 import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
 import { makeUnit } from '../../helpers/factories.js';
 
@@ -215,7 +215,8 @@ describe('POST /api/screenings/preview', () => {
     expect(ok.status).toBe(200);
     const parsed = parseCase(c);
     if (!parsed.ok) throw new Error('the test case should be valid');
-    expect(ok.body).toEqual(JSON.parse(JSON.stringify(screenCase(parsed.value))));
+    // The preview screens with the newest published criteria set: version 2 (rules revision 2).
+    expect(ok.body).toEqual(JSON.parse(JSON.stringify(screenCase(parsed.value, criteriaV2))));
     const bad = await api().post('/api/screenings/preview').set(tester).send({ ...c, unit: { ...c.unit, ratedKVA: -1 } });
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.body.error.fields)).toContain('unit.ratedKVA');

@@ -69,7 +69,8 @@ describe('POST /api/events/:id/screenings', () => {
     const { unit, eventId } = await screenedReadyEvent(unchanged);
     const res = await api().post(`/api/events/${eventId}/screenings`).set(tester).send({});
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ criteriaVersion: 1, comparison: false });
+    // A normal run takes the newest published criteria set: version 2 (rules revision 2, published by a migration).
+    expect(res.body).toMatchObject({ criteriaVersion: 2, comparison: false });
     expect(res.body.result.format).toBe('gapsight-result/1');
     expect(res.body.result.recommendation).toBe('go');
     expect((await env.db.getRepository(FaultEvent).findOneByOrFail({ id: eventId })).status).toBe('screened');

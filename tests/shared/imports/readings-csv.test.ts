@@ -140,7 +140,7 @@ describe('parseReadingsCsv — bad rows', () => {
 
   it('rejects an unknown or missing quantity', () => {
     expect(fieldsOf(csv('inductance,,A,1,mH'))['row 2.quantity']).toBe(
-      "unknown quantity 'inductance': use one of capacitance, dissipation, reactance, excitation-current, winding-resistance, turns-ratio",
+      "unknown quantity 'inductance': use one of capacitance, dissipation, reactance, excitation-current, winding-resistance, turns-ratio, gas, bushing-c1, bushing-c1-dissipation, bushing-c2, bushing-c2-dissipation, excitation-voltage, winding-temperature",
     );
     expect(fieldsOf(csv(',CH,,3131,pF'))['row 2.quantity']).toMatch(/^required/);
   });
