@@ -4,7 +4,7 @@ import type { GapsightResult, Indicator } from '../schemas/result.js';
 import { capacitanceIndicators, capacitancePatternHints } from './capacitance.js';
 import { criteriaV2, ENGINE_REVISION, type Criteria } from './criteria.js';
 import { bushingIndicators, noteBushingsOnCH } from './bushing.js';
-import { capLevel } from './levels.js';
+import { addNote, capLevel } from './levels.js';
 import { dfFrequencyIndicators } from './df-frequency.js';
 import { excitationIndicators } from './excitation.js';
 import { gasIndicators } from './gas.js';
@@ -62,6 +62,14 @@ export function screenCase(c: GapsightCase, criteria: Criteria = criteriaV2): Ga
   for (const i of indicators) if (i.basis === 'state') i.level = capLevel(i.level, stateCap);
   const bushingNote = noteBushingsOnCH(c, indicators, criteria);
   const unreliable = [...cap.unreliable, ...reactance.unreliable, ...excitation.unreliable, ...resistance.unreliable, ...ratio.unreliable, ...sweeps.unreliable];
+  // A sister statistic of an unreliable reading says nothing about the unit.
+  for (const i of indicators) {
+    const m = /^sisters\.((?:capacitance|reactance)\.[^.]+)\./.exec(i.key);
+    if (m && unreliable.includes(m[1]) && i.level !== 'ok') {
+      i.level = 'ok';
+      addNote(i, 'reading unreliable: not judged');
+    }
+  }
   const hints = [...capacitancePatternHints(indicators), ...(bushingNote ? [bushingNote] : [])];
   const verdict = decideVerdict(c, indicators, throughFault, unreliable, criteria, hints);
   return {

@@ -46,6 +46,7 @@ export function highDutyCompleteCase(): GapsightCase {
     d.postFault!.dissolvedGasPPM = { H2: 12, CH4: 5, C2H6: 3, C2H4: 2, C2H2: 0 };
     d.postFault!.excitationCurrentMA = { A: 40, B: 28, C: 40 };
     d.postFault!.windingResistanceOhm = { A: 0.4, B: 0.4, C: 0.4 };
-    d.sweeps = [{ label: 'HV-A-short', testType: 'short-circuit', baseline: trace, postFault: trace }];
+    // Revision 2: an open-circuit trace of the HV winding for each phase, each with its baseline trace.
+    d.sweeps = (['A', 'B', 'C'] as const).map((phase) => ({ label: `HV-${phase}-open`, testType: 'open-circuit' as const, winding: 'hv' as const, phase, baseline: trace, postFault: trace }));
   });
 }

@@ -3,13 +3,16 @@ import { describe, expect, it } from 'vitest';
 import { criteriaV1, dixonCritical, dixonQ, grubbsCritical, grubbsMaxStatistic, modifiedZScore, sisterIndicators } from '../../shared/screening/index.js';
 import { cleanCase, edit } from './case-builder.js';
 
-// NIST/SEMATECH e-Handbook 1.3.5.17 style sample (references.md)
+// A computed sample of references.md (its values were worked out from the published formulas; it is not a sample the
+// NIST/SEMATECH e-Handbook prints).
 const SAMPLE = [8.02, 8.05, 7.98, 8.01, 8.04, 8.6];
+// The published Grubbs example: NIST/SEMATECH e-Handbook 1.3.5.17.1 (Tietjen–Moore data), as quoted in references.md.
+const NIST_GRUBBS = [199.31, 199.53, 200.19, 200.82, 201.92, 201.95, 202.18, 245.57];
 
 describe('modified z-score (Iglewicz & Hoaglin 1993)', () => {
-  it('gives median 8.03, MAD 0.02 and M(8.60) = 19.22 for the NIST e-Handbook 1.3.5.17 sample', () => {
+  it('gives median 8.03, MAD 0.02 and M(8.60) = 19.22 for the computed sample of references.md', () => {
     const m = modifiedZScore(8.6, SAMPLE, 0.6745, 0.001);
-    expect(m.median).toBeCloseTo(8.03, 12); // computed, NIST/SEMATECH e-Handbook 1.3.5.17 (references.md)
+    expect(m.median).toBeCloseTo(8.03, 12); // computed with the formula of Iglewicz & Hoaglin 1993 (references.md)
     expect(m.mad).toBeCloseTo(0.02, 12); // computed (references.md)
     expect(m.value).toBeCloseTo(19.22, 2); // computed from M = 0.6745·(x − median)/MAD (references.md)
     expect(m.madFloored).toBe(false);
@@ -36,8 +39,14 @@ describe('Grubbs two-sided test, α 0.05', () => {
     for (const [n, g] of table) expect(grubbsCritical(n, 0.05)).toBeCloseTo(g, 3);
   });
 
-  it('gives G = 2.0304 > 1.8871 for the sample', () => {
+  it('gives G = 2.0304 > 1.8871 for the computed sample', () => {
     expect(grubbsMaxStatistic(SAMPLE)).toBeCloseTo(2.0304, 4); // computed (references.md)
+  });
+
+  it('reproduces the published NIST/SEMATECH example: G = 2.4688 against the critical value 2.1266 (n 8, α 0.05)', () => {
+    // NIST/SEMATECH e-Handbook 1.3.5.17.1 (Tietjen–Moore data): G = 2.4688, two-sided critical value 2.1266 (references.md)
+    expect(grubbsMaxStatistic(NIST_GRUBBS)).toBeCloseTo(2.4688, 4);
+    expect(grubbsCritical(NIST_GRUBBS.length, 0.05)).toBeCloseTo(2.1266, 4);
   });
 });
 
@@ -72,10 +81,12 @@ describe('sister indicators', () => {
     expect(keys).not.toContain('sisters.capacitance.CHL.modifiedZ');
   });
 
-  it('flags |M| ≥ 3.5 as investigate with 5 sisters and adds Grubbs and Dixon as supporting statistics at ok', () => {
+  it('flags |M| ≥ 3.5 at watch at most (a state, rules revision 2) with 5 sisters and adds Grubbs and Dixon at ok', () => {
     const inds = sisterIndicators(withSisters(5, 5400), criteriaV1);
     const m = inds.find((i) => i.key === 'sisters.capacitance.CHL.modifiedZ')!;
-    expect(m.level).toBe('investigate');
+    // Revision 1 gave investigate; revision 2 (case format, "basis": sister statistics are a state) caps it at watch.
+    expect(m.level).toBe('watch');
+    expect(m.basis).toBe('state');
     expect(inds.find((i) => i.key === 'sisters.capacitance.CHL.grubbsG')!.level).toBe('ok');
     expect(inds.find((i) => i.key === 'sisters.capacitance.CHL.dixonQ')!.note).toBe('Dixon: outlier');
     const dev = inds.find((i) => i.key === 'sisters.capacitance.CHL.deviationFromMedianPercent')!;

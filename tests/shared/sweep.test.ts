@@ -80,9 +80,12 @@ describe('common grid', () => {
     const grid = commonGrid([[2000, -44]], [[1000, -40], [4000, -50]]);
     expect(grid).toEqual([{ frequencyHz: 2000, baselineDb: -44, postFaultDb: -45 }]); // computed: 2 kHz is midway in log10 f
   });
-  it('does not extrapolate outside the range both traces cover', () => {
+  it('uses the fixed linear 1 kHz grid inside the range both traces cover, without extrapolating', () => {
+    // Case format, "Sweeps", revision 2: f = 1, 2, … 1000 kHz, only grid points both traces cover.
     const grid = commonGrid([[500, -1], [1000, -2], [5000, -3], [20000, -4]], [[900, -2], [6000, -3]]);
-    expect(grid.map((g) => g.frequencyHz)).toEqual([1000, 5000]);
+    expect(grid.map((g) => g.frequencyHz)).toEqual([1000, 2000, 3000, 4000, 5000, 6000]);
+    // 2 kHz on the baseline lies between 1 kHz (−2 dB) and 5 kHz (−3 dB): −2 − log10(2)/log10(5) dB (computed by hand)
+    expect(grid[1].baselineDb).toBeCloseTo(-2 - Math.log10(2) / Math.log10(5), 12);
   });
 });
 
@@ -102,9 +105,17 @@ describe('open-circuit core region', () => {
     const a = analyseSweep(sweep, criteriaV1)!;
     expect(a.class).toBe('severe');
     expect(a.level).toBe('investigate');
-    const ind = sweepIndicators([sweep], criteriaV1).find((i) => i.key === 'sweep.HV-A-open.class')!;
+    const ind = sweepIndicators([sweep], criteriaV1).indicators.find((i) => i.key === 'sweep.HV-A-open.class')!;
     expect(ind.level).toBe('investigate');
     expect(ind.note).toContain('core region: demagnetise and repeat');
+    expect(ind.lowConfidence).toBe(true);
+  });
+
+  it('lifts the core-region cap for a trace taken after demagnetising (rules revision 2)', () => {
+    const sweep: Sweep = { label: 'HV-A-open', testType: 'open-circuit', demagnetised: true, baseline: trace(), postFault: trace(1.5) };
+    const a = analyseSweep(sweep, criteriaV1)!;
+    expect(a.coreRegion).toBe(false);
+    expect(a.level).toBe('critical'); // DL/T 911 severe → critical, judged on all bands
   });
 
   it('keeps the full level for a short-circuit trace with the same change', () => {

@@ -1,7 +1,7 @@
 // Verdict rules of the case format, each on a case built for it.
 import { describe, expect, it } from 'vitest';
 import { resultSchema } from '../../shared/schemas/result.js';
-import { AXIAL_MOVEMENT_NOTE, CAUTIONS, criteriaV1, screenCase } from '../../shared/screening/index.js';
+import { AXIAL_MOVEMENT_NOTE, CAUTIONS, criteriaV1, criteriaV2, FOLLOW_UPS, screenCase } from '../../shared/screening/index.js';
 import { cleanCase, edit, highDutyCompleteCase } from './case-builder.js';
 
 const level = (r: ReturnType<typeof screenCase>, key: string) => r.indicators.find((i) => i.key === key)?.level;
@@ -21,9 +21,19 @@ describe('screenCase verdict', () => {
     expect(r.reasons[0]).toMatch(/investigate as an internal fault/);
   });
 
-  it('does not treat a Buchholz alarm or overcurrent as an internal fault', () => {
+  it('does not treat a Buchholz alarm as an internal fault, but never gives go before its gas is analysed (revision 2)', () => {
+    // Revision 1 ignored the alarm and answered go; case format revision 2: the alarm adds dissolvedGasPPM and keeps a go conditional.
     const r = screenCase(edit(cleanCase(), (d) => (d.fault!.protectionOperated = ['buchholz-alarm', 'overcurrent'])));
-    expect(r.recommendation).toBe('go');
+    expect(r.recommendation).toBe('conditional');
+    expect(r.missing).toEqual(['dissolvedGasPPM']);
+    expect(r.reasons.join('\n')).toMatch(/Buchholz alarm: gas collected in the relay must be analysed/);
+    const analysed = screenCase(edit(cleanCase(), (d) => {
+      d.fault!.protectionOperated = ['buchholz-alarm'];
+      d.baseline!.dissolvedGasPPM = { H2: 10, C2H2: 0 };
+      d.postFault!.dissolvedGasPPM = { H2: 12, C2H2: 0 };
+    }));
+    expect(analysed.missing).toEqual([]);
+    expect(analysed.recommendation).toBe('conditional');
   });
 
   it('takes the duty-only path (go with gas follow-ups) when the unit stayed in service and the fault was not high duty', () => {
@@ -33,7 +43,10 @@ describe('screenCase verdict', () => {
     }));
     expect(r.recommendation).toBe('go');
     expect(r.missing).toEqual([]);
-    expect(r.followUps).toContain('Dissolved-gas sample 24 h after re-energising');
+    // Revision 2 wording: the go rests on the duty figures alone; samples count from the event (the unit never stopped).
+    expect(r.reasons[0]).toMatch(/rests on the duty figures alone, with no post-fault tests/);
+    expect(r.followUps).toEqual(expect.arrayContaining([FOLLOW_UPS.gasNow, FOLLOW_UPS.gas24hEvent]));
+    expect(r.followUps.join('\n')).not.toMatch(/re-energis/);
   });
 
   it('lets readings that were given overrule the duty-only go', () => {
@@ -50,7 +63,9 @@ describe('screenCase verdict', () => {
     }));
     expect(r.throughFault!.highDuty).toBe(true);
     expect(r.recommendation).toBe('no-go');
-    expect(r.missing).toEqual(['sweep', 'dissolvedGasPPM', 'excitationCurrentMA', 'windingResistanceOhm']);
+    expect(r.missing).toEqual(['sweep.hv.A', 'sweep.hv.B', 'sweep.hv.C', 'dissolvedGasPPM', 'excitationCurrentMA', 'windingResistanceOhm']);
+    // A unit in service is never told "do not re-energise": it is to be taken out of service for the tests.
+    expect(r.reasons[0]).toMatch(/take out of service for tests: sweeps of HV phases A, B and C, dissolved gases/);
   });
 
   it('asks to complete missing required quantities (conditional) after a fault that was not high duty', () => {
@@ -67,7 +82,7 @@ describe('screenCase verdict', () => {
     const r = screenCase(edit(highDutyCompleteCase(), (d) => delete d.postFault!.windingResistanceOhm));
     expect(r.recommendation).toBe('no-go');
     expect(r.missing).toEqual(['windingResistanceOhm']);
-    expect(r.reasons[0]).toMatch(/^High-duty fault \(8\.6 × rated, \d+ % of the design force\): hold pending tests: winding resistance$/);
+    expect(r.reasons[0]).toMatch(/^High-duty fault \(8\.6 × rated winding current, \d+ % of the design force\): hold pending tests: winding resistance$/);
   });
 
   it('recommends go after a high-duty fault when the full test set is present and clean', () => {
@@ -109,7 +124,7 @@ describe('screenCase verdict', () => {
     }));
     expect(r.unreliable).toEqual(['reactance.A', 'reactance.B', 'reactance.C']);
     expect(level(r, 'reactance.A.shiftPercent')).toBe('ok');
-    expect(r.indicators.find((i) => i.key === 'reactance.A.shiftPercent')!.note).toMatch(/tap position differs/);
+    expect(r.indicators.find((i) => i.key === 'reactance.A.shiftPercent')!.note).toMatch(/tap mismatch \(baseline at tap 9b, post-fault at 10\): repeat at tap 9b/);
     expect(r.recommendation).toBe('conditional');
   });
 
@@ -137,7 +152,6 @@ describe('screenCase verdict', () => {
     }));
     expect(level(r, 'powerFactor.CHL.riseFromBaselinePercent')).toBe('watch');
     expect(r.overallLevel).toBe('watch');
-    expect(r.recommendation).toBe('go');
   });
 
   it('does not count sisters or duty as corroborating methods', () => {
@@ -147,10 +161,11 @@ describe('screenCase verdict', () => {
       d.sisters = Array.from({ length: 5 }, (_, k) => ({ serial: `S${k}`, capacitancePF: { CHL: 5000 + k } }));
       d.baseline!.excitationCurrentMA = { A: 40, B: 28, C: 40 };
     }));
-    expect(level(r, 'sisters.capacitance.CHL.modifiedZ')).toBe('investigate');
+    // Revision 2: sister statistics are a state (watch at most) — revision 1 gave investigate and a conditional.
+    expect(level(r, 'sisters.capacitance.CHL.modifiedZ')).toBe('watch');
     expect(level(r, 'duty.forceRatioPercent')).toBe('watch');
     expect(r.reasons.join('\n')).not.toMatch(/Independent methods agree/);
-    expect(r.overallLevel).toBe('investigate');
+    expect(r.overallLevel).toBe('watch');
   });
 
   it('says that an ok capacitance does not rule out axial movement when capacitance is the only evidence', () => {
@@ -304,6 +319,8 @@ describe('result shape', () => {
     const r = screenCase(edit(highDutyCompleteCase(), (d) => (d.postFault!.temperatureC = 90)));
     for (const i of r.indicators) if (i.value === null) expect(i.note).toBeTruthy();
     expect(resultSchema.safeParse(r).success).toBe(true);
-    expect(r.criteriaVersion).toBe(criteriaV1.version);
+    expect(r.criteriaVersion).toBe(criteriaV2.version);
+    expect(r.engineRevision).toBe(2);
+    for (const i of r.indicators) expect(i.basis).toBeDefined();
   });
 });
