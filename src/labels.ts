@@ -124,3 +124,8 @@ export const CURRENT_IS_LABELS: Record<CurrentIs, string> = {
 
 /** Sweep windings and phases (sweep fields `winding`, `phase`). */
 export const WINDING_LABELS: Record<'hv' | 'lv' | 'tv', string> = { hv: 'HV', lv: 'LV', tv: 'TV (tertiary)' };
+
+/** "criteria set 2 · rules revision 2" of a stored screening (a result without `engineRevision` is revision 1). */
+export function rulesText(s: { criteriaVersion: number; result?: { engineRevision?: number } | null }): string {
+  return `criteria set ${s.criteriaVersion} · rules revision ${s.result?.engineRevision ?? 1}`;
+}

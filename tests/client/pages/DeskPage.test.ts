@@ -111,6 +111,8 @@ describe('DeskPage', () => {
     const recent = wrapper.get('[data-test="desk-list-recent-decisions"]').findAll('[data-test="desk-event"]');
     expect(recent.map((e) => e.attributes('data-status'))).toEqual(['released']);
     expect(wrapper.find('[data-test="desk-list-to-test"]').exists()).toBe(false);
+    // Recommendations are shown: the cautions go with them, every sentence.
+    expect(wrapper.get('[data-test="cautions"]').findAll('li')).toHaveLength(5);
   });
 
   it('says what an empty work list means instead of showing an empty table', async () => {

@@ -36,7 +36,8 @@ describe('EventFilePage — screening panel', () => {
     const meta = banner.get('[data-test="verdict-meta"]').text();
     expect(meta).toContain('2026-07-03 10:00 +01:00 Europe/London');
     expect(meta).toContain('by Ruth Okafor');
-    expect(meta).toContain('criteria version 1');
+    // A result stored without engineRevision was computed with rules revision 1.
+    expect(meta).toContain('criteria set 1 · rules revision 1');
     // The banner comes before the evidence.
     const html = wrapper.get('[data-test="screenings"]').html();
     expect(html.indexOf('verdict-banner')).toBeLessThan(html.indexOf('indicator-table'));
@@ -77,6 +78,43 @@ describe('EventFilePage — screening panel', () => {
     expect(nullRow.get('[data-test="indicator-note"]').text()).toContain('temperature outside the 10–70 °C table');
     const okRow = rows.find((r) => r.text().includes('capacitance.CH.shiftPercent'))!;
     expect(okRow.text()).toContain('0.3526 %');
+  });
+
+  it('names the criteria set and rules revision of every stored screening: the banner, the history and the decision panel', async () => {
+    const rev2 = storedScreening({ id: 63, criteriaVersion: 2, result: screeningResult({ engineRevision: 2, criteriaVersion: 2 }) });
+    const old = storedScreening({ id: 61, criteriaVersion: 1, computedAt: '2026-07-02T09:00:00.000Z' });
+    const comparison = storedScreening({ id: 64, criteriaVersion: 3, comparison: true, result: screeningResult({ engineRevision: 2, criteriaVersion: 3 }) });
+    signedInAs(['manager'], screenedEvent({ screenings: [comparison, rev2, old] }));
+    const { wrapper } = await mountApp('/events/11');
+
+    expect(wrapper.get('[data-test="verdict-rules"]').text()).toBe('criteria set 2 · rules revision 2');
+    expect(wrapper.findAll('[data-test="screening-row-rules"]').map((r) => r.text())).toEqual([
+      'criteria set 3 · rules revision 2',
+      'criteria set 1 · rules revision 1',
+    ]);
+    expect(wrapper.get('[data-test="decision-rules"]').text()).toContain('criteria set 2 · rules revision 2');
+  });
+
+  it('shows the basis of each indicator, low-confidence marks, all five cautions and the screened duty with its winding current', async () => {
+    const result = screeningResult({
+      engineRevision: 2,
+      throughFault: { ...screeningResult().throughFault!, windingCurrentFactor: null, currentBasis: 'line-assumed', thermalDurationPercent: null },
+      indicators: [
+        { key: 'capacitance.CHL.shiftPercent', value: 3.74, level: 'investigate', rule: '|shift| ≥ 3 %', source: 'utility practice (from memory)', method: 'capacitance', basis: 'change', reference: '2019-05-02 baseline' },
+        { key: 'resistance.A.changePercent', value: 2.6, level: 'watch', rule: '|change| > 2 %', source: 'IEEE C57.152 (from memory)', method: 'resistance', basis: 'change', lowConfidence: true, note: 'winding temperature unknown' },
+      ],
+    });
+    // A phase-to-ground fault measured at the delta LV terminals of the YNd1 unit: no winding-current factor.
+    signedInAs(['engineer'], screenedEvent({ type: 'phase-to-ground', screenings: [storedScreening({ criteriaVersion: 2, result })] }));
+    const { wrapper } = await mountApp('/events/11');
+
+    const rows = wrapper.findAll('[data-test="indicator-row"]');
+    expect(rows.map((r) => r.get('[data-test="indicator-basis-text"]').text())).toEqual(['against own baseline', 'against own baseline']);
+    expect(rows[1].get('[data-test="indicator-low-confidence"]').text()).toContain('Low confidence: winding temperature unknown');
+    const cautions = wrapper.get('[data-test="screening-panel"] [data-test="cautions"]').findAll('li');
+    expect(cautions).toHaveLength(5);
+    const screened = wrapper.get('[data-test="screening-through-fault"]');
+    expect(screened.get('[data-test="duty-winding-reason"]').text()).toContain('ground fault measured at delta terminals');
   });
 
   it('shows only watch-and-above rows when asked', async () => {

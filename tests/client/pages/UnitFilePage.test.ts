@@ -45,6 +45,19 @@ describe('UnitFilePage (/units/:id)', () => {
     expect(wrapper.get('[data-test="design-link"]').attributes('href')).toBe('/units?designId=2');
   });
 
+  it('shows the cautions beside the unit’s last recommendation, and none when the unit has no recommendation', async () => {
+    signedInAs(['engineer']);
+    const withRecommendation = await mountApp('/units/3');
+    expect(withRecommendation.wrapper.get('[data-test="recommendation-badge"]').attributes('data-recommendation')).toBe('conditional');
+    expect(withRecommendation.wrapper.get('[data-test="cautions"]').text()).toContain('decision support for qualified staff');
+    withRecommendation.wrapper.unmount();
+    resetClientState();
+
+    signedInAs(['engineer'], unitDetail({ lastRecommendation: null }));
+    const without = await mountApp('/units/3');
+    expect(without.wrapper.find('[data-test="cautions"]').exists()).toBe(false);
+  });
+
   it('lists the reading sets with kind, time, temperature, tap and instrument, and shows the values on demand', async () => {
     signedInAs(['engineer']);
     const { wrapper } = await mountApp('/units/3');
