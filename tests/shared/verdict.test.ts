@@ -1,7 +1,7 @@
 // Verdict rules of the case format, each on a case built for it.
 import { describe, expect, it } from 'vitest';
 import { resultSchema } from '../../shared/schemas/result.js';
-import { AXIAL_MOVEMENT_NOTE, CAUTIONS, criteriaV1, criteriaV2, FOLLOW_UPS, screenCase } from '../../shared/screening/index.js';
+import { AXIAL_MOVEMENT_NOTE, CAUTIONS, criteriaV2, FOLLOW_UPS, screenCase } from '../../shared/screening/index.js';
 import { cleanCase, edit, highDutyCompleteCase } from './case-builder.js';
 
 const level = (r: ReturnType<typeof screenCase>, key: string) => r.indicators.find((i) => i.key === key)?.level;
