@@ -1,6 +1,6 @@
 import { spawn, spawnSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
@@ -28,6 +28,30 @@ function freePort(): Promise<number> {
 
 function step(title: string): void {
   console.log(`\n▶ ${title}`);
+}
+
+/** Installs Debian's Chromium when it is missing (as `npm start` installs MariaDB); the browser tests drive it. */
+function ensureChromium(): boolean {
+  const exe = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+  if (existsSync(exe)) {
+    console.log(`✓ ${exe}`);
+    return true;
+  }
+  if (process.getuid?.() !== 0) {
+    console.error(`✗ ${exe} is missing: install it with apt-get install -y chromium (or set CHROMIUM_PATH)`);
+    return false;
+  }
+  console.log("Chromium is not installed: installing Debian's chromium with apt-get (about a minute) …");
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  for (const args of [['update', '-qq'], ['install', '-y', '-qq', 'chromium']]) {
+    const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
+    if (r.status !== 0) {
+      console.error(`✗ apt-get ${args.join(' ')} failed (exit ${r.status})`);
+      return false;
+    }
+  }
+  console.log(`✓ ${exe} installed`);
+  return existsSync(exe);
 }
 
 let tmp: string | null = null;
@@ -111,6 +135,8 @@ async function main(): Promise<number> {
   console.log(`✓ ${ran.length} migration(s) applied (test and browser-test databases)`);
 
   if (!process.env.SKIP_E2E_BUILD) {
+    step('Chromium for the browser tests');
+    if (!ensureChromium()) failures++;
     step('Client build for the browser tests');
     const out = path.join(tmp, 'dist');
     if (!buildClient(root, out, true)) {

@@ -58,6 +58,11 @@ const FOLLOW_UP_DUE_HOURS: Record<string, number | null> = {
   [FOLLOW_UPS.gas1w]: 24 * 7,
   [FOLLOW_UPS.gas1m]: 24 * 30,
   [FOLLOW_UPS.sweepNextOutage]: null,
+  // A unit that stayed in service: samples now and counted from the event.
+  [FOLLOW_UPS.gasNow]: 0,
+  [FOLLOW_UPS.gas24hEvent]: 24,
+  [FOLLOW_UPS.gas1wEvent]: 24 * 7,
+  [FOLLOW_UPS.gas1mEvent]: 24 * 30,
 };
 
 /** The due date of a proposed follow-up counted from `from` (null when it has none). */
