@@ -173,5 +173,12 @@ export function rowsToReadingSet(rows: readonly ReadingRowData[]): ReadingSet {
     }
   }
   for (const curve of Object.values((set.dissipationByFrequency ?? {}) as Record<string, [number, number][]>)) curve.sort((a, b) => a[0] - b[0]);
+  // A bushing's readings in the case format's order, its winding last (whatever order the rows came in).
+  const terminals = (set.bushings ?? {}) as Record<string, Record<string, unknown>>;
+  for (const [terminal, b] of Object.entries(terminals)) {
+    const { winding, ...readings } = b;
+    const ordered = Object.fromEntries(Object.keys(BUSHING_QUANTITIES).filter((k) => k in readings).map((k) => [k, readings[k]]));
+    terminals[terminal] = winding === undefined ? ordered : { ...ordered, winding };
+  }
   return set as ReadingSet;
 }

@@ -9,7 +9,7 @@
 //   +3.4 % against the baseline with every other method quiet → the screening the user runs says `conditional`.
 import type { EventBody } from '../../../shared/schemas/fleet.js';
 import type { Gas, Phase, ReadingBody, UnitFingerprint } from './demo-fleet.js';
-import { DEMO_DESIGNS, INSTRUMENTS, PHASES, agedGas, demoUnit, monthsBefore, resistanceAt, routineDates, unitFingerprint, yearsBetween } from './demo-fleet.js';
+import { DEMO_DESIGNS, INSTRUMENTS, PHASES, agedGas, demoUnit, factoryBushings, monthsBefore, resistanceAt, routineDates, unitFingerprint, yearsBetween } from './demo-fleet.js';
 import { DemoRandom, roundTo } from './demo-random.js';
 import { deformModel, familySweepModel, logGrid, tracePoints, type SweepKind, type SweepModel, type TraceSpec } from './demo-sweeps.js';
 
@@ -77,16 +77,22 @@ export function demoTimeline(now: Date): DemoTimeline {
 // ---------- events ----------
 
 export function priorEventBody(unitId: number, t: DemoTimeline): EventBody {
+  // A phase-to-ground fault on the delta (33 kV) side: the line currents there do not fix the winding current (case
+  // format, "Winding current"), so protection entered the winding current from the transformer differential relay's
+  // record: with the zero sequence in the earthing transformer, phase A carried 2/3 of the fault current (the LV
+  // recorder's 2.9 kA) and the delta windings half of that, 1.45 kA (3.6 × the winding's rated 404 A).
   return {
     unitId,
     occurredAt: t.priorFault.toISOString(),
     type: 'phase-to-ground',
     side: 'lv',
+    location: 'lv',
+    currentIs: 'winding',
     faultedPhases: 'A',
-    shots: [{ currentKA: 2.9, durationS: 0.35 }],
+    shots: [{ currentKA: 1.45, durationS: 0.35 }],
     transformerTripped: false,
     protectionOperated: [],
-    notes: 'Cable fault on 33 kV feeder HX-F4 (phase A to ground), cleared by the feeder breaker; the transformer stayed in service. Fault recorder of bay HX-T2 LV.',
+    notes: 'Cable fault on 33 kV feeder HX-F4 (phase A to ground), cleared by the feeder breaker; the transformer stayed in service. LV fault recorder of bay HX-T2: 2.9 kA in phase A; the shot entered is the delta winding current from the differential relay\'s disturbance record.',
   };
 }
 
@@ -96,10 +102,13 @@ export function historyEventBody(unitId: number, t: DemoTimeline): EventBody {
     occurredAt: t.historyFault.toISOString(),
     type: 'phase-to-phase',
     side: 'lv',
+    location: 'lv',
+    currentIs: 'line',
     faultedPhases: 'BC',
+    // A phase-to-phase fault gives √3/2 of the three-phase fault current: at most 0.866 × 6.42 kA = 5.56 kA here.
     shots: [
-      { currentKA: 5.9, durationS: 0.16 },
-      { currentKA: 5.7, durationS: 0.42 },
+      { currentKA: 5.1, durationS: 0.16 },
+      { currentKA: 4.9, durationS: 0.42 },
     ],
     transformerTripped: true,
     protectionOperated: ['overcurrent'],
@@ -113,6 +122,8 @@ export function recentEventBody(unitId: number, t: DemoTimeline): EventBody {
     occurredAt: t.recentFault.toISOString(),
     type: 'three-phase',
     side: 'lv',
+    location: 'lv',
+    currentIs: 'line',
     faultedPhases: 'ABC',
     shots: [
       { currentKA: 6.3, durationS: 0.12 },
@@ -174,15 +185,22 @@ export function priorGasSession(t: DemoTimeline): ReadingBody {
   };
 }
 
-/** Recent event, session 1 (the morning after): capacitance and DF with CHL modes, per-phase reactance. */
+/** Recent event, session 1 (the morning after): capacitance and DF with CHL modes and the HV bushings, per-phase reactance. */
 export function recentSession1(t: DemoTimeline): ReadingBody {
   const fp = unitFingerprint(demoUnit('KVP-HX-T2'));
   const cap = scale(fp.capacitancePF, { CH: 1.0029, CL: 1.0078, CHL: 1.0342 }, 1);
   const age = yearsBetween(new Date(demoUnit('KVP-HX-T2').factoryTest), t.recentSession1);
   return {
-    ...fieldConditions(t.recentSession1, 33, 'Post-fault session 1: capacitance and DF (CHL also GST/GST-guard/UST), per-phase leakage reactance and three-phase equivalent at tap 9b.', 9),
+    ...fieldConditions(t.recentSession1, 33, 'Post-fault session 1: capacitance and DF (CHL also GST/GST-guard/UST), HV bushings C1 and C2 through their test taps, per-phase leakage reactance and three-phase equivalent at tap 9b.', 9),
     tapPosition: DEMO_DESIGNS.large.tap,
     capacitancePF: cap,
+    // The HV bushings steady: C1 within 0.2 % of the factory value, DF up by the ageing of the paper.
+    bushings: Object.fromEntries(
+      Object.entries(factoryBushings(demoUnit('KVP-HX-T2'))!).map(([terminal, b], k) => [
+        terminal,
+        { ...b, c1PF: roundTo(b.c1PF * [1.0012, 1.0009, 1.0015][k], 1), c1DissipationPercent: roundTo(b.c1DissipationPercent + 0.02, 3), c2PF: roundTo(b.c2PF * 1.002, 0), c2DissipationPercent: roundTo(b.c2DissipationPercent + 0.02, 3) },
+      ]),
+    ),
     capacitanceModes: { CHL: chlModes(cap.CH, cap.CHL, 1.6) },
     dissipationPercent: scale(fp.dissipationPercent, { CH: 1 + 0.012 * age + 0.04, CL: 1 + 0.012 * age + 0.03, CHL: 1 + 0.012 * age + 0.05 }, 3),
     reactance: per((p) => ({ percent: roundTo(fp.reactance[p] * { A: 1.0028, B: 1.0035, C: 1.0021 }[p], 3) })),
@@ -299,6 +317,8 @@ export function sessionTraces(serial: string, state: SweepState, session: string
   return TRACES.map((tr) => ({
     label: tr.label,
     testType: tr.kind,
+    winding: 'hv' as const,
+    phase: tr.phase,
     terminals: tr.terminals,
     tapPosition: DEMO_DESIGNS.large.tap,
     demagnetised: tr.kind === 'open-circuit' ? field : null,

@@ -32,6 +32,7 @@ interface FamilyNominal {
   excitationKV: number;
   /** HV winding resistance per phase at 20 °C, Ω (YN: phase to neutral; D: across the phase winding). */
   resistance20Ohm: number;
+  /** Per-phase winding (turns) ratio as a three-phase ratio set measures it: from the vector group (case format). */
   turnsRatio: number;
 }
 
@@ -82,7 +83,7 @@ export const DEMO_DESIGNS: Record<FamilyKey, DemoDesign> = {
       excitationMA: { A: 28, B: 19.2, C: 27.6 },
       excitationKV: 10,
       resistance20Ohm: 0.889,
-      turnsRatio: 4,
+      turnsRatio: 2.3094, // YNd1: hvKV / (√3 · lvKV) = 132 / (√3 · 33)
     },
   },
   small: {
@@ -111,7 +112,7 @@ export const DEMO_DESIGNS: Record<FamilyKey, DemoDesign> = {
       excitationMA: { A: 41.5, B: 30.2, C: 40.8 },
       excitationKV: 10,
       resistance20Ohm: 2.214,
-      turnsRatio: 6,
+      turnsRatio: 10.3923, // Dyn11: √3 · hvKV / lvKV = √3 · 66 / 11
     },
   },
 };
@@ -257,6 +258,25 @@ export const INSTRUMENTS = {
   fra: { instrument: 'KVP test van 2: FRA analyser FR-1', instrumentSerial: 'FR1-0093' },
 } as const;
 
+export type BushingReadings = { c1PF: number; c1DissipationPercent: number; c2PF: number; c2DissipationPercent: number; winding: 'hv' };
+
+/**
+ * The HV bushings of a 40 MVA unit as the factory tested them (rules revision 2): 145 kV condenser bushings with a test
+ * tap, C1 about 410 pF at DF about 0.3 %, C2 about 3.9 nF. The 12 MVA units' bushings carry no test tap (none here).
+ */
+export function factoryBushings(u: DemoUnit): Record<'H1' | 'H2' | 'H3', BushingReadings> | undefined {
+  if (u.family !== 'large') return undefined;
+  const rnd = new DemoRandom(`bushings/${u.serial}`);
+  const one = (): BushingReadings => ({
+    c1PF: roundTo(410 * (1 + rnd.normal(0.01)), 1),
+    c1DissipationPercent: roundTo(0.3 * (1 + rnd.normal(0.05)), 3),
+    c2PF: roundTo(3900 * (1 + rnd.normal(0.02)), 0),
+    c2DissipationPercent: roundTo(0.4 * (1 + rnd.normal(0.06)), 3),
+    winding: 'hv',
+  });
+  return { H1: one(), H2: one(), H3: one() };
+}
+
 /** The factory acceptance reading set of a unit (case-format values plus session conditions). */
 export function factoryBody(u: DemoUnit): ReadingBody {
   const d = DEMO_DESIGNS[u.family];
@@ -274,7 +294,7 @@ export function factoryBody(u: DemoUnit): ReadingBody {
     ...INSTRUMENTS.works,
     testKV: 10,
     testFrequencyHz: 50,
-    notes: `Factory acceptance test at ${d.maker.replace(' (invented)', '')}: capacitance and DF, per-phase leakage reactance, excitation current, winding resistance, ratio, oil sample.`,
+    notes: `Factory acceptance test at ${d.maker.replace(' (invented)', '')}: capacitance and DF${u.family === 'large' ? ' (with the HV bushings\' C1 and C2)' : ''}, per-phase leakage reactance, excitation current, winding resistance, ratio, oil sample.`,
     capacitancePF: { ...fp.capacitancePF },
     dissipationPercent: { ...fp.dissipationPercent },
     reactance: Object.fromEntries(PHASES.map((p) => [p, { percent: fp.reactance[p] }])),
@@ -284,6 +304,7 @@ export function factoryBody(u: DemoUnit): ReadingBody {
     resistanceTemperatureC: resT,
     turnsRatio: { ...fp.turnsRatio },
     dissolvedGasPPM: agedGas(0, `${u.serial}/factory`),
+    ...(factoryBushings(u) ? { bushings: factoryBushings(u) } : {}),
   };
 }
 

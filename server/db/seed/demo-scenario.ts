@@ -177,7 +177,15 @@ async function writeScenario(m: EntityManager, users: DemoUserIds, now: Date, cl
         await insertSweepTrace(
           m,
           setId,
-          { label: tr.label, testType: tr.testType, terminals: tr.terminals, tapPosition: tr.tapPosition, ...(tr.demagnetised === null ? {} : { demagnetised: tr.demagnetised }) },
+          {
+            label: tr.label,
+            testType: tr.testType,
+            winding: tr.winding,
+            phase: tr.phase,
+            terminals: tr.terminals,
+            tapPosition: tr.tapPosition,
+            ...(tr.demagnetised === null ? {} : { demagnetised: tr.demagnetised }),
+          },
           { points: tr.points, minHz: Math.min(...freqs), maxHz: Math.max(...freqs) },
           tr.fileName,
           userId,
@@ -280,10 +288,12 @@ async function writeScenario(m: EntityManager, users: DemoUserIds, now: Date, cl
   await session(hx2, priorEventId, priorGasSession(t));
   const prior = await screen(priorEventId, t.priorScreening);
   await decide(priorEventId, prior.id, 'release', 'Unit stayed in service; fault below the mechanical segment (duty-only path) and the next-day oil sample shows no acetylene. Keep the gas follow-ups.', null, t.priorDecision);
+  // The unit stayed in service: the samples count from the event (rules revision 2 wording).
   const priorFollowUps: { task: string; due: Date; result: string }[] = [
-    { task: FOLLOW_UPS.gas24h, due: at(t.priorFault, DAY), result: 'Taken with the next-day sample: C2H2 0 ppm, H2 +3 ppm. Normal.' },
-    { task: FOLLOW_UPS.gas1w, due: at(t.priorFault, 7 * DAY), result: 'C2H2 0 ppm, H2 29 ppm, CO 412 ppm: in line with the routine trend.' },
-    { task: FOLLOW_UPS.gas1m, due: at(t.priorFault, 30 * DAY), result: 'C2H2 0 ppm; all gases within the unit\'s normal trend. Closed.' },
+    { task: FOLLOW_UPS.gasNow, due: t.priorGasSample, result: 'The next-day sample of the post-fault session: C2H2 0 ppm, H2 +3 ppm against the routine sample. Normal.' },
+    { task: FOLLOW_UPS.gas24hEvent, due: at(t.priorFault, DAY), result: 'Taken with the next-day sample: C2H2 0 ppm, H2 +3 ppm. Normal.' },
+    { task: FOLLOW_UPS.gas1wEvent, due: at(t.priorFault, 7 * DAY), result: 'C2H2 0 ppm, H2 29 ppm, CO 412 ppm: in line with the routine trend.' },
+    { task: FOLLOW_UPS.gas1mEvent, due: at(t.priorFault, 30 * DAY), result: 'C2H2 0 ppm; all gases within the unit\'s normal trend. Closed.' },
   ];
   for (const f of priorFollowUps) {
     if (!prior.result.followUps.includes(f.task)) continue;

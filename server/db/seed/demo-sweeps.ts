@@ -113,6 +113,9 @@ export function deformModel(model: SweepModel, opts: { fromHz: number; toHz: num
 export interface TraceSpec {
   label: string;
   testType: SweepKind;
+  /** Winding and phase of the trace (rules revision 2): every demo trace is on the HV winding. */
+  winding: 'hv' | 'lv' | 'tv';
+  phase: 'A' | 'B' | 'C';
   terminals: string;
   tapPosition: string;
   demagnetised: boolean | null;
@@ -121,11 +124,13 @@ export interface TraceSpec {
 }
 
 /** The row values of a sweep_trace (without ids), with the checksum of the JSON of its points. */
-export function sweepRow(spec: TraceSpec): Pick<SweepTrace, 'label' | 'testType' | 'terminals' | 'tapPosition' | 'demagnetised' | 'points' | 'pointCount' | 'minHz' | 'maxHz' | 'sha256' | 'fileName'> {
+export function sweepRow(spec: TraceSpec): Pick<SweepTrace, 'label' | 'testType' | 'winding' | 'phase' | 'terminals' | 'tapPosition' | 'demagnetised' | 'points' | 'pointCount' | 'minHz' | 'maxHz' | 'sha256' | 'fileName'> {
   const freqs = spec.points.map((p) => p[0]);
   return {
     label: spec.label,
     testType: spec.testType,
+    winding: spec.winding,
+    phase: spec.phase,
     terminals: spec.terminals,
     tapPosition: spec.tapPosition,
     demagnetised: spec.demagnetised,

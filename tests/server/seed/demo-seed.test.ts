@@ -5,7 +5,7 @@ import { In, Not } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mergeReadingSets } from '../../../shared/readings/merge.js';
 import type { GapsightCase } from '../../../shared/schemas/case.js';
-import { criteriaV1, modifiedZScore, screenCase, sisterIndicators } from '../../../shared/screening/index.js';
+import { criteriaV1, criteriaV2, modifiedZScore, screenCase, sisterIndicators } from '../../../shared/screening/index.js';
 import { AppSetting } from '../../../server/common/app-setting.entity.js';
 import { AuditEntry } from '../../../server/common/audit-entry.entity.js';
 import { DEMO_DESIGNS, DEMO_SITES, DEMO_UNITS, CHL_OUTLIER_SERIAL, HISTORY_EVENT_SERIAL, RECENT_EVENT_SERIAL, unitsCsv } from '../../../server/db/seed/demo-fleet.js';
@@ -120,6 +120,8 @@ describe('the Kestrel Valley Power fleet', () => {
       const factory = await env.db.getRepository(ReadingSet).findOneByOrFail({ unitId: unitBySerial(serial).id, kind: 'factory' });
       const traces = await env.db.getRepository(SweepTrace).find({ where: { readingSetId: factory.id } });
       expect(traces.map((t) => t.label).sort()).toEqual(['HV-A-open', 'HV-B-open', 'HV-B-short', 'HV-C-open']);
+      // Rules revision 2: every trace names its winding and phase (a trace without a phase satisfies no phase).
+      expect(traces.map((t) => `${t.label} ${t.winding} ${t.phase}`).sort()).toEqual(['HV-A-open hv A', 'HV-B-open hv B', 'HV-B-short hv B', 'HV-C-open hv C']);
       for (const t of traces) {
         expect(t.pointCount).toBe(t.points.length);
         expect(t.pointCount).toBeGreaterThanOrEqual(150);
@@ -149,7 +151,12 @@ describe('the recent through-fault on KVP-HX-T2', () => {
     const c = await buildEventCase(env.db.manager, recent.id);
     expect(c.priorFaults).toHaveLength(1);
     expect(c.sisters?.length).toBe(7);
-    const result = screenCase(c, criteriaV1);
+    expect(c.fault).toMatchObject({ side: 'lv', location: 'lv', currentIs: 'line' });
+    expect(c.sweeps?.map((w) => `${w.label} ${w.winding} ${w.phase} ${w.tapPosition}/${w.baselineTapPosition}`)).toEqual(['HV-A-open hv A 9b/9b', 'HV-B-open hv B 9b/9b', 'HV-B-short hv B 9b/9b', 'HV-C-open hv C 9b/9b']);
+    expect(Object.keys(c.postFault?.bushings ?? {})).toEqual(['H1', 'H2', 'H3']);
+    expect(c.postFault?.hoursDeEnergised).toBe(33); // the newest session gave the winding resistance
+    // A screening run now takes the newest published criteria set: version 2.
+    const result = screenCase(c, criteriaV2);
     expect(result.recommendation, result.reasons.join('\n')).toBe('conditional');
     expect(result.missing).toEqual([]);
     expect(result.unreliable).toEqual([]);
@@ -162,11 +169,19 @@ describe('the recent through-fault on KVP-HX-T2', () => {
     const flagged = result.indicators.filter((i) => i.level !== 'ok' && !['capacitance', 'power-factor', 'sisters', 'duty'].includes(i.method));
     expect(flagged.map((i) => `${i.key} ${i.level}`)).toEqual([]);
     expect(result.indicators.filter((i) => i.method === 'sweep' && i.key.endsWith('.class')).map((i) => i.value)).toEqual(['normal', 'normal', 'normal', 'normal']);
+    // The HV bushings were tested too and are steady.
+    expect(result.indicators.filter((i) => i.method === 'bushing').map((i) => `${i.key} ${i.level}`)).toEqual(
+      ['H1', 'H2', 'H3'].flatMap((t) => [`bushing.${t}.c1ShiftPercent ok`, `bushing.${t}.c1Pf20RisePercent ok`]),
+    );
   });
 
   it('counts the earlier feeder fault, released on the duty-only path', async () => {
     const [prior] = await eventsOf(RECENT_EVENT_SERIAL);
-    expect(prior).toMatchObject({ status: 'released', transformerTripped: false });
+    // A ground fault on the delta side: the winding current was entered (from the differential relay's record).
+    expect(prior).toMatchObject({ status: 'released', transformerTripped: false, type: 'phase-to-ground', side: 'lv', location: 'lv', currentIs: 'winding' });
+    const priorCase = await buildEventCase(env.db.manager, prior.id);
+    expect(screenCase(priorCase, criteriaV2).throughFault).toMatchObject({ currentBasis: 'winding', highDuty: false });
+    expect(screenCase(priorCase, criteriaV2).recommendation).toBe('go');
     const screenings = await env.db.getRepository(Screening).find({ where: { eventId: prior.id } });
     expect(screenings.map((s) => s.recommendation)).toEqual(['go']);
     const decision = await env.db.getRepository(Decision).findOneByOrFail({ screeningId: screenings[0].id });
@@ -186,6 +201,8 @@ describe('the history event on KVP-MB-T1', () => {
     expect(screenings.every((s) => s.criteriaVersion === 1)).toBe(true);
     // The stored results are what the engine says about the stored cases.
     for (const s of screenings) expect(screenCase(s.case as GapsightCase, criteriaV1).recommendation).toBe(s.recommendation);
+    // The decisions still stand under the newest criteria set (a comparison run would agree).
+    for (const s of screenings) expect(screenCase(s.case as GapsightCase, criteriaV2).recommendation).toBe(s.recommendation);
     const firstResult = screenings[0].result as { throughFault: { highDuty: boolean }; indicators: { key: string; level: string }[] };
     expect(firstResult.throughFault.highDuty).toBe(true);
     expect(firstResult.indicators.find((i) => i.key === 'capacitance.CL.shiftPercent')?.level).toBe('critical');
@@ -258,8 +275,9 @@ describe('the sister-unit outlier KVP-QL-T1', () => {
       postFault: latest.get(CHL_OUTLIER_SERIAL),
       sisters: family.filter((u) => u !== outlier).map((u) => ({ serial: u.serial, ...latest.get(u.serial)! })),
     };
-    const indicators = sisterIndicators(c, criteriaV1);
-    expect(indicators.find((i) => i.key === 'sisters.capacitance.CHL.modifiedZ')?.level).toBe('investigate');
+    const indicators = sisterIndicators(c, criteriaV2);
+    // Rules revision 2: sister statistics are a state (basis `state`), at most watch — they never corroborate.
+    expect(indicators.find((i) => i.key === 'sisters.capacitance.CHL.modifiedZ')).toMatchObject({ level: 'watch', basis: 'state' });
     const dev = indicators.find((i) => i.key === 'sisters.capacitance.CHL.deviationFromMedianPercent')!.value as number;
     expect(dev).toBeGreaterThan(4);
     expect(dev).toBeLessThan(6);
