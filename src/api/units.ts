@@ -57,6 +57,10 @@ export interface SweepMeta {
   label: string;
   testType: string;
   terminals: string | null;
+  /** Rules revision 2 (absent from servers before it): winding and phase of the trace, tap of its baseline trace. */
+  winding?: 'hv' | 'lv' | 'tv' | null;
+  phase?: 'A' | 'B' | 'C' | null;
+  baselineTapPosition?: string | null;
   tapPosition: string | null;
   demagnetised: boolean | null;
   pointCount: number;

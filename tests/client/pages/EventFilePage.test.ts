@@ -3,7 +3,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { Role } from '../../../src/api/auth';
 import type { EventDetail } from '../../../src/api/events';
 import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type ScriptedResponse } from '../helpers';
-import { eventDetail } from './fixtures';
+import { eventDetail, unitDetail } from './fixtures';
 
 enableAutoUnmount(afterEach);
 
@@ -204,6 +204,67 @@ describe('EventFilePage (/events/:id)', () => {
       reactance: { B: { percent: 11.6 } },
       tapPosition: '9b',
     });
+  });
+
+  it('checks the session form against the event’s case (its baseline) once the form opens', async () => {
+    const caseDoc = {
+      format: 'gapsight-case/1',
+      unit: { serial: 'KVP-HX-T2', phases: 3, ratedKVA: 40000, hvKV: 132, lvKV: 33, impedancePercent: 10.5, vectorGroup: 'YNd1' },
+      baseline: { takenAt: '2019-05-02', capacitancePF: { CH: 3120, CL: 9870, CHL: 5210 } },
+    };
+    const { requests } = signedInAs(['tester'], eventDetail(), { 'GET /api/events/11/case': { body: caseDoc } });
+    const { wrapper } = await mountApp('/events/11');
+    // Not fetched before it is needed.
+    expect(requests.some((r) => r.url === '/api/events/11/case')).toBe(false);
+
+    await wrapper.get('[data-test="new-session"]').trigger('click');
+    await settle();
+    expect(requests.filter((r) => r.url === '/api/events/11/case')).toHaveLength(1);
+    expect(wrapper.get('[data-test="session-references"]').text()).toContain('2019-05-02 baseline');
+    await wrapper.get('input[data-test="session-capacitancePF.CL"]').setValue('9.87');
+    await settle();
+    expect(wrapper.get('[data-test="session-capacitancePF.CL-warning"]').text()).toContain('this looks like nF');
+  });
+
+  it('marks a stored post-fault sweep that has no baseline trace to compare with', async () => {
+    const sweep = (id: number, label: string) => ({
+      id, readingSetId: 31, label, testType: 'open-circuit', terminals: null, winding: 'hv' as const, phase: label.includes('-A-') ? ('A' as const) : ('B' as const),
+      tapPosition: '9b', baselineTapPosition: null, demagnetised: null, pointCount: 1000, minHz: 1000, maxHz: 1000000, sha256: 'ab'.repeat(32), fileName: null, createdAt: '2026-07-02T10:00:00.000Z',
+    });
+    const event = eventDetail();
+    event.sessions[0].sweeps = [sweep(81, 'HV-A-open'), sweep(82, 'HV-B-open')];
+    const caseDoc = {
+      format: 'gapsight-case/1',
+      unit: { serial: 'KVP-HX-T2', phases: 3, ratedKVA: 40000, hvKV: 132, lvKV: 33, impedancePercent: 10.5 },
+      sweeps: [
+        { label: 'HV-A-open', testType: 'open-circuit', baseline: [[1000, -42.1]], postFault: [[1000, -42.3]] },
+        { label: 'HV-B-open', testType: 'open-circuit', postFault: [[1000, -42.3]] },
+      ],
+    };
+    signedInAs(['engineer'], event, { 'GET /api/events/11/case': { body: caseDoc } });
+    const { wrapper } = await mountApp('/events/11');
+
+    const traces = wrapper.findAll('[data-test="session-sweep"]');
+    expect(traces).toHaveLength(2);
+    expect(traces[0].text()).toContain('HV phase A');
+    expect(traces[0].find('[data-test="sweep-no-baseline"]').exists()).toBe(false);
+    expect(traces[1].get('[data-test="sweep-no-baseline"]').text()).toContain('no baseline trace to compare with');
+  });
+
+  it('tells the sweep form which baseline traces the unit has (from the unit file, before the fault)', async () => {
+    const unit = unitDetail();
+    unit.readingSets[1].sweeps = [
+      { id: 70, readingSetId: 20, label: 'HV-A-open', testType: 'open-circuit', terminals: null, tapPosition: '9b', demagnetised: null, pointCount: 1000, minHz: 1000, maxHz: 1000000, sha256: 'cd'.repeat(32), fileName: null, createdAt: '2019-05-02T12:00:00.000Z' },
+    ];
+    signedInAs(['tester'], eventDetail(), { 'GET /api/units/3': { body: unit } });
+    const { wrapper } = await mountApp('/events/11');
+
+    await wrapper.get('[data-test="sweep-31"]').trigger('click');
+    await settle();
+    expect(wrapper.get('[data-test="sweep-baseline-labels"]').text()).toContain('HV-A-open');
+    await wrapper.get('input[data-test="sweep-label"]').setValue('HV-B-open');
+    await settle();
+    expect(wrapper.get('[data-test="sweep-no-baseline-warning"]').text()).toContain('no baseline trace to compare with');
   });
 
   it('shows a range error in the session form as the value is typed, and posts nothing', async () => {
