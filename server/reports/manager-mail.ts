@@ -2,22 +2,32 @@
 // content. Pure: no I/O. Written for a tired manager at 3 a.m.: verdict first, short lines.
 import type { ScreeningReportData } from './report-data.js';
 import {
+  BASIS_LEGEND,
   PALETTE,
   PDF_ATTACHED_LINE,
-  RECOMMENDATION_MEANING,
   RECOMMENDATION_WORD,
   agreementInWords,
+  cautionsOf,
   caveatsInWords,
   decisiveReason,
   dutyInWords,
+  dutyOnlyWithoutTests,
+  engineRevisionOf,
   faultInWords,
+  followUpTimingNote,
   formatInstant,
+  onDutyOnlyPath,
   protectionSummary,
   proposedRestrictions,
   recommendationColour,
+  recommendationHeadWord,
+  recommendationMeaning,
+  rulesInWords,
   shortReason,
   shotsInWords,
+  stayedInService,
   testsInWords,
+  windingCurrentInWords,
 } from './report-text.js';
 
 export interface ManagerMail {
@@ -33,6 +43,8 @@ interface Section {
   items?: string[];
   /** Heading drawn as a warning (the proposal label). */
   note?: string;
+  /** Lines after the items (a legend, a timing note). */
+  after?: string[];
 }
 
 const oneLine = (s: string) => s.replace(/[\r\n\t]+/g, ' ').replace(/\s{2,}/g, ' ').trim();
@@ -44,9 +56,10 @@ export function escapeHtml(s: string): string {
 
 const GLYPH = { go: '✓', conditional: '▲', 'no-go': '✕' } as const;
 
-/** The subject: "[Gapsight] CONDITIONAL — KVP-HX-T2 (Harrow Cross): CHL capacitance shifted +3.42 %…". */
+/** The subject: "[Gapsight] CONDITIONAL — KVP-HX-T2 (Harrow Cross): CHL capacitance shifted +3.42 %…" (a unit in service:
+ * "NO-GO, take out of service for tests — …", "GO (in service) — …"). */
 export function managerMailSubject(d: ScreeningReportData): string {
-  const word = RECOMMENDATION_WORD[d.result.recommendation];
+  const word = recommendationHeadWord(d);
   const prefix = d.screening.comparison ? '[Gapsight] Comparison run, not for decision: ' : '[Gapsight] ';
   return oneLine(`${prefix}${word} — ${d.unit.serial} (${d.site.name}): ${shortReason(decisiveReason(d.result))}`);
 }
@@ -54,17 +67,17 @@ export function managerMailSubject(d: ScreeningReportData): string {
 function sections(d: ScreeningReportData): { headline: string; meaning: string; reason: string; body: Section[] } {
   const r = d.result;
   const tz = d.site.timeZone;
-  const word = RECOMMENDATION_WORD[r.recommendation];
+  const word = recommendationHeadWord(d);
   const position = d.unit.position ? `, ${d.unit.position}` : '';
   const headline = `${word} — ${d.unit.serial} (${d.site.name}${position})`;
-  const meaning = `${word}: ${RECOMMENDATION_MEANING[r.recommendation]}.`;
+  const meaning = `${RECOMMENDATION_WORD[r.recommendation]}: ${recommendationMeaning(d)}.`;
   const reason = `Why: ${decisiveReason(r)}`;
   const body: Section[] = [];
 
   if (d.screening.comparison) {
     body.push({
       title: 'Comparison run',
-      lines: [`Computed under criteria version ${d.screening.criteriaVersion} for comparison — not the basis of a decision.`],
+      lines: [`Computed under ${rulesInWords(d)} for comparison — not the basis of a decision.`],
     });
   }
 
@@ -73,7 +86,9 @@ function sections(d: ScreeningReportData): { headline: string; meaning: string; 
 
   const tf = r.throughFault;
   const faultLines = [`${faultInWords(d)}`, `${shotsInWords(d.case)}.`];
-  const duty = dutyInWords(r);
+  const winding = windingCurrentInWords(tf);
+  if (winding) faultLines.push(winding);
+  const duty = dutyInWords(r, d.case);
   if (duty) faultLines.push(duty);
   if (tf?.beyondCurve) faultLines.push('The fault went beyond the through-fault withstand curve.');
   if (d.event.faultedPhases) faultLines.push(`Faulted phases: ${d.event.faultedPhases}.`);
@@ -84,24 +99,29 @@ function sections(d: ScreeningReportData): { headline: string; meaning: string; 
   const timeLines = [
     `Fault: ${formatInstant(d.event.occurredAt, tz)}`,
     ...(d.case.postFault?.takenAt ? [`Post-fault tests: ${formatInstant(d.case.postFault.takenAt, tz)}`] : []),
-    `Screened: ${formatInstant(d.screening.computedAt, tz)}${computedBy}, criteria version ${d.screening.criteriaVersion}`,
+    `Screened: ${formatInstant(d.screening.computedAt, tz)}${computedBy}, ${rulesInWords(d)}${engineRevisionOf(r) < 2 ? ' (stored before rules revision 2)' : ''}`,
   ];
   body.push({ title: 'Times', lines: timeLines });
 
   const tests = testsInWords(d);
-  body.push({
-    title: 'Tests',
-    lines: [
-      `Done: ${tests.done.length ? tests.done.join('; ') : 'no post-fault tests yet'}.`,
-      `Outstanding: ${tests.outstanding.length ? tests.outstanding.join('; ') : 'none — the required set is complete'}.`,
-    ],
-  });
+  const dutyOnly = onDutyOnlyPath(d);
+  const noneOutstanding = dutyOnly
+    ? 'none required — the unit stayed in service and the fault was below the high-duty threshold (duty-only path)'
+    : 'none — the required set is complete';
+  const testLines = [
+    `Done: ${tests.done.length ? tests.done.join('; ') : 'no post-fault tests yet'}.`,
+    `Outstanding: ${tests.outstanding.length ? tests.outstanding.join('; ') : noneOutstanding}.`,
+  ];
+  if (dutyOnlyWithoutTests(d)) testLines.push('This go rests on the duty figures alone, with no post-fault tests.');
+  body.push({ title: 'Tests', lines: testLines });
 
   const agree = agreementInWords(r, d.criteria);
+  const basisKnown = r.indicators.some((i) => i.basis !== undefined);
   body.push({
     title: 'Where independent methods agree',
     lines: [agree.summary],
     items: agree.groups.map((g) => `${g.method}: ${g.items.join('; ')}`),
+    after: agree.groups.length && basisKnown ? [BASIS_LEGEND] : undefined,
   });
 
   body.push({ title: 'Data caveats', items: caveatsInWords(d) });
@@ -110,9 +130,10 @@ function sections(d: ScreeningReportData): { headline: string; meaning: string; 
   body.push({
     title: 'Proposed restrictions',
     note: 'PROPOSAL for your decision — not a decision; restrictions are yours to set under your procedures.',
-    items: proposedRestrictions(r.recommendation),
+    items: proposedRestrictions(r.recommendation, stayedInService(d)),
   });
-  body.push({ title: 'Follow-ups (proposed)', items: r.followUps.length ? r.followUps : ['None proposed.'] });
+  const timing = followUpTimingNote(d);
+  body.push({ title: 'Follow-ups (proposed)', items: r.followUps.length ? r.followUps : ['None proposed.'], after: timing ? [timing] : undefined });
 
   const testers = d.testers.length ? d.testers.map((t) => `${t.name} <${t.email}>`) : ['No tester recorded on the post-fault sessions.'];
   if (d.screening.computedBy && !d.testers.some((t) => t.email === d.screening.computedBy?.email)) {
@@ -120,7 +141,7 @@ function sections(d: ScreeningReportData): { headline: string; meaning: string; 
   }
   body.push({ title: 'Who tested — how to reach them', items: testers });
 
-  body.push({ title: 'Cautions', lines: r.cautions });
+  body.push({ title: 'Cautions', lines: cautionsOf(r) });
   body.push({ title: 'Open the event', lines: [d.eventUrl, 'Sign the decision off in Gapsight.', PDF_ATTACHED_LINE] });
 
   return { headline, meaning, reason, body };
@@ -133,6 +154,7 @@ function renderText(s: ReturnType<typeof sections>): string {
     if (sec.note) out.push(sec.note);
     for (const l of sec.lines ?? []) out.push(l);
     for (const i of sec.items ?? []) out.push(`- ${i}`);
+    for (const l of sec.after ?? []) out.push(l);
     out.push('');
   }
   out.push('— Gapsight');
@@ -174,6 +196,7 @@ function renderHtml(d: ScreeningReportData, s: ReturnType<typeof sections>): str
       for (const i of sec.items) parts.push(`<li>${e(i)}</li>`);
       parts.push('</ul>');
     }
+    for (const l of sec.after ?? []) parts.push(`<p style="margin:2px 0;color:${PALETTE.muted};font-size:12px;">${e(l)}</p>`);
     parts.push('</div>');
   }
   parts.push(`<p style="margin-top:16px;color:${PALETTE.muted};font-size:12px;">— Gapsight</p>`);

@@ -1,8 +1,8 @@
 // Words and numbers shared by the manager's e-mail and the PDF report: pure functions, no I/O.
 // The result JSON keeps full precision; everything here rounds for display the way the UI does.
 import type { GapsightCase } from '../../shared/schemas/case.js';
-import type { GapsightResult, Indicator, Level, Method, Recommendation } from '../../shared/schemas/result.js';
-import { corroboratingMethods, describeRequired } from '../../shared/screening/verdict.js';
+import type { Basis, GapsightResult, Indicator, Level, Method, Recommendation, ThroughFault } from '../../shared/schemas/result.js';
+import { CAUTIONS, corroboratingMethods, describeRequired, isDutyOnlyPath } from '../../shared/screening/verdict.js';
 import { criteriaV1, type Criteria } from '../../shared/screening/criteria.js';
 import { levelRank } from '../../shared/screening/levels.js';
 import { decisiveReason } from '../../shared/screening/reasons.js';
@@ -89,12 +89,22 @@ export const RECOMMENDATION_WORD: Record<Recommendation, string> = { go: 'GO', c
 export const LEVEL_WORD: Record<Level, string> = { ok: 'OK', watch: 'WATCH', investigate: 'INVESTIGATE', critical: 'CRITICAL' };
 export const levelAtLeast = (l: Level, min: Level) => levelRank(l) >= levelRank(min);
 
-/** What each recommendation means, in one line. */
+/** What each recommendation means, in one line, for a unit that tripped (see `recommendationMeaning` for one in service). */
 export const RECOMMENDATION_MEANING: Record<Recommendation, string> = {
   go: 'may be re-energised (with the follow-ups below)',
   conditional: 'release only with restrictions and the follow-ups below, or hold — your decision',
   'no-go': 'hold: do not re-energise',
 };
+
+/** The same for a unit that stayed in service (never "do not re-energise": it was never de-energised). */
+export const IN_SERVICE_MEANING: Record<Recommendation, string> = {
+  go: 'may stay in service (with the follow-ups below)',
+  conditional: 'keep in service only with restrictions and the follow-ups below, or take out of service for tests — your decision',
+  'no-go': 'take out of service for tests',
+};
+
+/** Words for a duty-only go that no post-fault test supports (case format, "Wording"). */
+export const DUTY_FIGURES_ALONE = 'this go rests on the duty figures alone, with no post-fault tests';
 
 /** Palette (levels never by colour alone: the word is always printed beside the colour). */
 export const PALETTE = {
@@ -156,6 +166,77 @@ const METHOD_WORDS: Record<Method, string> = {
 };
 export const methodWord = (m: string) => METHOD_WORDS[m as Method] ?? m;
 
+/** What an indicator compares, in words (rules revision 2). */
+export const BASIS_WORDS: Record<Basis, string> = {
+  change: 'against own baseline',
+  sisters: 'against sister units',
+  'phase-comparison': 'phase A vs C',
+  state: 'state',
+  duty: 'duty',
+};
+
+/** The basis of one indicator in words ("against own previous test" for a change against `previous`); null before revision 2. */
+export function basisWords(i: Indicator): string | null {
+  if (!i.basis) return null;
+  if (i.basis === 'change' && /pre-fault/i.test(i.reference ?? '')) return 'against own pre-fault sample';
+  if (i.basis === 'change' && (/FromPrevious/.test(i.key) || /previous/i.test(i.reference ?? ''))) return 'against own previous test';
+  return BASIS_WORDS[i.basis] ?? i.basis;
+}
+
+/** Legend of the basis words, for the PDF and the mail. */
+export const BASIS_LEGEND =
+  'Basis: against own baseline / previous test = a change of this unit (only changes, not low-confidence ones, count as agreement); against sister units = no own baseline (capped at investigate); phase A vs C = one phase against another, no baseline trace (capped at investigate); state = an absolute or nameplate value (informs, watch at most); duty = the through-fault duty. LOW CONFIDENCE = a change judged under a known doubt, named beside it.';
+
+/** An indicator as the corroboration rule reads it: a stored revision-1 indicator (no basis) counted as a change, as the
+ * revision-1 verdict that stored it did. */
+const asJudged = (i: Indicator): Indicator => (i.basis === undefined ? { ...i, basis: 'change' } : i);
+
+/** The rules revision a stored result was computed with (results without `engineRevision` are revision 1). */
+export const engineRevisionOf = (r: GapsightResult): number => r.engineRevision ?? 1;
+
+/** "criteria set 2, rules revision 2" — what the stored screening was computed with. */
+export function rulesInWords(d: ScreeningReportData): string {
+  return `criteria set ${d.screening.criteriaVersion}, rules revision ${engineRevisionOf(d.result)}`;
+}
+
+/** Whether the unit stayed in service through the event (`transformerTripped: false`; default tripped). */
+export function stayedInService(d: ScreeningReportData): boolean {
+  const tripped = d.case.fault?.transformerTripped ?? d.event.transformerTripped;
+  return tripped === false;
+}
+
+/** The duty-only path of the verdict: the unit stayed in service and the fault was not high duty (no tests required). */
+export function onDutyOnlyPath(d: ScreeningReportData): boolean {
+  return stayedInService(d) && isDutyOnlyPath(d.case, d.result.throughFault);
+}
+
+/** A duty-only go: on the duty-only path, go, and no post-fault reading set in the case. */
+export function dutyOnlyWithoutTests(d: ScreeningReportData): boolean {
+  // As the engine words it: no post-fault reading set at all (with one, the go rests on "the readings given" too).
+  return d.result.recommendation === 'go' && onDutyOnlyPath(d) && !d.case.postFault;
+}
+
+/** What the recommendation means for this unit, in one line (tripped or in service). */
+export function recommendationMeaning(d: ScreeningReportData): string {
+  const rec = d.result.recommendation;
+  if (!stayedInService(d)) return RECOMMENDATION_MEANING[rec];
+  if (dutyOnlyWithoutTests(d)) return `may stay in service (with the follow-ups below) — ${DUTY_FIGURES_ALONE}`;
+  return IN_SERVICE_MEANING[rec];
+}
+
+/** The recommendation word with what it means for a unit in service ("NO-GO, take out of service for tests"). */
+export function recommendationHeadWord(d: ScreeningReportData): string {
+  const word = RECOMMENDATION_WORD[d.result.recommendation];
+  if (!stayedInService(d)) return word;
+  return d.result.recommendation === 'no-go' ? `${word}, take out of service for tests` : `${word} (in service)`;
+}
+
+/** The cautions to print: the stored result's sentences, then any current caution they lack (older results stored fewer). */
+export function cautionsOf(r: GapsightResult): string[] {
+  const stored = r.cautions ?? [];
+  return [...stored, ...CAUTIONS.filter((c) => !stored.includes(c))];
+}
+
 
 /** A short label for an indicator key ("CHL capacitance shift vs baseline"); unknown keys are returned as they are. */
 export function indicatorLabel(key: string): string {
@@ -180,9 +261,12 @@ export function indicatorLabel(key: string): string {
       if (last === 'percent') return `Phase ${a} leakage reactance`;
       if (last === 'shiftPercent') return `Phase ${a} reactance shift vs baseline`;
       if (last === 'shiftFromPreviousPercent') return `Phase ${a} reactance shift vs previous test`;
+      if (last === 'deviationFromAveragePercent') return `Phase ${a} reactance vs the phases' mean`;
       break;
     case 'sweep': {
-      const label = p.slice(1, -1).join('.');
+      // Phase comparison without a baseline trace: sweep.<winding>.AC.<figure>
+      const ac = p.length === 4 && p[2] === 'AC' && ['hv', 'lv', 'tv'].includes(p[1]);
+      const label = ac ? `${p[1].toUpperCase()} phase A vs C` : p.slice(1, -1).join('.');
       const words: Record<string, string> = {
         correlation: 'correlation',
         rLF: 'relative factor, low band',
@@ -196,6 +280,7 @@ export function indicatorLabel(key: string): string {
     case 'duty': {
       const words: Record<string, string> = {
         eventDutyPercent: 'Event duty (of mechanical limit)',
+        thermalDurationPercent: "Shot time (of the thermal curve's allowed time)",
         forceRatioPercent: 'Force ratio (of design force)',
         shotsAboveSegment: 'Shots at or above segment start',
         cumulativeDutyPercent: 'Cumulative duty (Gapsight tally)',
@@ -229,6 +314,10 @@ export function indicatorLabel(key: string): string {
       };
       return `${what[0].toUpperCase()}${what.slice(1)} ${words[last] ?? last}`;
     }
+    case 'bushing':
+      if (last === 'c1ShiftPercent') return `Bushing ${a} C1 shift vs reference`;
+      if (last === 'c1Pf20RisePercent') return `Bushing ${a} C1 power factor rise`;
+      break;
     case 'dfFrequency':
       return `${a} dissipation over frequency: ${last}`;
   }
@@ -245,8 +334,13 @@ export function indicatorUnit(key: string): string {
   return '';
 }
 
-/** An indicator's value for display: rounded, with its unit; a null value shows its note. */
-export function indicatorValueText(i: Indicator): string {
+/** Words in place of the event duty's percentage of K for a thermal-region event (never told as a share of K). */
+export const THERMAL_REGION_DUTY = 'not applied: thermal region (below the high-duty threshold), see the time against the curve';
+
+/** An indicator's value for display: rounded, with its unit; a null value shows its note. With the through-fault
+ * figures given, a thermal-region event's `duty.eventDutyPercent` is not told as a share of the mechanical K. */
+export function indicatorValueText(i: Indicator, tf?: ThroughFault | null): string {
+  if (i.key === 'duty.eventDutyPercent' && tf && !tf.highDuty) return THERMAL_REGION_DUTY;
   if (i.value === null) return `— (${i.note ?? 'not computed'})`;
   if (typeof i.value === 'number') {
     const unit = indicatorUnit(i.key);
@@ -266,6 +360,9 @@ export function indicatorValueText(i: Indicator): string {
 export function shortReason(reason: string, max = 90): string {
   let s = reason.replace(/[\r\n]+/g, ' ').trim();
   let cut = false;
+  // The subject's head word already says "take out of service for tests": keep the finding itself.
+  const inService = /^Unit is still in service: take out of service for tests \((.*)\)$/.exec(s);
+  if (inService) s = inService[1];
   const internal = /^Internal protection operated \(([^)]*)\)/.exec(s);
   if (internal) {
     const names = internal[1].split(/,\s*/).map(protectionWord).join(', ');
@@ -300,7 +397,7 @@ export interface ProtectionSummary {
 export function protectionSummary(d: ScreeningReportData): ProtectionSummary {
   const operated = [...new Set([...(d.event.protectionOperated ?? []), ...(d.case.fault?.protectionOperated ?? [])])];
   const internal = operated.filter((p) => INTERNAL_PROTECTIONS.includes(p));
-  const tripped = d.event.transformerTripped ? 'the unit tripped' : 'the unit stayed in service';
+  const tripped = stayedInService(d) ? 'the unit stayed in service' : 'the unit tripped';
   let line: string;
   if (internal.length) {
     line = `Internal fault suspected: internal protection operated (${internal.map(protectionWord).join(', ')}); ${tripped}.`;
@@ -314,13 +411,22 @@ export function protectionSummary(d: ScreeningReportData): ProtectionSummary {
   return { operated, internal, internalSuspected: internal.length > 0, line };
 }
 
-/** The fault in plain words: "9.0 × rated, 89 % of the design force (IEEE category IV), the 2nd such fault since 2024". */
+/** What the per-unit current is a multiple of: the winding current (revision 2) or the line current (revision 1, or line-assumed). */
+export function currentWords(tf: ThroughFault): string {
+  if (tf.currentBasis === undefined) return 'rated line current';
+  if (tf.currentBasis === 'line-assumed') return 'rated line current, taken as the winding current';
+  return 'rated winding current';
+}
+
+/** The fault in plain words: "9.0 × rated winding current, 89 % of the design force (IEEE category IV), the 2nd such fault since 2024". */
 export function faultInWords(d: ScreeningReportData): string {
   const tf = d.result.throughFault;
   const type = FAULT_TYPE_WORDS[d.event.type] ?? d.event.type;
-  const where = `${type} fault, current measured on the ${d.event.side.toUpperCase()} side`;
+  const location = d.case.fault?.location;
+  const onOther = location !== undefined && location !== d.event.side ? `, fault on the ${location.toUpperCase()} side` : '';
+  const where = `${type} fault, current measured on the ${d.event.side.toUpperCase()} side${onOther}`;
   if (!tf) return `${where}; no fault current recorded, so no duty figures.`;
-  let s = `${formatPerUnit(tf.currentPerUnit)} × rated, ${formatCoarse(tf.forceRatioPercent)} % of the design force (IEEE category ${tf.category})`;
+  let s = `${formatPerUnit(tf.currentPerUnit)} × ${currentWords(tf)}, ${formatCoarse(tf.forceRatioPercent)} % of the design force (IEEE category ${tf.category})`;
   const since = d.event.priorHighDutySince ? new Date(d.event.priorHighDutySince) : null;
   const sinceYear = since && !Number.isNaN(since.getTime()) ? ` since ${since.getUTCFullYear()}` : '';
   const prior = d.event.priorHighDutyCount;
@@ -334,6 +440,23 @@ export function faultInWords(d: ScreeningReportData): string {
   return `${s}; ${where}.`;
 }
 
+/** How the winding current was obtained: the factor used and its basis (revision 2), or that revision 1 used the line current. */
+export function windingCurrentInWords(tf: ThroughFault | null): string | null {
+  if (!tf) return null;
+  const k = tf.windingCurrentFactor;
+  switch (tf.currentBasis) {
+    case undefined:
+      return 'Current: line current as measured — this result is from rules revision 1, before the winding-current conversion by the vector group; re-screen to apply it.';
+    case 'line-converted':
+      return `Winding current: line current converted by the vector group, factor ${k === null || k === undefined ? 'not recorded' : formatSignificant(k, 4)}.`;
+    case 'winding':
+      return `Winding current: given as winding current${typeof k === 'number' && formatSignificant(k, 4) !== '1' ? ` (factor ${formatSignificant(k, 4)} to per unit of the winding's own rated current)` : ''}.`;
+    case 'line-assumed':
+      return 'Winding current: line current used as it is — the winding current could not be derived; enter it or attach the relay record.';
+  }
+  return null;
+}
+
 /** The shots of the event ("6.3 kA for 0.12 s, 6.1 kA for 0.08 s"). */
 export function shotsInWords(c: GapsightCase): string {
   const shots = c.fault?.shots ?? [];
@@ -342,12 +465,36 @@ export function shotsInWords(c: GapsightCase): string {
   return `${shots.length} shot${shots.length === 1 ? '' : 's'}: ${list}`;
 }
 
-/** Duty in one line: event duty, curve, Gapsight tally. */
-export function dutyInWords(result: GapsightResult): string | null {
+/**
+ * Thermal-region duty as time against the allowed time: "0.35 s of the 14.2 s the curve allows (2.5 %)". The allowed
+ * time is read back from the stored `thermalDurationPercent` and the event's shot durations (no second computation).
+ * Null for a high-duty event (judged on I²t against K).
+ */
+export function thermalTimeInWords(tf: ThroughFault | null, c: GapsightCase): string | null {
+  if (!tf || tf.highDuty) return null;
+  const totalS = (c.fault?.shots ?? []).reduce((sum, s) => sum + s.durationS, 0);
+  const total = `${formatSignificant(totalS, 3)} s`;
+  const pct = tf.thermalDurationPercent;
+  if (typeof pct !== 'number') {
+    return `${total} of shots in total (the time the thermal curve allows was not stored with this result: rules revision 1)`;
+  }
+  if (pct === 0) return `${total} of shots; the thermal curve sets no time limit at this current (0 % of the allowed time)`;
+  if (totalS <= 0) return `${formatCoarse(pct)} % of the time the thermal curve allows`;
+  const allowedS = (100 * totalS) / pct;
+  return `${total} of the ${formatSignificant(allowedS, 3)} s the curve allows (${formatCoarse(pct)} %)`;
+}
+
+/** Duty in one line: high duty as I²t against K; thermal region as time against the allowed time; the Gapsight tally. */
+export function dutyInWords(result: GapsightResult, c: GapsightCase): string | null {
   const tf = result.throughFault;
   if (!tf) return null;
-  const curve = tf.beyondCurve ? 'BEYOND the through-fault curve' : 'within the through-fault curve';
-  return `Event duty ${formatCoarse(tf.eventDutyPercent)} % of the mechanical limit, ${curve}; cumulative ${formatCoarse(tf.cumulativeDutyPercent)} % (Gapsight tally, not an IEEE figure); ${tf.shotsAboveSegment} shot${tf.shotsAboveSegment === 1 ? '' : 's'} at or above the segment start.`;
+  const tally = `cumulative ${formatCoarse(tf.cumulativeDutyPercent)} % (Gapsight tally over this and prior faults, not an IEEE figure); ${tf.shotsAboveSegment} shot${tf.shotsAboveSegment === 1 ? '' : 's'} at or above the segment start.`;
+  if (tf.highDuty) {
+    const curve = tf.beyondCurve ? 'BEYOND the through-fault curve' : 'within the through-fault curve';
+    return `Event duty ${formatCoarse(tf.eventDutyPercent)} % of the mechanical limit (I²t ${formatSignificant(tf.i2t, 3)} of K = ${formatSignificant(tf.mechanicalLimitI2t, 3)} (× rated)²·s), ${curve}; ${tally}`;
+  }
+  const curve = tf.beyondCurve ? 'BEYOND the thermal curve' : 'within the thermal curve';
+  return `Thermal region (below the high-duty threshold): ${thermalTimeInWords(tf, c)}, ${curve}; ${tally}`;
 }
 
 const SECTION_WORDS: [string, string][] = [
@@ -362,6 +509,86 @@ const SECTION_WORDS: [string, string][] = [
   ['dissipationByFrequency', 'dissipation over frequency'],
 ];
 
+/** Words for a required or unreliable item named by its case field (`sweep.hv.B`, `sweep.<label>`, `turnsRatio`, …). */
+export function itemWords(item: string): string {
+  const bushing = /^bushings?\.(.+)$/.exec(item);
+  if (bushing) return `bushing ${bushing[1]}`;
+  return describeRequired(item);
+}
+
+/** Indicator key prefixes that belong to an item named by its case field. */
+function indicatorPrefixes(item: string): string[] {
+  if (item === 'turnsRatio') return ['ratio.'];
+  if (item === 'windingResistanceOhm') return ['resistance.'];
+  if (item === 'excitationCurrentMA') return ['excitation.'];
+  if (item === 'dissolvedGasPPM') return ['gas.'];
+  const bushing = /^bushings?\.(.+)$/.exec(item);
+  if (bushing) return [`bushing.${bushing[1]}.`];
+  const cap = /^capacitance\.(.+)$/.exec(item);
+  if (cap) return [`capacitance.${cap[1]}.`, `powerFactor.${cap[1]}.`];
+  return [`${item}.`];
+}
+
+const INSTRUCTION_NOTE = /repeat|implausible|demagneti|check the unit|check the connection/i;
+
+/** The part of an indicator note that says what to do (its "not judged" and data-quality parts left off). */
+function instructionFromNote(note: string): string {
+  return note
+    .split(/;\s+/)
+    .map((part) => part.replace(/:\s*not judged$/i, '').trim())
+    .filter((part) => part && !/^not judged$/i.test(part) && !/^data quality/i.test(part))
+    .filter((part, k, all) => INSTRUCTION_NOTE.test(part) || (k > 0 && INSTRUCTION_NOTE.test(all[k - 1])))
+    .join('; ');
+}
+
+export interface UnreliableItem {
+  /** The case field (`reactance.A`, `excitationCurrentMA`, `sweep.HV-B-open`). */
+  item: string;
+  words: string;
+  /** What to do: "repeat at tap 9b", "demagnetise and repeat; …", "check the unit of measure and the connection", … */
+  instruction: string;
+}
+
+/**
+ * Every unreliable item with its repeat instruction. The instruction is, in order: text the engine wrote after the field
+ * name in the list ("reactance.A: tap mismatch: repeat at tap 9b"), the item's own indicator note when it says what to
+ * do, what the case shows (tap positions, test voltage, a core not demagnetised), or "repeat the test".
+ */
+export function unreliableItems(d: ScreeningReportData): UnreliableItem[] {
+  const c = d.case;
+  return d.result.unreliable.map((entry) => {
+    const split = /^(\S+?):\s+(.+)$/.exec(entry);
+    const item = split ? split[1] : entry;
+    const words = itemWords(item);
+    if (split) return { item, words, instruction: split[2] };
+    const prefixes = indicatorPrefixes(item);
+    const note = d.result.indicators.find((i) => prefixes.some((p) => i.key.startsWith(p)) && i.note && INSTRUCTION_NOTE.test(i.note))?.note;
+    const instruction = note ? instructionFromNote(note) : '';
+    if (instruction) return { item, words, instruction };
+    const tap = (x: string | number | undefined) => (x === undefined ? undefined : String(x));
+    const bt = tap(c.baseline?.tapPosition);
+    const pt = tap(c.postFault?.tapPosition);
+    if (/^(reactance|turnsRatio|windingResistanceOhm)/.test(item) && bt !== undefined && pt !== undefined && bt !== pt) {
+      return { item, words, instruction: `tap mismatch (baseline ${bt}, post-fault ${pt}): repeat at tap ${bt}` };
+    }
+    if (item.startsWith('sweep.')) {
+      const trace = (c.sweeps ?? []).find((s) => s.label === item.slice('sweep.'.length));
+      const tt = tap(trace?.tapPosition);
+      const btt = tap(trace?.baselineTapPosition) ?? tt;
+      if (tt !== undefined && btt !== undefined && tt !== btt) return { item, words, instruction: `tap mismatch (baseline trace ${btt}, post-fault ${tt}): repeat at tap ${btt}` };
+      if (trace && trace.testType === 'open-circuit' && !trace.demagnetised) return { item, words, instruction: 'demagnetise and repeat' };
+    }
+    if (item === 'excitationCurrentMA') {
+      const pkv = c.postFault?.excitationKV;
+      const bkv = c.baseline?.excitationKV;
+      if (pkv !== undefined && bkv !== undefined && pkv !== bkv) return { item, words, instruction: `test voltage differs (baseline ${bkv} kV, post-fault ${pkv} kV): repeat at ${bkv} kV` };
+      if (!c.postFault?.demagnetised) return { item, words, instruction: 'demagnetise and repeat; take excitation and sweeps before DC tests' };
+    }
+    if (item.startsWith('capacitance.')) return { item, words, instruction: 'GST − GST-guard does not match UST: repeat the test' };
+    return { item, words, instruction: 'repeat the test' };
+  });
+}
+
 /** Tests done (post-fault sections present) and outstanding (missing and unreliable required items), in words. */
 export function testsInWords(d: ScreeningReportData): { done: string[]; outstanding: string[] } {
   const post = (d.case.postFault ?? {}) as Record<string, unknown>;
@@ -375,10 +602,17 @@ export function testsInWords(d: ScreeningReportData): { done: string[]; outstand
   const sweeps = (d.case.sweeps ?? []).filter((s) => s.postFault?.length);
   if (sweeps.length) done.push(`frequency-response sweep (${sweeps.length} trace${sweeps.length === 1 ? '' : 's'}: ${sweeps.map((s) => s.label).join(', ')})`);
   const outstanding = [
-    ...d.result.missing.map((m) => `${describeRequired(m)} (missing)`),
-    ...d.result.unreliable.map((u) => `${describeRequired(u)} (unreliable: repeat)`),
+    ...d.result.missing.map((m) => `${itemWords(m)} (missing)`),
+    ...unreliableItems(d).map((u) => `${u.words} (unreliable: ${u.instruction})`),
   ];
   return { done, outstanding };
+}
+
+/** A flagged indicator for a findings list: label, value, level, basis; low-confidence items marked with their doubt. */
+export function findingInWords(i: Indicator, tf?: ThroughFault | null): string {
+  const basis = basisWords(i);
+  const low = i.lowConfidence ? ` — LOW CONFIDENCE: ${i.note ?? 'judged under a known doubt'}` : '';
+  return `${indicatorLabel(i.key)} ${indicatorValueText(i, tf)} (${LEVEL_WORD[i.level]}${basis ? `, ${basis}` : ''})${low}`;
 }
 
 /** Where independent methods agree: flagged indicators grouped by method, plus the corroboration reason if any. */
@@ -388,12 +622,13 @@ export function agreementInWords(result: GapsightResult, criteria: Criteria = cr
   for (const i of flagged) byMethod.set(i.method, [...(byMethod.get(i.method) ?? []), i]);
   const groups = [...byMethod.entries()].map(([method, list]) => ({
     method: methodWord(method),
-    items: list.map((i) => `${indicatorLabel(i.key)} ${indicatorValueText(i)} (${LEVEL_WORD[i.level]})`),
+    items: list.map((i) => findingInWords(i, result.throughFault)),
   }));
   const corroboration = result.reasons.find((r) => /^Independent methods agree/.test(r));
-  // Which methods count as independent (and which are one test) is the criteria set's, as in the verdict.
+  // Which methods count as independent (and which are one test) is the criteria set's, as in the verdict; from rules
+  // revision 2 only changes that are not low-confidence count (state, duty and low-confidence items inform).
   const vc = criteria.verdict;
-  const independentFlagging = new Set<string>(corroboratingMethods(result.indicators, criteria));
+  const independentFlagging = new Set<string>(corroboratingMethods(result.indicators.map(asJudged), criteria));
   const tested = new Set(result.indicators.map((i) => vc.sameTestAs[i.method] ?? i.method).filter((m) => vc.independentMethods.includes(m as Method)));
   const quiet = [...tested].filter((m) => !independentFlagging.has(m)).map(methodWord);
   let summary: string;
@@ -405,15 +640,23 @@ export function agreementInWords(result: GapsightResult, criteria: Criteria = cr
   } else {
     summary = `Independent methods flag: ${[...independentFlagging].map(methodWord).join(', ')}.`;
   }
+  if (flagged.some((i) => i.basis === 'state' || i.lowConfidence)) {
+    summary = `${summary.replace(/[.\s]+$/, '')}. State and low-confidence items inform but do not count as agreement.`;
+  }
   return { groups, summary };
 }
 
-/** Data caveats: baseline age and source, sisters standing in, tap or temperature mismatch, unreliable items, notes. */
+/** Data caveats: rules revision, baseline age and source, sisters standing in, tap or temperature mismatch, low confidence, notes. */
 export function caveatsInWords(d: ScreeningReportData): string[] {
   const out: string[] = [];
   const c = d.case;
   const tz = d.site.timeZone;
   const source = d.baselineSource ?? 'factory or commissioning test';
+  if (engineRevisionOf(d.result) < 2) {
+    out.push(
+      `Stored result from rules revision ${engineRevisionOf(d.result)} (${rulesInWords(d)}): currents are line currents, findings carry no basis; re-screen to apply rules revision 2.`,
+    );
+  }
   if (c.baseline?.takenAt) {
     const years = wholeYears(c.baseline.takenAt, d.event.occurredAt);
     const age = years === null ? '' : years === 0 ? ', less than a year old' : `, ${years} year${years === 1 ? '' : 's'} old`;
@@ -424,14 +667,14 @@ export function caveatsInWords(d: ScreeningReportData): string[] {
     out.push("No baseline of its own: sister units' median stands in where at least 3 sisters have the quantity.");
   }
   if (c.previous?.takenAt) out.push(`Previous routine test: ${formatDay(c.previous.takenAt, tz)}.`);
-  const sisterRef = d.result.indicators.filter((i) => i.note?.includes("sisters' median as reference"));
+  const sisterRef = d.result.indicators.filter((i) => i.note?.includes("sisters' median as reference") || i.basis === 'sisters');
   if (sisterRef.length) {
     out.push(`Sisters' median stands in as the reference for: ${sisterRef.map((i) => indicatorLabel(i.key)).join(', ')} (such findings capped at investigate).`);
   }
   const bt = c.baseline?.tapPosition;
   const pt = c.postFault?.tapPosition;
   if (bt !== undefined && pt !== undefined && String(bt) !== String(pt)) {
-    out.push(`Tap position differs: baseline ${String(bt)}, post-fault ${String(pt)} — the post-fault reactance is not comparable.`);
+    out.push(`Tap position differs: baseline ${String(bt)}, post-fault ${String(pt)} — the post-fault reactance, turns ratio and winding resistance are not comparable.`);
   }
   const btC = c.baseline?.temperatureC;
   const ptC = c.postFault?.temperatureC;
@@ -440,21 +683,38 @@ export function caveatsInWords(d: ScreeningReportData): string[] {
   } else if (c.postFault && ptC === undefined) {
     out.push('Post-fault insulation temperature not recorded: power factor cannot be corrected to 20 °C.');
   }
-  for (const u of d.result.unreliable) out.push(`${describeRequired(u)}: unreliable — treated as missing; repeat the test.`);
+  // Unreliable items are listed with their instructions where the tests are (outstanding / missing and unreliable);
+  // an indicator note that only repeats such an instruction is not said again here.
+  const unreliable = unreliableItems(d);
+  const said = new Set(unreliable.map((u) => u.instruction));
   const notes = new Set<string>();
   for (const i of d.result.indicators) {
+    if (i.lowConfidence) {
+      notes.add(`${indicatorLabel(i.key)}: low confidence — ${i.note ?? 'judged under a known doubt'}`);
+      continue;
+    }
     if (!i.note || i.note.includes("sisters' median as reference")) continue;
     if (i.method === 'sisters') continue;
-    if (i.value === null || /tap|temperature|like with like|unreliable|repeat|demagneti/i.test(i.note)) notes.add(`${indicatorLabel(i.key)}: ${i.note}`);
+    if (said.has(instructionFromNote(i.note))) continue;
+    if (i.value === null || /tap|temperature|like with like|unreliable|\brepeat\b|demagneti|implausible/i.test(i.note)) notes.add(`${indicatorLabel(i.key)}: ${i.note}`);
   }
   out.push(...notes);
   return out;
 }
 
-/** Restrictions proposed to the manager (a proposal only; conservative and generic). */
-export function proposedRestrictions(rec: Recommendation): string[] {
+/** Restrictions proposed to the manager (a proposal only; conservative and generic), for a unit tripped or in service. */
+export function proposedRestrictions(rec: Recommendation, inService = false): string[] {
   if (rec === 'go') return ['None proposed beyond the follow-ups below.'];
   if (rec === 'conditional') {
+    if (inService) {
+      return [
+        'If you keep the unit in service, keep it with restrictions, for example:',
+        'reduced load (a limit set under your own procedures) until the follow-up results are in;',
+        'auto-reclosing blocked on the circuits that can feed a fault through this unit;',
+        'closer watch on the unit (gas-in-oil and temperature alarms) from now on.',
+        'Or take it out of service for tests until the open points are cleared.',
+      ];
+    }
     return [
       'If you release, release with restrictions, for example:',
       'reduced load (a limit set under your own procedures) until the follow-up results are in;',
@@ -463,7 +723,15 @@ export function proposedRestrictions(rec: Recommendation): string[] {
       'Or hold the unit until the open points are cleared.',
     ];
   }
+  if (inService) return ['Take out of service for tests; return it to service only when the reasons above are cleared and the unit is re-screened.'];
   return ['Hold: do not re-energise until the reasons above are cleared and the unit is re-screened.'];
+}
+
+/** For a unit that stayed in service whose stored follow-ups count from a re-energising (older results): count them from the event. */
+export function followUpTimingNote(d: ScreeningReportData): string | null {
+  if (!stayedInService(d)) return null;
+  if (!d.result.followUps.some((f) => /re-?energi/i.test(f))) return null;
+  return `The unit stayed in service: count these from the event (${formatDay(d.event.occurredAt, d.site.timeZone)}), not from a later switching — the first oil sample is due now.`;
 }
 
 export const PDF_ATTACHED_LINE = 'The PDF screening report is attached.';

@@ -3,26 +3,39 @@
 // Levels and recommendations are never shown by colour alone: the word is always printed.
 import type { CanvasElement, Column, Content, TDocumentDefinitions, TableCell } from 'pdfmake/interfaces.js';
 import type { Indicator, Level, ThroughFault } from '../../shared/schemas/result.js';
-import { describeRequired } from '../../shared/screening/verdict.js';
 import type { ScreeningReportData } from './report-data.js';
 import {
+  BASIS_LEGEND,
   LEVEL_WORD,
   PALETTE,
   RECOMMENDATION_LEVEL,
-  RECOMMENDATION_MEANING,
   RECOMMENDATION_WORD,
+  THERMAL_REGION_DUTY,
+  basisWords,
+  cautionsOf,
   caveatsInWords,
   decisiveReason,
+  dutyInWords,
+  dutyOnlyWithoutTests,
+  engineRevisionOf,
   faultInWords,
+  followUpTimingNote,
   formatInstant,
   formatSignificant,
   indicatorLabel,
   indicatorValueText,
+  itemWords,
   levelColour,
   methodWord,
+  onDutyOnlyPath,
   protectionSummary,
+  recommendationHeadWord,
+  recommendationMeaning,
+  rulesInWords,
   shotsInWords,
   testsInWords,
+  unreliableItems,
+  windingCurrentInWords,
 } from './report-text.js';
 
 const LEVEL_ORDER: Record<Level, number> = { critical: 0, investigate: 1, watch: 2, ok: 3 };
@@ -106,24 +119,56 @@ const tableLayout = {
 
 const heading = (text: string): Content => ({ text, style: 'h2' });
 
+const CURRENT_BASIS_WORDS: Record<string, string> = {
+  winding: 'given as winding current',
+  'line-converted': 'line current converted by the vector group',
+  'line-assumed': 'line current used as it is (winding current not derived)',
+};
+
 /** Labels and units of the through-fault fields (every field printed; unknown extra fields after these). */
-const THROUGH_FAULT_FIELDS: { key: keyof ThroughFault & string; label: string; unit: string; format?: (v: unknown) => string }[] = [
-  { key: 'category', label: 'IEEE C57.109 / C57.12.00 category', unit: '' },
-  { key: 'ratedCurrentA', label: 'Rated current (side measured)', unit: 'A' },
-  { key: 'currentPerUnit', label: 'Largest shot current', unit: '× rated' },
-  { key: 'maxCurrentPerUnit', label: 'Design maximum current', unit: '× rated' },
-  { key: 'forceRatioPercent', label: 'Force ratio (of the design force)', unit: '%' },
-  { key: 'segmentStartPerUnit', label: 'Mechanical segment start', unit: '× rated' },
-  { key: 'highDuty', label: 'High duty (at or above the segment start)', unit: '' },
-  { key: 'i2t', label: 'Event I²t', unit: '(× rated)²·s' },
-  { key: 'thermalLimitI2t', label: 'Thermal limit I²t', unit: '(× rated)²·s' },
-  { key: 'mechanicalLimitI2t', label: 'Mechanical limit I²t (K)', unit: '(× rated)²·s' },
-  { key: 'eventDutyPercent', label: 'Event duty (of the mechanical limit)', unit: '%' },
-  { key: 'beyondCurve', label: 'Beyond the through-fault curve', unit: '' },
-  { key: 'cumulativeI2t', label: 'Cumulative I²t — Gapsight tally (not an IEEE figure)', unit: '(× rated)²·s' },
-  { key: 'cumulativeDutyPercent', label: 'Cumulative duty — Gapsight tally (not an IEEE figure)', unit: '%' },
-  { key: 'shotsAboveSegment', label: 'Shots at or above the segment start (this and prior faults)', unit: 'shots' },
-];
+function throughFaultFields(tf: ThroughFault): { key: keyof ThroughFault & string; label: string; unit: string; value?: string }[] {
+  const revision2 = tf.currentBasis !== undefined;
+  const current = !revision2
+    ? 'Largest shot current (line current, rules revision 1)'
+    : tf.currentBasis === 'line-assumed'
+      ? 'Largest shot current (line current taken as winding current)'
+      : 'Largest shot current (winding current)';
+  return [
+    { key: 'category', label: 'IEEE C57.109 / C57.12.00 category', unit: '' },
+    { key: 'ratedCurrentA', label: 'Rated line current (side measured)', unit: 'A' },
+    { key: 'currentPerUnit', label: current, unit: '× rated' },
+    {
+      key: 'windingCurrentFactor',
+      label: 'Winding-current factor (winding = factor × line per unit)',
+      unit: '',
+      value: !revision2 ? '— (rules revision 1)' : tf.windingCurrentFactor === null || tf.windingCurrentFactor === undefined ? '— (unknown)' : undefined,
+    },
+    { key: 'currentBasis', label: `Current basis: ${!revision2 ? 'line current (rules revision 1)' : CURRENT_BASIS_WORDS[tf.currentBasis ?? ''] ?? String(tf.currentBasis)}`, unit: '', value: !revision2 ? '—' : undefined },
+    { key: 'maxCurrentPerUnit', label: 'Design maximum current', unit: '× rated' },
+    { key: 'forceRatioPercent', label: 'Force ratio (of the design force)', unit: '%' },
+    { key: 'segmentStartPerUnit', label: 'Mechanical segment start', unit: '× rated' },
+    { key: 'highDuty', label: 'High duty (at or above the segment start)', unit: '' },
+    { key: 'i2t', label: 'Event I²t', unit: '(× rated)²·s' },
+    { key: 'thermalLimitI2t', label: 'Thermal limit I²t', unit: '(× rated)²·s' },
+    { key: 'mechanicalLimitI2t', label: 'Mechanical limit I²t (K)', unit: '(× rated)²·s' },
+    {
+      key: 'eventDutyPercent',
+      label: 'Event duty (of the mechanical limit; high-duty events only)',
+      unit: tf.highDuty ? '%' : '',
+      value: tf.highDuty ? undefined : 'not applied',
+    },
+    {
+      key: 'thermalDurationPercent',
+      label: "Shot time (of the thermal curve's allowed time; below the high-duty threshold)",
+      unit: !tf.highDuty && typeof tf.thermalDurationPercent === 'number' ? '%' : '',
+      value: tf.highDuty ? '— (high duty)' : !revision2 && tf.thermalDurationPercent === undefined ? '— (rules revision 1)' : undefined,
+    },
+    { key: 'beyondCurve', label: 'Beyond the through-fault curve', unit: '' },
+    { key: 'cumulativeI2t', label: 'Cumulative I²t — Gapsight tally (not an IEEE figure)', unit: '(× rated)²·s' },
+    { key: 'cumulativeDutyPercent', label: 'Cumulative duty — Gapsight tally (not an IEEE figure)', unit: '%' },
+    { key: 'shotsAboveSegment', label: 'Shots at or above the segment start (this and prior faults)', unit: 'shots' },
+  ];
+}
 
 function fieldValue(v: unknown): string {
   if (typeof v === 'boolean') return v ? 'YES' : 'no';
@@ -133,7 +178,8 @@ function fieldValue(v: unknown): string {
 }
 
 function throughFaultTable(tf: ThroughFault): Content {
-  const known = new Set(THROUGH_FAULT_FIELDS.map((f) => f.key));
+  const fields = throughFaultFields(tf);
+  const known = new Set<string>(fields.map((f) => f.key));
   const rows: TableCell[][] = [
     [
       { text: 'Quantity', style: 'th' },
@@ -143,17 +189,17 @@ function throughFaultTable(tf: ThroughFault): Content {
     ],
   ];
   const record = tf as Record<string, unknown>;
-  for (const f of THROUGH_FAULT_FIELDS) {
-    rows.push([f.label, { text: fieldValue(record[f.key]), alignment: 'right' }, f.unit, { text: f.key, style: 'mono' }]);
+  for (const f of fields) {
+    rows.push([f.label, { text: f.value ?? fieldValue(record[f.key]), alignment: 'right' }, f.unit, { text: f.key, style: 'mono' }]);
   }
   for (const [k, v] of Object.entries(record)) {
-    if (known.has(k as keyof ThroughFault & string)) continue;
+    if (known.has(k)) continue;
     rows.push([k, { text: fieldValue(v), alignment: 'right' }, '', { text: k, style: 'mono' }]);
   }
-  return { table: { headerRows: 1, widths: ['*', 60, 70, 110], body: rows }, layout: tableLayout, style: 'table' };
+  return { table: { headerRows: 1, widths: ['*', 70, 60, 110], body: rows }, layout: tableLayout, style: 'table' };
 }
 
-function indicatorTable(indicators: readonly Indicator[]): Content {
+function indicatorTable(indicators: readonly Indicator[], tf: ThroughFault | null): Content {
   const sorted = indicators
     .map((i, n) => ({ i, n }))
     .sort((a, b) => LEVEL_ORDER[a.i.level] - LEVEL_ORDER[b.i.level] || a.n - b.n)
@@ -165,22 +211,26 @@ function indicatorTable(indicators: readonly Indicator[]): Content {
       { text: 'Level', style: 'th' },
       { text: 'Rule', style: 'th' },
       { text: 'Source', style: 'th' },
-      { text: 'Method', style: 'th' },
+      { text: 'Method / basis', style: 'th' },
     ],
   ];
   for (const i of sorted) {
-    const extra = [i.reference ? `vs ${i.reference}` : '', i.value !== null && i.note ? i.note : ''].filter(Boolean).join(' · ');
+    const valueText = indicatorValueText(i, tf);
+    const asWords = i.value === null || valueText === THERMAL_REGION_DUTY;
+    const extra = [i.reference ? `vs ${i.reference}` : '', i.value !== null && i.note && !i.lowConfidence ? i.note : ''].filter(Boolean).join(' · ');
+    const low = i.lowConfidence ? [{ text: `LOW CONFIDENCE: ${i.note ?? 'judged under a known doubt'}`, style: 'small', bold: true, color: PALETTE.watch }] : [];
+    const basis = basisWords(i);
     rows.push([
       { stack: [{ text: indicatorLabel(i.key), bold: i.level !== 'ok' }, { text: i.key, style: 'mono' }] },
-      { stack: [{ text: indicatorValueText(i), alignment: i.value === null ? 'left' : 'right' }, ...(extra ? [{ text: extra, style: 'small' }] : [])] },
+      { stack: [{ text: valueText, alignment: asWords ? 'left' : 'right', ...(asWords ? { style: 'small' } : {}) }, ...(extra ? [{ text: extra, style: 'small' }] : []), ...low] },
       levelCell(i.level),
       { text: i.rule, style: 'small' },
       { text: i.source, style: 'small' },
-      { text: methodWord(i.method), style: 'small' },
+      { stack: [{ text: methodWord(i.method), style: 'small' }, ...(basis ? [{ text: basis, style: 'small', italics: true, color: PALETTE.slate }] : [])] },
     ]);
   }
   return {
-    table: { headerRows: 1, dontBreakRows: true, widths: [112, 70, 54, '*', '*', 48], body: rows },
+    table: { headerRows: 1, dontBreakRows: true, widths: [108, 72, 54, '*', '*', 54], body: rows },
     layout: tableLayout,
     style: 'indicatorTable',
   };
@@ -211,6 +261,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
   const recLevel = RECOMMENDATION_LEVEL[rec];
   const recColour = levelColour(recLevel);
   const word = RECOMMENDATION_WORD[rec];
+  const headWord = recommendationHeadWord(d);
   const position = d.unit.position ? ` · ${d.unit.position}` : '';
   const content: Content[] = [];
 
@@ -224,7 +275,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
     ['Site', `${d.site.name} (time zone ${d.site.timeZone})`],
     ['Event', `#${d.event.id}: ${d.event.type} fault, ${d.event.side.toUpperCase()} side, ${formatInstant(d.event.occurredAt, tz)} — status ${d.event.status}`],
     ['Computed', `${formatInstant(d.screening.computedAt, tz)} by ${computedBy}`],
-    ['Criteria version', String(d.screening.criteriaVersion)],
+    ['Computed with', `${rulesInWords(d)}${engineRevisionOf(r) < 2 ? ' — stored before rules revision 2 (line currents, no basis per finding); re-screen to apply it' : ''}`],
     ['Screening', `#${d.screening.id}${d.screening.comparison ? ' (comparison run)' : ''}`],
     ['Event file', d.eventUrl],
   ];
@@ -237,7 +288,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
     content.push({
       table: {
         widths: ['*'],
-        body: [[{ text: `COMPARISON RUN — not the basis of a decision (criteria version ${d.screening.criteriaVersion}).`, bold: true, color: PALETTE.watch, margin: [6, 4, 6, 4] }]],
+        body: [[{ text: `COMPARISON RUN — not the basis of a decision (${rulesInWords(d)}).`, bold: true, color: PALETTE.watch, margin: [6, 4, 6, 4] }]],
       },
       layout: { hLineColor: () => PALETTE.watch, vLineColor: () => PALETTE.watch },
       margin: [0, 0, 0, 6],
@@ -256,8 +307,8 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
             color: '#ffffff',
             margin: [4, 6, 6, 6],
             stack: [
-              { text: `Recommendation: ${word}`, fontSize: 20, bold: true },
-              { text: `${word}: ${RECOMMENDATION_MEANING[rec]}.`, fontSize: 10, margin: [0, 2, 0, 0] },
+              { text: `Recommendation: ${headWord}`, fontSize: headWord === word ? 20 : 16, bold: true },
+              { text: `${word}: ${recommendationMeaning(d)}.`, fontSize: 10, margin: [0, 2, 0, 0] },
               { text: decisiveReason(r), fontSize: 10, bold: true, margin: [0, 2, 0, 0] },
             ],
           },
@@ -277,6 +328,10 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
   if (d.event.faultedPhases) content.push({ text: `Faulted phases: ${d.event.faultedPhases}.` });
   if (d.event.notes) content.push({ text: `Notes: ${d.event.notes}` });
   content.push(heading('Through-fault duty (IEEE C57.109)'));
+  const winding = windingCurrentInWords(r.throughFault);
+  if (winding) content.push({ text: winding, bold: r.throughFault?.currentBasis === 'line-assumed', color: r.throughFault?.currentBasis === 'line-assumed' ? PALETTE.watch : PALETTE.graphite });
+  const duty = dutyInWords(r, d.case);
+  if (duty) content.push({ text: duty, margin: [0, 0, 0, 4] });
   if (r.throughFault) content.push(throughFaultTable(r.throughFault));
   else content.push({ text: 'No fault current recorded: no duty figures.', italics: true });
 
@@ -286,11 +341,21 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
 
   // Missing and unreliable
   content.push(heading('Missing and unreliable items'));
-  if (!r.missing.length && !r.unreliable.length) content.push({ text: 'None: the required set is complete and consistent.' });
-  if (r.missing.length) content.push({ text: [{ text: 'Missing: ', bold: true }, r.missing.map((m) => `${describeRequired(m)} (${m})`).join(', ')] });
-  if (r.unreliable.length) content.push({ text: [{ text: 'Unreliable (repeat; treated as missing): ', bold: true }, r.unreliable.map((u) => `${describeRequired(u)} (${u})`).join(', ')] });
+  if (!r.missing.length && !r.unreliable.length) {
+    content.push({
+      text: onDutyOnlyPath(d)
+        ? 'None required: the unit stayed in service and the fault was below the high-duty threshold (duty-only path).'
+        : 'None: the required set is complete and consistent.',
+    });
+  }
+  if (r.missing.length) content.push({ text: [{ text: 'Missing: ', bold: true }, r.missing.map((m) => `${itemWords(m)} (${m})`).join(', ')] });
+  if (r.unreliable.length) {
+    content.push({ text: 'Unreliable (not judged; a required one counts as missing) — repeat as stated:', bold: true, margin: [0, 2, 0, 0] });
+    content.push({ ul: unreliableItems(d).map((u) => ({ text: [{ text: `${u.words} (${u.item})`, bold: true }, `: ${u.instruction}`] })) });
+  }
   const tests = testsInWords(d);
   content.push({ text: [{ text: 'Tests done: ', bold: true }, tests.done.length ? tests.done.join('; ') : 'no post-fault tests yet'], margin: [0, 2, 0, 0] });
+  if (dutyOnlyWithoutTests(d)) content.push({ text: 'This go rests on the duty figures alone, with no post-fault tests.', bold: true });
 
   // Data caveats
   content.push(heading('Data caveats'));
@@ -298,12 +363,16 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
 
   // Indicators
   content.push(heading('Indicators'));
-  content.push({ text: 'Flagged indicators first. Values rounded for reading; the stored result keeps full precision.', style: 'small', margin: [0, 0, 0, 3] });
-  content.push(r.indicators.length ? indicatorTable(r.indicators) : { text: 'No indicators computed.', italics: true });
+  content.push({ text: 'Flagged indicators first. Values rounded for reading; the stored result keeps full precision.', style: 'small', margin: [0, 0, 0, 1] });
+  if (r.indicators.some((i) => i.basis !== undefined)) content.push({ text: BASIS_LEGEND, style: 'small', color: PALETTE.muted, margin: [0, 0, 0, 3] });
+  else content.push({ text: `Basis per indicator not recorded: ${rulesInWords(d)}.`, style: 'small', color: PALETTE.muted, margin: [0, 0, 0, 3] });
+  content.push(r.indicators.length ? indicatorTable(r.indicators, r.throughFault) : { text: 'No indicators computed.', italics: true });
 
   // Follow-ups
   content.push(heading('Follow-ups (proposed)'));
   content.push(r.followUps.length ? { ul: [...r.followUps] } : { text: 'None proposed.' });
+  const timing = followUpTimingNote(d);
+  if (timing) content.push({ text: timing, italics: true, margin: [0, 2, 0, 0] });
 
   // Testers
   content.push(heading('Tested by'));
@@ -314,7 +383,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
   content.push({
     table: {
       widths: ['*'],
-      body: [[{ stack: r.cautions.map((c) => ({ text: c, margin: [0, 1, 0, 1] })), margin: [6, 4, 6, 4] }]],
+      body: [[{ stack: cautionsOf(r).map((c) => ({ text: c, margin: [0, 1, 0, 1] })), margin: [6, 4, 6, 4] }]],
     },
     layout: { hLineColor: () => PALETTE.slate, vLineColor: () => PALETTE.slate, hLineWidth: () => 1, vLineWidth: () => 1 },
     unbreakable: true,
@@ -325,7 +394,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
     pageSize: 'A4',
     pageMargins: [40, 40, 40, 44],
     info: {
-      title: `Gapsight screening report — ${d.unit.serial} (${d.site.name}) — ${word}`,
+      title: `Gapsight screening report — ${d.unit.serial} (${d.site.name}) — ${headWord}`,
       author: 'Gapsight',
       subject: `Screening #${d.screening.id}, event #${d.event.id}`,
       keywords: `screening ${d.screening.id}`,

@@ -1,7 +1,21 @@
 import { describe, expect, it } from 'vitest';
 import { buildManagerMail, escapeHtml } from '../../../server/reports/manager-mail.js';
 import { CAUTIONS } from '../../../shared/screening/verdict.js';
-import { exampleCaseReport, internalFaultReport, recentEventReport } from './report-fixtures.js';
+import {
+  deltaMeasuredReport,
+  doubtsReport,
+  dutyOnlyGoReport,
+  exampleCaseReport,
+  inServiceNoGoReport,
+  internalFaultReport,
+  lineAssumedReport,
+  recentEventReport,
+  storedRevision1InServiceReport,
+  storedRevision1Report,
+  thermalRegionReport,
+} from './report-fixtures.js';
+
+const count = (text: string, part: string) => text.split(part).length - 1;
 
 describe("manager's e-mail (buildManagerMail)", () => {
   it('puts the recommendation in capitals, the unit, the site and the first decisive reason (trimmed) in the subject', () => {
@@ -21,9 +35,10 @@ describe("manager's e-mail (buildManagerMail)", () => {
 
   it('says the fault in plain words with the right numbers: 9.0 × rated, 89 % of the design force, category, the 2nd such fault since 2024', () => {
     const m = buildManagerMail(recentEventReport());
-    const words = '9.0 × rated, 89 % of the design force (IEEE category IV), the 2nd such fault since 2024';
-    expect(m.text).toContain(words);
-    expect(m.html).toContain(escapeHtml(words));
+    // Revision 1 stored the line current, revision 2 the winding current (a three-phase fault: factor 1, the same number).
+    const words = /9\.0 × rated (line|winding) current, 89 % of the design force \(IEEE category IV\), the 2nd such fault since 2024/;
+    expect(m.text).toMatch(words);
+    expect(m.html).toMatch(words);
     expect(m.text).toContain('2 shots: 6.3 kA for 0.12 s, 6.1 kA for 0.08 s');
     expect(m.text).toMatch(/cumulative 12 % \(Gapsight tally/);
   });
@@ -53,7 +68,7 @@ describe("manager's e-mail (buildManagerMail)", () => {
     const d = recentEventReport();
     d.result = { ...d.result, missing: ['sweep', 'dissolvedGasPPM'], unreliable: ['reactance.B'] };
     const text = buildManagerMail(d).text;
-    expect(text).toContain('Outstanding: sweep (missing); dissolved gases (missing); reactance phase B (unreliable: repeat)');
+    expect(text).toContain('Outstanding: sweep (missing); dissolved gases (missing); reactance phase B (unreliable: repeat the test)');
   });
 
   it('says where independent methods agree (flagged indicators by method) and repeats the corroboration reason', () => {
@@ -64,7 +79,8 @@ describe("manager's e-mail (buildManagerMail)", () => {
     const corroborated = buildManagerMail(exampleCaseReport('no-go-readings'));
     expect(corroborated.subject).toMatch(/^\[Gapsight\] NO-GO — KVP-MB-T2 \(Millbrook\): Independent methods agree/);
     expect(corroborated.text).toContain('Independent methods agree (capacitance, reactance, gas): level raised from investigate to critical');
-    expect(corroborated.text).toContain('- leakage reactance: Phase B reactance shift vs baseline +2.3 % (INVESTIGATE)');
+    // The example result may be stored under rules revision 1 (no basis) or 2 (basis named).
+    expect(corroborated.text).toMatch(/- leakage reactance: Phase B reactance shift vs baseline \+2\.3 % \(INVESTIGATE(, against own baseline)?\)/);
   });
 
   it('lists the data caveats: baseline age and source, sisters standing in, tap mismatch and unreliable items', () => {
@@ -82,7 +98,7 @@ describe("manager's e-mail (buildManagerMail)", () => {
     d.result = { ...d.result, unreliable: ['reactance.A', 'reactance.B', 'reactance.C'] };
     const tap = buildManagerMail(d).text;
     expect(tap).toContain('Tap position differs: baseline 9b, post-fault 11');
-    expect(tap).toContain('reactance phase B: unreliable — treated as missing; repeat the test.');
+    expect(tap).toContain('reactance phase B (unreliable: tap mismatch (baseline 9b, post-fault 11): repeat at tap 9b)');
   });
 
   it('lists every reason, the follow-ups, and a clearly labelled proposal of restrictions for a conditional', () => {
@@ -98,8 +114,8 @@ describe("manager's e-mail (buildManagerMail)", () => {
   it('carries every caution sentence verbatim (text and HTML), the testers with their e-mails, the link and the PDF line', () => {
     const d = recentEventReport();
     const m = buildManagerMail(d);
-    expect(d.result.cautions).toEqual([...CAUTIONS]);
-    for (const c of d.result.cautions) {
+    expect(CAUTIONS).toHaveLength(5);
+    for (const c of CAUTIONS) {
       expect(m.text).toContain(c);
       expect(m.html).toContain(escapeHtml(c));
     }
@@ -153,5 +169,169 @@ describe("manager's e-mail (buildManagerMail)", () => {
     const m = buildManagerMail(d);
     expect(m.subject).toContain('Comparison run, not for decision');
     expect(m.text).toContain('not the basis of a decision');
+  });
+});
+
+describe("manager's e-mail under rules revision 2", () => {
+  it('tells the winding current, the factor and its basis: line current converted by the vector group, factor 1.732', () => {
+    const m = buildManagerMail(deltaMeasuredReport());
+    // 0.35 kA on the 66 kV side of 12 MVA = 3.33 × rated line current; × √3 (ground fault on the yn side, seen from the delta) = 5.77.
+    expect(m.text).toContain('5.8 × rated winding current, 28 % of the design force (IEEE category III), the first such fault on record');
+    expect(m.text).toContain('current measured on the HV side, fault on the LV side');
+    expect(m.text).toContain('Winding current: line current converted by the vector group, factor 1.732.');
+    expect(m.html).toContain(escapeHtml('Winding current: line current converted by the vector group, factor 1.732.'));
+  });
+
+  it('says when the current was given as winding current', () => {
+    const d = deltaMeasuredReport();
+    d.case = { ...d.case, fault: { ...d.case.fault!, currentIs: 'winding' } };
+    d.result = { ...d.result, throughFault: { ...d.result.throughFault!, windingCurrentFactor: 1, currentBasis: 'winding' } };
+    const text = buildManagerMail(d).text;
+    expect(text).toContain('Winding current: given as winding current.');
+    expect(text).not.toContain('converted by the vector group');
+  });
+
+  it('asks for the winding current or the relay record when it could not be derived (line-assumed)', () => {
+    const m = buildManagerMail(lineAssumedReport());
+    expect(m.text).toContain('8.3 × rated line current, taken as the winding current, 76 % of the design force');
+    expect(m.text).toContain(
+      'Winding current: line current used as it is — the winding current could not be derived; enter it or attach the relay record.',
+    );
+    expect(m.text).not.toContain('× rated winding current,');
+  });
+
+  it('tells thermal-region duty as time against the allowed time, never as a share of the mechanical K', () => {
+    const m = buildManagerMail(thermalRegionReport());
+    // 0.2 s + 0.15 s = 0.35 s; thermalDurationPercent 0.4072 → allowed 0.35 / 0.004072 = 85.9 s.
+    expect(m.text).toContain('Thermal region (below the high-duty threshold): 0.35 s of the 85.9 s the curve allows (0.41 %), within the thermal curve');
+    expect(m.text).not.toMatch(/of the mechanical limit|Event duty|% of K/);
+    expect(m.text).not.toContain('3.3 %'); // eventDutyPercent 3.35 is not told in words
+    expect(m.text).toContain('4.3 × rated winding current, 20 % of the design force (IEEE category IV) — below the high-duty threshold of 4.76 × rated');
+  });
+
+  it('keeps I²t against K for a high-duty event', () => {
+    const text = buildManagerMail(deltaMeasuredReport()).text;
+    expect(text).toContain('Event duty 4.4 % of the mechanical limit (I²t 10.3 of K = 236 (× rated)²·s), within the through-fault curve');
+    expect(text).not.toContain('Thermal region');
+  });
+
+  it('gives the basis of each finding in words and marks low-confidence items with their note', () => {
+    const m = buildManagerMail(doubtsReport());
+    expect(m.text).toContain('CHL capacitance shift vs baseline +3.42 % (INVESTIGATE, against own baseline)');
+    expect(m.text).toContain('CHL capacitance shift vs previous test +3.16 % (INVESTIGATE, against own previous test)');
+    expect(m.text).toContain('Phase A turns ratio vs nameplate +0.62 % (WATCH, state)');
+    expect(m.text).toContain(
+      'CHL power factor rise vs baseline +62 % (WATCH, against own baseline) — LOW CONFIDENCE: temperature correction uncertain (insulation 12 °C and 31 °C)',
+    );
+    expect(m.text).toContain('CHL capacitance modified z among sisters +8.57 (WATCH, state)');
+    expect(m.html).toContain(escapeHtml('(WATCH, against own baseline) — LOW CONFIDENCE: temperature correction uncertain'));
+    expect(m.text).toContain('Basis: against own baseline / previous test = a change of this unit');
+  });
+
+  it('does not count state or low-confidence items as independent methods that agree', () => {
+    const text = buildManagerMail(doubtsReport()).text;
+    // Capacitance is a change; the turns ratio flag is a state (nameplate) item and the PF rise is low-confidence.
+    expect(text).toContain('Only one independent method flags (capacitance)');
+    expect(text).toContain('State and low-confidence items inform but do not count as agreement.');
+    expect(text).not.toContain('Independent methods flag: capacitance, turns ratio');
+  });
+
+  it('lists every unreliable item with its repeat instruction (tap mismatch, remanence, implausible value), once', () => {
+    const text = buildManagerMail(doubtsReport()).text;
+    const outstanding = text.split('\n').find((l) => l.startsWith('Outstanding: '))!;
+    expect(outstanding).toContain('reactance phase B (unreliable: tap mismatch (baseline at tap 9b, post-fault at 11): repeat at tap 9b)');
+    expect(outstanding).toContain(
+      'excitation current (unreliable: all phases moved the same way on a core not demagnetised (residual magnetism likely): demagnetise and repeat; take excitation and sweeps before DC tests)',
+    );
+    expect(outstanding).toContain('CL capacitance (unreliable: implausible against the reference — check the unit of measure and the connection)');
+    expect(outstanding).toContain('sweep HV-B-short (unreliable: tap mismatch (baseline trace 9b, post-fault 11): repeat at tap 9b)');
+    // Said once: the indicator notes that carry the same instruction are not repeated among the caveats.
+    expect(count(text, 'post-fault at 11): repeat at tap 9b')).toBe(3);
+    expect(text).toContain('Tap position differs: baseline 9b, post-fault 11');
+  });
+
+  it('names the criteria set and the rules revision the stored screening was computed with', () => {
+    expect(buildManagerMail(thermalRegionReport()).text).toMatch(/Screened: .*, criteria set 2, rules revision 2\n/);
+    const old = buildManagerMail(storedRevision1Report()).text;
+    expect(old).toMatch(/Screened: .*, criteria set 1, rules revision 1 \(stored before rules revision 2\)\n/);
+    expect(old).toContain('Stored result from rules revision 1 (criteria set 1, rules revision 1): currents are line currents');
+    expect(old).toContain('9.0 × rated line current, 89 % of the design force');
+    expect(old).toContain('Current: line current as measured — this result is from rules revision 1');
+    expect(old).not.toContain('Basis: against own baseline'); // no basis recorded, so no legend
+  });
+
+  it('a unit that stayed in service and gets a no-go: "take out of service for tests", never "do not re-energise"', () => {
+    const d = inServiceNoGoReport();
+    const m = buildManagerMail(d);
+    expect(m.subject).toBe(
+      '[Gapsight] NO-GO, take out of service for tests — KVP-MB-T4 (Millbrook): CHL capacitance shifted +5.49 %…',
+    );
+    expect(m.text.split('\n').slice(0, 2).join('\n')).toContain('NO-GO: take out of service for tests.');
+    expect(m.text).toContain('Take out of service for tests; return it to service only when the reasons above are cleared');
+    expect(m.text).toContain('the unit stayed in service');
+    for (const out of [m.subject, m.text, m.html]) {
+      expect(out).not.toMatch(/do not re-?energi[sz]e/i);
+      expect(out).not.toMatch(/\bhold\b/i);
+    }
+    for (const f of d.result.followUps) expect(m.text).toContain(f);
+  });
+
+  it('a conditional for a unit in service proposes to keep it in service with restrictions or take it out for tests', () => {
+    const d = inServiceNoGoReport();
+    d.result = { ...d.result, recommendation: 'conditional', overallLevel: 'investigate' };
+    const m = buildManagerMail(d);
+    expect(m.subject).toMatch(/^\[Gapsight\] CONDITIONAL \(in service\) — KVP-MB-T4/);
+    expect(m.text).toContain('CONDITIONAL: keep in service only with restrictions and the follow-ups below, or take out of service for tests — your decision.');
+    expect(m.text).toContain('If you keep the unit in service, keep it with restrictions, for example:');
+    expect(m.text).not.toMatch(/re-?energi[sz]ing\.|after re-energising|If you release/);
+  });
+
+  it('a duty-only go says it rests on the duty figures alone, with no post-fault tests', () => {
+    const m = buildManagerMail(dutyOnlyGoReport());
+    expect(m.subject).toMatch(/^\[Gapsight\] GO \(in service\) — KVP-MB-T4 \(Millbrook\): /);
+    expect(m.text).toContain('GO: may stay in service (with the follow-ups below) — this go rests on the duty figures alone, with no post-fault tests.');
+    expect(m.text).toContain('Done: no post-fault tests yet.');
+    expect(m.text).toContain('Outstanding: none required — the unit stayed in service and the fault was below the high-duty threshold (duty-only path).');
+    expect(m.text).not.toMatch(/may be re-energised|required set is complete/);
+    expect(m.text).toContain('Dissolved-gas sample now (the unit stayed in service)');
+  });
+
+  it('an in-service go with a post-fault oil sample does not claim to rest on the duty figures alone', () => {
+    const d = dutyOnlyGoReport();
+    d.case = { ...d.case, postFault: { takenAt: '2026-11-13', dissolvedGasPPM: { H2: 14, CH4: 7, C2H6: 4, C2H4: 2, C2H2: 0, CO: 190, CO2: 1540 } } };
+    // As the engine words it with a post-fault set: "the duty figures and the readings given".
+    d.result = {
+      ...d.result,
+      reasons: [
+        'Unit stayed in service and the fault was not high duty (3.5 × rated winding current, 0.18 s of the 176 s the thermal curve allows): the recommendation rests on the duty figures and the readings given; dissolved-gas samples now and again at 24 h',
+        'No indicator at watch or above',
+      ],
+    };
+    const m = buildManagerMail(d);
+    expect(m.text).toContain('GO: may stay in service (with the follow-ups below).');
+    expect(m.text).toContain('Done: dissolved gases (oil sample).');
+    for (const out of [m.subject, m.text, m.html]) expect(out).not.toContain('duty figures alone');
+  });
+
+  it('an older stored result of a unit in service: follow-ups counted from the event, not from a re-energising', () => {
+    const text = buildManagerMail(storedRevision1InServiceReport()).text;
+    expect(text).toContain('Dissolved-gas sample 24 h after re-energising'); // the stored follow-up, unchanged
+    expect(text).toContain('The unit stayed in service: count these from the event (2026-11-12), not from a later switching — the first oil sample is due now.');
+    expect(text).toContain('GO: may stay in service');
+    expect(text).not.toContain('may be re-energised');
+    // A revision-2 result that counts from the event needs no such note.
+    expect(buildManagerMail(dutyOnlyGoReport()).text).not.toContain('count these from the event');
+  });
+
+  it('prints all five cautions verbatim, once each, for a stored revision-1 result (three stored) and a revision-2 one', () => {
+    expect(storedRevision1Report().result.cautions).toHaveLength(3);
+    for (const d of [storedRevision1Report(), thermalRegionReport(), inServiceNoGoReport()]) {
+      const m = buildManagerMail(d);
+      for (const c of CAUTIONS) {
+        expect(count(m.text, c)).toBe(1);
+        expect(count(m.html, escapeHtml(c))).toBe(1);
+      }
+    }
+    expect(buildManagerMail(storedRevision1Report()).text).toContain('A go cannot rule out deformation that the tests taken cannot see.');
   });
 });

@@ -2,10 +2,23 @@ import { describe, expect, it } from 'vitest';
 import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces.js';
 import { renderPdf } from '../../../server/reports/pdf.js';
 import { buildReportDocDefinition, PDF_GLYPH_SUBSTITUTES } from '../../../server/reports/screening-report.js';
+import { CAUTIONS } from '../../../shared/screening/verdict.js';
 
 // What the PDF prints for a text: characters the bundled font lacks are substituted.
 const printed = (s: string) => [...s].map((ch) => PDF_GLYPH_SUBSTITUTES[ch] ?? ch).join('');
-import { exampleCaseReport, internalFaultReport, recentEventReport } from './report-fixtures.js';
+import {
+  deltaMeasuredReport,
+  doubtsReport,
+  dutyOnlyGoReport,
+  exampleCaseReport,
+  inServiceNoGoReport,
+  internalFaultReport,
+  lineAssumedReport,
+  recentEventReport,
+  storedRevision1InServiceReport,
+  storedRevision1Report,
+  thermalRegionReport,
+} from './report-fixtures.js';
 
 const PRESENTATION_KEYS = new Set(['style', 'color', 'fillColor', 'alignment', 'lineColor', 'lineCap', 'type', 'widths', 'layout', 'font']);
 
@@ -49,14 +62,14 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
     expect(text).toContain('KVP-HX-T2 · T2 · Harrow Cross');
     expect(text).toMatch(/#318: three-phase fault, LV side, 2026-11-28 03:12 Europe\/London \(UTC\+00:00\)/);
     expect(text).toContain('2026-11-29 14:05 Europe/London (UTC+00:00) by Priya Natarajan <priya.natarajan@kestrel-valley.example>');
-    expect(text).toMatch(/Criteria version\n1\n/);
+    expect(text).toMatch(/Computed with\ncriteria set 1, rules revision \d/);
     expect(text).not.toContain('COMPARISON RUN');
   });
 
   it('says a comparison run is not the basis of a decision', () => {
     const d = recentEventReport();
     d.screening = { ...d.screening, comparison: true, criteriaVersion: 2 };
-    expect(allText(buildReportDocDefinition(d))).toContain('COMPARISON RUN — not the basis of a decision (criteria version 2).');
+    expect(allText(buildReportDocDefinition(d))).toMatch(/COMPARISON RUN — not the basis of a decision \(criteria set 2, rules revision \d\)\./);
   });
 
   it('has a verdict banner with the recommendation word (never colour alone) and the one-line reason', () => {
@@ -111,6 +124,7 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
     const def = buildReportDocDefinition(d);
     const text = allText(def);
     for (const c of d.result.cautions) expect(text).toContain(c);
+    for (const c of CAUTIONS) expect(text).toContain(c);
     const box = (def.content as Content[]).find(
       (c) => typeof c === 'object' && c !== null && 'table' in c && JSON.stringify(c).includes(d.result.cautions[0]),
     );
@@ -137,6 +151,109 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
   });
 });
 
+describe('PDF screening report under rules revision 2', () => {
+  it('renders every revision-2 fixture and the stored revision-1 results', async () => {
+    const all = [lineAssumedReport, deltaMeasuredReport, thermalRegionReport, inServiceNoGoReport, dutyOnlyGoReport, doubtsReport, storedRevision1Report, storedRevision1InServiceReport];
+    for (const make of all) {
+      const pdf = await renderPdf(buildReportDocDefinition(make()));
+      expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    }
+  });
+
+  it('names the criteria set and rules revision in the title block; a revision-1 result says it predates revision 2', () => {
+    expect(allText(buildReportDocDefinition(thermalRegionReport()))).toContain('Computed with\ncriteria set 2, rules revision 2\n');
+    expect(allText(buildReportDocDefinition(storedRevision1Report()))).toContain(
+      'Computed with\ncriteria set 1, rules revision 1 — stored before rules revision 2 (line currents, no basis per finding); re-screen to apply it',
+    );
+  });
+
+  it('prints the winding current with its factor and basis, in words and in the through-fault table', () => {
+    const text = allText(buildReportDocDefinition(deltaMeasuredReport()));
+    expect(text).toContain('5.8 × rated winding current, 28 % of the design force');
+    expect(text).toContain('Winding current: line current converted by the vector group, factor 1.732.');
+    expect(text).toContain('Largest shot current (winding current)\n5.775\n× rated\ncurrentPerUnit');
+    expect(text).toContain('Winding-current factor (winding = factor × line per unit)\n1.732\n\nwindingCurrentFactor');
+    expect(text).toContain('Current basis: line current converted by the vector group\nline-converted\n\ncurrentBasis');
+
+    const assumed = allText(buildReportDocDefinition(lineAssumedReport()));
+    expect(assumed).toContain('Winding current: line current used as it is — the winding current could not be derived; enter it or attach the relay record.');
+    expect(assumed).toContain('Winding-current factor (winding = factor × line per unit)\n— (unknown)\n');
+    expect(assumed).toContain('Largest shot current (line current taken as winding current)');
+  });
+
+  it('tells thermal-region duty as time against the allowed time; the share of K is not applied', () => {
+    const d = thermalRegionReport();
+    const text = allText(buildReportDocDefinition(d));
+    expect(text).toContain('0.35 s of the 85.9 s the curve allows (0.41 %), within the thermal curve');
+    expect(text).toContain('Event duty (of the mechanical limit; high-duty events only)\nnot applied\n\neventDutyPercent');
+    expect(text).toContain("Shot time (of the thermal curve's allowed time; below the high-duty threshold)\n0.4072\n%\nthermalDurationPercent");
+    expect(text).toContain('not applied: thermal region (below the high-duty threshold), see the time against the curve'); // duty.eventDutyPercent row
+    expect(text).not.toContain('3.35'); // eventDutyPercent, not told for a thermal-region event
+    expect(text).not.toContain('of the mechanical limit (I²t');
+
+    const high = allText(buildReportDocDefinition(deltaMeasuredReport()));
+    expect(high).toContain('Event duty 4.4 % of the mechanical limit (I²t 10.3 of K = 236 (× rated)²·s)');
+    expect(high).toContain('Event duty (of the mechanical limit; high-duty events only)\n4.378\n%\neventDutyPercent');
+    expect(high).toContain("Shot time (of the thermal curve's allowed time; below the high-duty threshold)\n— (high duty)\n\nthermalDurationPercent");
+  });
+
+  it('gives every indicator its basis in words, marks low-confidence items with their note, and explains the words', () => {
+    const text = allText(buildReportDocDefinition(doubtsReport()));
+    expect(text).toContain('Method / basis');
+    expect(text).toMatch(/capacitance\.CHL\.shiftPercent[\s\S]*?capacitance\nagainst own baseline\n/);
+    expect(text).toMatch(/capacitance\.CHL\.shiftFromPreviousPercent[\s\S]*?capacitance\nagainst own previous test\n/);
+    expect(text).toMatch(/ratio\.A\.deviationFromNameplatePercent[\s\S]*?turns ratio\nstate\n/);
+    expect(text).toMatch(/duty\.eventDutyPercent[\s\S]*?through-fault duty\nduty\n/);
+    expect(text).toContain('LOW CONFIDENCE: temperature correction uncertain (insulation 12 °C and 31 °C)');
+    expect(text).toContain('Basis: against own baseline / previous test = a change of this unit');
+    expect(allText(buildReportDocDefinition(thermalRegionReport()))).toMatch(/sweep\.hv\.AC\.class[\s\S]*?frequency-response sweep\nphase A vs C\n/);
+    expect(allText(buildReportDocDefinition(thermalRegionReport()))).toContain('Sweep HV phase A vs C DL/T 911 class');
+    // Revision 1: no basis recorded, said once above the table.
+    expect(allText(buildReportDocDefinition(storedRevision1Report()))).toContain('Basis per indicator not recorded: criteria set 1, rules revision 1.');
+  });
+
+  it('lists the unreliable items with their repeat instructions', () => {
+    const text = allText(buildReportDocDefinition(doubtsReport()));
+    expect(text).toContain('reactance phase A (reactance.A)\n: tap mismatch (baseline at tap 9b, post-fault at 11): repeat at tap 9b');
+    expect(text).toContain(
+      'excitation current (excitationCurrentMA)\n: all phases moved the same way on a core not demagnetised (residual magnetism likely): demagnetise and repeat; take excitation and sweeps before DC tests',
+    );
+    expect(text).toContain('CL capacitance (capacitance.CL)\n: implausible against the reference — check the unit of measure and the connection');
+    expect(text).toContain('sweep HV-B-short (sweep.HV-B-short)\n: tap mismatch (baseline trace 9b, post-fault 11): repeat at tap 9b');
+  });
+
+  it('a unit in service with a no-go reads "take out of service for tests", never "do not re-energise"', () => {
+    const text = allText(buildReportDocDefinition(inServiceNoGoReport()));
+    expect(text).toContain('Recommendation: NO-GO, take out of service for tests');
+    expect(text).toContain('NO-GO: take out of service for tests.');
+    expect(text).not.toMatch(/do not re-?energi[sz]e/i);
+    // A unit that tripped keeps the hold wording.
+    expect(allText(buildReportDocDefinition(internalFaultReport()))).toContain('NO-GO: hold: do not re-energise.');
+  });
+
+  it('a duty-only go says it rests on the duty figures alone, with no post-fault tests', () => {
+    const text = allText(buildReportDocDefinition(dutyOnlyGoReport()));
+    expect(text).toContain('Recommendation: GO (in service)');
+    expect(text).toContain('GO: may stay in service (with the follow-ups below) — this go rests on the duty figures alone, with no post-fault tests.');
+    expect(text).toContain('None required: the unit stayed in service and the fault was below the high-duty threshold (duty-only path).');
+    expect(text).toContain('This go rests on the duty figures alone, with no post-fault tests.');
+    expect(text).not.toContain('may be re-energised');
+  });
+
+  it('an older in-service result: follow-ups counted from the event', () => {
+    const text = allText(buildReportDocDefinition(storedRevision1InServiceReport()));
+    expect(text).toContain('The unit stayed in service: count these from the event (2026-11-12)');
+    expect(allText(buildReportDocDefinition(storedRevision1Report()))).not.toContain('count these from the event');
+  });
+
+  it('prints all five cautions verbatim, once each, for revision-1 and revision-2 results', () => {
+    for (const d of [storedRevision1Report(), storedRevision1InServiceReport(), thermalRegionReport(), dutyOnlyGoReport()]) {
+      const text = allText(buildReportDocDefinition(d));
+      for (const c of CAUTIONS) expect(text.split(c).length - 1).toBe(1);
+    }
+  });
+});
+
 describe('the report text and the bundled Roboto font', () => {
   it('uses only characters the font can draw', async () => {
     const fontkitModule = (await import('fontkit')) as unknown as { openSync?: (p: string) => unknown; default?: { openSync(p: string): unknown } };
@@ -153,7 +270,11 @@ describe('the report text and the bundled Roboto font', () => {
       else if (v && typeof v === 'object') Object.values(v).forEach(walk);
     };
     const cases = ['clean-go', 'conditional', 'duty-only-go', 'high-duty-missing', 'no-go-internal', 'no-go-readings', 'sisters-no-baseline', 'sweeps'];
-    for (const data of [recentEventReport(), internalFaultReport(), ...cases.map(exampleCaseReport)]) walk(buildReportDocDefinition(data));
+    const revision2 = [lineAssumedReport(), deltaMeasuredReport(), thermalRegionReport(), inServiceNoGoReport(), dutyOnlyGoReport(), doubtsReport()];
+    const stored = [storedRevision1Report(), storedRevision1InServiceReport()];
+    for (const data of [recentEventReport(), internalFaultReport(), ...cases.map(exampleCaseReport), ...revision2, ...stored]) walk(buildReportDocDefinition(data));
+    // The new wording itself (× ² · —) is among the strings checked.
+    expect(strings.join('\n')).toContain('× rated winding current');
     const missing = new Set([...strings.join('')].filter((ch) => ch.charCodeAt(0) > 127 && !font.hasGlyphForCodePoint(ch.codePointAt(0)!)));
     expect([...missing]).toEqual([]);
   });
