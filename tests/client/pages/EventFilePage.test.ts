@@ -206,6 +206,25 @@ describe('EventFilePage (/events/:id)', () => {
     });
   });
 
+  it('shows a session’s revision-2 values: bushings, winding temperature, hours de-energised, demagnetised', async () => {
+    const event = eventDetail();
+    event.sessions[0].values = {
+      takenAt: '2026-07-02',
+      hoursDeEnergised: 6,
+      demagnetised: true,
+      windingTemperatureC: 29,
+      bushings: { H1: { c1PF: 421, c1DissipationPercent: 0.35, c2PF: 3050 } },
+    };
+    signedInAs(['engineer'], event);
+    const { wrapper } = await mountApp('/events/11');
+
+    const session = wrapper.get('[data-test="session"]');
+    expect(session.text()).toContain('6 h de-energised');
+    expect(session.get('[data-test="session-demagnetised-flag"]').text()).toContain('core demagnetised');
+    const values = session.findAll('[data-test="value-row"]').map((r) => r.text());
+    expect(values).toEqual(expect.arrayContaining(['Bushing C1H1421pF', 'Bushing C1 dissipation factorH10.35%', 'Bushing C2H13050pF', 'Winding temperature29°C']));
+  });
+
   it('checks the session form against the event’s case (its baseline) once the form opens', async () => {
     const caseDoc = {
       format: 'gapsight-case/1',
