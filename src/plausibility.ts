@@ -74,7 +74,9 @@ export function referencesFor(c: GapsightCase | null, unit: UnitForReferences, c
   const nameplate = nameplateRatio(caseUnit);
   const phases = new Set([...keys('turnsRatio'), ...(unit.phases === 1 ? ['A'] : ['A', 'B', 'C'])]);
   for (const phase of phases) {
-    if (nameplate.ratio !== null) out[`turnsRatio.${phase}`] = { value: nameplate.ratio, label: `nameplate ratio, ${nameplate.how}` };
+    if (nameplate.ratio !== null) {
+      out[`turnsRatio.${phase}`] = { value: nameplate.ratio, label: caseUnit.nameplateTurnsRatio === undefined && caseUnit.phases !== 1 ? `nameplate ratio of ${caseUnit.vectorGroup}` : 'nameplate ratio' };
+    }
     else put(`turnsRatio.${phase}`, (s) => s.turnsRatio?.[phase]);
   }
   return out;

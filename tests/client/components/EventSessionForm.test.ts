@@ -156,7 +156,7 @@ describe('EventSessionForm', () => {
     await fill(wrapper, 'session-turnsRatio.A', '4.0');
     const warning = warningOf(wrapper, 'session-turnsRatio.A').text();
     expect(warning).toContain('implausible against the reference');
-    expect(warning).toContain('2.309');
+    expect(warning).toContain('reference 2.309, nameplate ratio of YNd1');
     expect(warning).toContain('more than 10 % off');
     // 2.10 is 9.1 % off: a real (if alarming) reading, left to the engine.
     await fill(wrapper, 'session-turnsRatio.B', '2.10');

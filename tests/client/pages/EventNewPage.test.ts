@@ -130,14 +130,18 @@ describe('EventNewPage (/events/new)', () => {
     await type(wrapper, 'shot-duration-0', '0.2');
 
     expect(wrapper.get('[data-test="shot-winding-0"]').text()).toContain('line 4.3 × rated');
-    expect(wrapper.get('[data-test="shot-winding-reason-0"]').text()).toContain('ground fault measured at delta terminals');
+    expect(wrapper.get('[data-test="shot-winding-unknown-0"]').text()).toContain('winding current unknown');
+    // The reason once, below the shots.
+    expect(wrapper.findAll('[data-test="shot-winding-reason"]')).toHaveLength(1);
+    expect(wrapper.get('[data-test="shot-winding-reason"]').text()).toContain('ground fault measured at delta terminals');
     expect(wrapper.get('[data-test="duty-current-basis"]').text()).toContain('line current used as the winding current');
     expect(wrapper.get('[data-test="duty-winding-reason"]').text()).toContain('enter the winding current or attach the relay record');
 
     // Said to be winding currents: no conversion needed, the reason goes away (rated delta winding current 404.04 A).
     await wrapper.get('[data-test="current-is-winding"]').trigger('click');
     await settle();
-    expect(wrapper.find('[data-test="shot-winding-reason-0"]').exists()).toBe(false);
+    expect(wrapper.find('[data-test="shot-winding-reason"]').exists()).toBe(false);
+    expect(wrapper.find('[data-test="shot-winding-unknown-0"]').exists()).toBe(false);
     const figures = wrapper.get('[data-test="shot-winding-0"]').text();
     expect(figures).not.toContain('line');
     expect(figures).toContain('winding 7.4 × rated');
