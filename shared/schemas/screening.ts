@@ -65,8 +65,12 @@ const FOLLOW_UP_DUE_HOURS: Record<string, number | null> = {
   [FOLLOW_UPS.gas1mEvent]: 24 * 30,
 };
 
-/** The due date of a proposed follow-up counted from `from` (null when it has none). */
-export function proposedFollowUpDueAt(task: string, from: Date): string | null {
+/** Follow-ups of a unit that stayed in service count from the event, not from the decision. */
+const COUNTED_FROM_EVENT = new Set<string>([FOLLOW_UPS.gas24hEvent, FOLLOW_UPS.gas1wEvent, FOLLOW_UPS.gas1mEvent]);
+
+/** The due date of a proposed follow-up counted from `from` (the event's time for the in-service ones; null when none). */
+export function proposedFollowUpDueAt(task: string, from: Date, eventAt?: Date): string | null {
   const hours = FOLLOW_UP_DUE_HOURS[task];
-  return typeof hours === 'number' ? new Date(from.getTime() + hours * HOUR).toISOString() : null;
+  const start = eventAt && COUNTED_FROM_EVENT.has(task) ? eventAt : from;
+  return typeof hours === 'number' ? new Date(start.getTime() + hours * HOUR).toISOString() : null;
 }

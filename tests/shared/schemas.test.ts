@@ -51,3 +51,16 @@ describe('criteria', () => {
     expect(criteriaSchema.safeParse(broken).success).toBe(false);
   });
 });
+
+describe('proposed follow-up due dates', () => {
+  it('counts the samples of a unit that stayed in service from the event, the others from the decision', async () => {
+    const { proposedFollowUpDueAt } = await import('../../shared/schemas/screening.js');
+    const { FOLLOW_UPS } = await import('../../shared/screening/verdict.js');
+    const event = new Date('2026-11-28T03:00:00Z');
+    const decided = new Date('2026-11-29T10:00:00Z');
+    expect(proposedFollowUpDueAt(FOLLOW_UPS.gas24hEvent, decided, event)).toBe('2026-11-29T03:00:00.000Z'); // 24 h after the event
+    expect(proposedFollowUpDueAt(FOLLOW_UPS.gasNow, decided, event)).toBe('2026-11-29T10:00:00.000Z');
+    expect(proposedFollowUpDueAt(FOLLOW_UPS.gas24h, decided, event)).toBe('2026-11-30T10:00:00.000Z'); // after re-energising
+    expect(proposedFollowUpDueAt(FOLLOW_UPS.sweepNextOutage, decided, event)).toBeNull();
+  });
+});

@@ -96,7 +96,7 @@ export async function decide(db: DataSource, managerId: number, screeningId: num
     );
     await moveEvent(m, event.id, body.outcome === 'hold' ? 'held' : 'released', managerId, 'A decision');
     const proposed = (s.result as unknown as GapsightResult).followUps ?? [];
-    const tasks = body.followUps ?? (body.outcome === 'hold' ? [] : proposed.map((task) => ({ task, dueAt: proposedFollowUpDueAt(task, now) })));
+    const tasks = body.followUps ?? (body.outcome === 'hold' ? [] : proposed.map((task) => ({ task, dueAt: proposedFollowUpDueAt(task, now, event.occurredAt) })));
     const followUps = [];
     for (const t of tasks) {
       const f = await m.getRepository(FollowUp).save(m.getRepository(FollowUp).create({ eventId: event.id, task: t.task, dueAt: t.dueAt ? new Date(t.dueAt) : null }));
