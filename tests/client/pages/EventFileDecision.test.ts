@@ -1,13 +1,17 @@
 // The event file after a screening: the manager's decision panel (against-the-recommendation rule, restrictions,
 // follow-ups pre-filled, confirmation), the signed decision, follow-ups with their due state, findings, the e-mail log.
 import { enableAutoUnmount, type VueWrapper } from '@vue/test-utils';
-import { afterEach, describe, expect, it, vi } from 'vitest';
+import { beforeAll, afterEach, describe, expect, it, vi } from 'vitest';
 import type { Role } from '../../../src/api/auth';
 import type { DecisionView, EventDetail } from '../../../src/api/events';
 import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken } from '../helpers';
 import { screenedEvent, screeningResult, storedScreening } from './fixtures';
 
 enableAutoUnmount(afterEach);
+
+// The event file is a lazy route with many components: transform it once before the tests, so that the first test's
+// time is its own (a cold worker on a busy machine can take seconds).
+beforeAll(() => import('../../../src/pages/EventFilePage.vue'), 60_000);
 
 type Script = Parameters<typeof scriptFetch>[0];
 

@@ -1,13 +1,17 @@
 // The event file's screening panel: verdict banner, reasons, missing/unreliable items, indicator table, report,
 // running a screening (and a comparison run), refusals in words.
 import { enableAutoUnmount } from '@vue/test-utils';
-import { afterEach, describe, expect, it, vi } from 'vitest';
+import { beforeAll, afterEach, describe, expect, it, vi } from 'vitest';
 import type { Role } from '../../../src/api/auth';
 import type { EventDetail } from '../../../src/api/events';
 import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken } from '../helpers';
 import { eventDetail, screenedEvent, screeningResult, storedScreening } from './fixtures';
 
 enableAutoUnmount(afterEach);
+
+// The event file is a lazy route with many components: transform it once before the tests, so that the first test's
+// time is its own (a cold worker on a busy machine can take seconds).
+beforeAll(() => import('../../../src/pages/EventFilePage.vue'), 60_000);
 
 type Script = Parameters<typeof scriptFetch>[0];
 

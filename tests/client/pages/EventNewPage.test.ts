@@ -1,9 +1,13 @@
 import { enableAutoUnmount, type VueWrapper } from '@vue/test-utils';
-import { afterEach, describe, expect, it, vi } from 'vitest';
+import { beforeAll, afterEach, describe, expect, it, vi } from 'vitest';
 import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type ScriptedResponse, type RecordedRequest } from '../helpers';
 import { eventDetail, unitDetail } from './fixtures';
 
 enableAutoUnmount(afterEach);
+
+// The event file is a lazy route with many components: transform it once before the tests, so that the first test's
+// time is its own (a cold worker on a busy machine can take seconds).
+beforeAll(() => import('../../../src/pages/EventFilePage.vue'), 60_000);
 
 function signedInAsProtection(post: ScriptedResponse | ((r: RecordedRequest) => ScriptedResponse) = { status: 201, body: { id: 11 } }) {
   storeToken('valid');
