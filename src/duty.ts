@@ -4,8 +4,9 @@
 import type { CurrentIs, FaultType } from '../shared/schemas/case';
 import type { ThroughFault } from '../shared/schemas/result';
 import { BUILT_IN_CRITERIA, criteriaV1, type Criteria } from '../shared/screening/criteria';
-import { roundSignificant } from '../shared/screening/levels';
-import { parseVectorGroup, ratedCurrentA, thermalCurveTimeS, windingCurrentFactor, type WindingCurrent } from '../shared/screening/through-fault';
+import { aboveDesignMaximum, ratedCurrentA, ratedWindingCurrentA, thermalCurveTimeS, windingCurrentFactor, type WindingCurrent } from '../shared/screening/through-fault';
+
+export { aboveDesignMaximum, ratedWindingCurrentA };
 
 export interface DutyUnit {
   phases: 1 | 3;
@@ -32,18 +33,6 @@ export function windingFactorOf(unit: DutyUnit, fault: DutyFault): WindingCurren
   return windingCurrentFactor({ phases: unit.phases, vectorGroup: unit.vectorGroup ?? undefined }, fault);
 }
 
-/**
- * Rated current (A) of the winding on the measured side: the rated line current, divided by √3 for a delta winding of
- * a three-phase unit (its phase current is the line current over √3).
- */
-export function ratedWindingCurrentA(unit: DutyUnit, side: 'hv' | 'lv'): number {
-  const line = ratedCurrentA(unit.ratedKVA, side === 'hv' ? unit.hvKV : unit.lvKV, unit.phases);
-  if (unit.phases !== 3) return line;
-  const vg = parseVectorGroup(unit.vectorGroup ?? undefined);
-  const winding = side === 'hv' ? vg?.hv : vg?.lv;
-  return winding?.kind === 'delta' ? line / Math.sqrt(3) : line;
-}
-
 export interface ShotCurrents {
   /** Per unit of the rated line current of the measured side (null when the currents are winding currents). */
   linePerUnit: number | null;
@@ -63,15 +52,9 @@ export function shotCurrents(unit: DutyUnit, fault: DutyFault, currentKA: number
   return {
     linePerUnit: fault.currentIs === 'winding' ? null : typedPerUnit,
     windingPerUnit,
-    windingA: windingPerUnit === null ? null : windingPerUnit * ratedWindingCurrentA(unit, fault.side),
+    windingA: windingPerUnit === null ? null : windingPerUnit * ratedWindingCurrentA({ ...unit, vectorGroup: unit.vectorGroup ?? undefined }, fault.side),
     dutyPerUnit: windingPerUnit ?? typedPerUnit,
   };
-}
-
-/** Whether a per-unit current is above the design maximum (compared as the engine does, at 9 significant digits). */
-export function aboveDesignMaximum(perUnit: number, maxPerUnit: number, criteria: Criteria = criteriaV1): boolean {
-  const d = criteria.rounding.significantDigits;
-  return roundSignificant(perUnit, d) > roundSignificant(maxPerUnit, d);
 }
 
 export interface ThermalTime {

@@ -8,7 +8,7 @@ import type { GapsightCase, ReadingSet, Unit } from '../shared/schemas/case';
 import { criteriaV2, type Criteria } from '../shared/screening/criteria';
 import { nameplateRatio } from '../shared/screening/ratio';
 import { reactancePercent } from '../shared/screening/reactance';
-import { IMPLAUSIBLE_NOTE, isImplausible, ownReferenceLabel, plausibilityOf } from '../shared/screening/reference';
+import { IMPLAUSIBLE_NOTE, isImplausible, isRatioImplausible, ownReferenceLabel, plausibilityOf } from '../shared/screening/reference';
 import { formatSignificant } from './format';
 
 export { IMPLAUSIBLE_NOTE };
@@ -110,7 +110,7 @@ export function checkAgainstReference(value: number, ref: Reference, unit: 'pF' 
 export function checkRatio(value: number, ref: Reference, criteria: Criteria = criteriaV2): PlausibilityWarning | null {
   if (!(value > 0) || !(ref.value > 0)) return null;
   const limit = plausibilityOf(criteria).ratioMaxPercent;
-  if (Math.abs((100 * (value - ref.value)) / ref.value) <= limit) return null;
+  if (!isRatioImplausible(value, ref.value, criteria)) return null;
   return { kind: 'implausible', message: `${IMPLAUSIBLE_NOTE} (reference ${referenceText(ref, '')}; more than ${limit} % off)` };
 }
 

@@ -1,9 +1,9 @@
 // Turns ratio: change against baseline and deviation from the nameplate ratio expected from the vector group.
 import type { GapsightCase, Unit } from '../schemas/case.js';
 import type { Indicator } from '../schemas/result.js';
-import { criteriaV2, type Criteria } from './criteria.js';
-import { describeBands, indicator, levelFromBands, roundSignificant } from './levels.js';
-import { IMPLAUSIBLE_NOTE, ownReferenceLabel, shiftPercent } from './reference.js';
+import type { Criteria } from './criteria.js';
+import { describeBands, indicator, levelFromBands } from './levels.js';
+import { IMPLAUSIBLE_NOTE, isRatioImplausible, ownReferenceLabel, shiftPercent, tapsDiffer, tapText } from './reference.js';
 import { parseVectorGroup } from './through-fault.js';
 
 export type NameplateRatio = { ratio: number | null; note?: string; how: string };
@@ -29,7 +29,6 @@ export function ratioDeviationPercent(measured: number, nameplate: number): numb
   return shiftPercent(measured, nameplate);
 }
 
-const tapText = (t: string | number | undefined) => (t === undefined ? '' : String(t));
 
 export type RatioOutcome = { indicators: Indicator[]; unreliable: string[] };
 
@@ -41,16 +40,15 @@ export function ratioIndicators(c: GapsightCase, criteria: Criteria): RatioOutco
   const rc = criteria.ratio;
   const d = criteria.rounding.significantDigits;
   const np = nameplateRatio(c.unit);
-  const plaus = criteria.plausibility ?? criteriaV2.plausibility!;
   const out: Indicator[] = [];
   const postTap = c.postFault?.tapPosition;
   const baseTap = c.baseline?.tapPosition;
-  const mismatch = !!c.baseline?.turnsRatio && postTap !== undefined && baseTap !== undefined && tapText(postTap) !== tapText(baseTap);
+  const mismatch = !!c.baseline?.turnsRatio && tapsDiffer(postTap, baseTap);
   const mismatchNote = `tap mismatch (baseline at tap ${tapText(baseTap)}, post-fault at ${tapText(postTap)}): repeat at tap ${tapText(baseTap)}; not judged`;
   // Plausibility: a ratio more than 10 % off a reference (baseline or the nameplate ratio of the vector group) is a
   // connection or entry error (a line-voltage ratio entered for a Yd unit is √3 off), not a shorted turn.
   const implausible = Object.entries(post).some(([phase, v]) =>
-    [c.baseline?.turnsRatio?.[phase], np.ratio].some((ref) => typeof ref === 'number' && roundSignificant(Math.abs(shiftPercent(v, ref)), d) > plaus.ratioMaxPercent),
+    [c.baseline?.turnsRatio?.[phase], np.ratio].some((ref) => typeof ref === 'number' && isRatioImplausible(v, ref, criteria)),
   );
   if (mismatch || implausible) unreliable.push('turnsRatio');
   const notJudged = [mismatch ? mismatchNote : undefined, implausible ? `${IMPLAUSIBLE_NOTE}: not judged` : undefined].filter(Boolean).join('; ') || undefined;

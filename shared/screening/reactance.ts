@@ -4,7 +4,7 @@ import type { Indicator, Level } from '../schemas/result.js';
 import type { Criteria } from './criteria.js';
 import { describeBands, indicator, levelFromBands } from './levels.js';
 import { criteriaV2 } from './criteria.js';
-import { baselineOrSisters, IMPLAUSIBLE_NOTE, isImplausible, ownReferenceLabel, shiftIndicator } from './reference.js';
+import { baselineOrSisters, IMPLAUSIBLE_NOTE, isImplausible, ownReferenceLabel, shiftIndicator, tapsDiffer, tapText } from './reference.js';
 
 /** Wye-equivalent impedance base in ohms: kV²·1000/kVA. */
 export function zBaseOhm(kV: number, kVA: number): number {
@@ -63,7 +63,6 @@ export function phaseSpreadPercent(values: readonly number[]): number {
 
 export type ReactanceOutcome = { indicators: Indicator[]; unreliable: string[] };
 
-const tapText = (t: string | number | undefined) => (t === undefined ? '' : String(t));
 
 /** Reactance indicators: per-phase %X and shifts, spread change, three-phase equivalent against nameplate. */
 export function reactanceIndicators(c: GapsightCase, criteria: Criteria): ReactanceOutcome {
@@ -80,8 +79,8 @@ export function reactanceIndicators(c: GapsightCase, criteria: Criteria): Reacta
   const postTap = c.postFault?.tapPosition;
   const baseTap = c.baseline?.tapPosition;
   const prevTap = c.previous?.tapPosition;
-  const baseMismatch = postTap !== undefined && baseTap !== undefined && tapText(postTap) !== tapText(baseTap);
-  const prevMismatch = postTap !== undefined && prevTap !== undefined && tapText(postTap) !== tapText(prevTap);
+  const baseMismatch = tapsDiffer(postTap, baseTap);
+  const prevMismatch = tapsDiffer(postTap, prevTap);
   const mismatchNote = (refTap: string | number | undefined, what: string) =>
     `tap mismatch (${what} at tap ${tapText(refTap)}, post-fault at ${tapText(postTap)}): repeat at tap ${tapText(refTap)}; not judged`;
 

@@ -2,7 +2,7 @@
 import { median } from 'simple-statistics';
 import type { Indicator, Level, Method } from '../schemas/result.js';
 import { criteriaV2, type Band, type Criteria } from './criteria.js';
-import { capLevel, indicator, levelFromBands } from './levels.js';
+import { capLevel, indicator, levelFromBands, roundSignificant } from './levels.js';
 
 export type Reference = {
   value: number;
@@ -81,6 +81,20 @@ export const IMPLAUSIBLE_NOTE = 'implausible against the reference — check the
 /** Plausibility limits of a criteria set (revision 2; version 1 sets use the revision-2 defaults). */
 export function plausibilityOf(criteria: Criteria): NonNullable<Criteria['plausibility']> {
   return criteria.plausibility ?? criteriaV2.plausibility!;
+}
+
+/** A tap position as words (the sets give strings or numbers). */
+export const tapText = (t: string | number | undefined): string => (t === undefined ? '' : String(t));
+
+/** Whether two tap positions, both given, differ (then the tap-dependent readings are unreliable). */
+export const tapsDiffer = (a: string | number | undefined, b: string | number | undefined): boolean =>
+  a !== undefined && b !== undefined && tapText(a) !== tapText(b);
+
+/** Whether a turns ratio is more than the criteria's percentage off a reference ratio (an entry or connection error). */
+export function isRatioImplausible(value: number, reference: number, criteria: Criteria): boolean {
+  if (!(reference > 0) || !(value > 0)) return false;
+  const d = criteria.rounding.significantDigits;
+  return roundSignificant(Math.abs(shiftPercent(value, reference)), d) > plausibilityOf(criteria).ratioMaxPercent;
 }
 
 /** Whether a value is more than `maxFactor` × or less than 1/`maxFactor` × its reference (a unit or connection error). */

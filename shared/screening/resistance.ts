@@ -3,7 +3,7 @@ import type { GapsightCase, ReadingSet } from '../schemas/case.js';
 import type { Indicator } from '../schemas/result.js';
 import { criteriaV2, type Criteria } from './criteria.js';
 import { capLevel, describeBands, indicator, levelFromBands } from './levels.js';
-import { ownReferenceLabel, shiftPercent } from './reference.js';
+import { ownReferenceLabel, shiftPercent, tapsDiffer, tapText } from './reference.js';
 
 /** R_s = R_m·(T_s + T_k)/(T_m + T_k) (IEEE C57.12.90); T_k 234.5 copper, 225 aluminium. */
 export function correctResistance(measuredOhm: number, measuredC: number, referenceC: number, tkC: number): number {
@@ -38,7 +38,6 @@ export function windingTemperature(s: ReadingSet | undefined, criteria: Criteria
   };
 }
 
-const tapText = (t: string | number | undefined) => (t === undefined ? '' : String(t));
 
 export type ResistanceOutcome = { indicators: Indicator[]; unreliable: string[] };
 
@@ -56,7 +55,7 @@ export function resistanceIndicators(c: GapsightCase, criteria: Criteria): Resis
   const tBase = windingTemperature(c.baseline, criteria, false);
   const postTap = c.postFault?.tapPosition;
   const baseTap = c.baseline?.tapPosition;
-  const mismatch = !!base && postTap !== undefined && baseTap !== undefined && tapText(postTap) !== tapText(baseTap);
+  const mismatch = !!base && tapsDiffer(postTap, baseTap);
   if (mismatch) unreliable.push('windingResistanceOhm');
   const rule = `${describeBands(rc.changeBands, ' %', '|change| at ' + rc.referenceTemperatureC + ' °C')}`;
   const hoursSource = rc.hoursSource ?? criteriaV2.resistance.hoursSource!;

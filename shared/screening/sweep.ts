@@ -4,6 +4,7 @@ import type { Sweep, SweepPoint } from '../schemas/case.js';
 import type { Indicator, Level } from '../schemas/result.js';
 import { criteriaV2, type Criteria } from './criteria.js';
 import { capLevel, indicator, roundSignificant } from './levels.js';
+import { tapsDiffer, tapText } from './reference.js';
 
 export type Dlt911Class = 'normal' | 'slight' | 'obvious' | 'severe';
 export type GridPoint = { frequencyHz: number; baselineDb: number; postFaultDb: number };
@@ -182,15 +183,13 @@ export const CORE_REGION_NOTE = 'core region: demagnetise and repeat';
 export const NO_BASELINE_TRACE_NOTE = 'no baseline trace to compare with';
 const BEYOND_NOTE = 'points outside 1 kHz–1 MHz are not judged';
 
-const tapText = (t: string | number | undefined) => (t === undefined ? '' : String(t));
 
 /** The winding of a trace: `winding`, else HV (traces without a winding count as HV). */
 export const sweepWinding = (s: Sweep): string => s.winding ?? 'hv';
 
 /** Whether a trace's own tap differs from its baseline trace's tap (then it is unreliable). */
 export function sweepTapMismatch(s: Sweep): boolean {
-  const base = s.baselineTapPosition ?? s.tapPosition;
-  return s.tapPosition !== undefined && base !== undefined && tapText(s.tapPosition) !== tapText(base);
+  return tapsDiffer(s.tapPosition, s.baselineTapPosition ?? s.tapPosition);
 }
 
 export type SweepOutcome = { indicators: Indicator[]; unreliable: string[] };

@@ -57,6 +57,12 @@ export function thermalCurveTimeS(currentPerUnit: number, criteria: Criteria = c
   return Infinity;
 }
 
+/** Whether a per-unit current is above the design maximum (compared after rounding, as every threshold). */
+export function aboveDesignMaximum(perUnit: number, maxPerUnit: number, criteria: Criteria = criteriaV1): boolean {
+  const d = criteria.rounding.significantDigits;
+  return roundSignificant(perUnit, d) > roundSignificant(maxPerUnit, d);
+}
+
 /** Allowed time (s) on the mechanical segment: K/I². */
 export function mechanicalTimeS(currentPerUnit: number, k: number): number {
   return k / (currentPerUnit * currentPerUnit);
@@ -130,6 +136,17 @@ export function windingCurrentFactor(unit: Pick<Unit, 'phases' | 'vectorGroup'>,
   if (measured.kind === 'delta' && faulted.kind === 'wye' && faulted.grounded) return { factor: SQRT3, basis: 'line-converted' };
   if (measured.kind === 'wye') return { factor: 1, basis: 'line-converted' };
   return assumed('ground fault on an ungrounded or delta side, measured on the other side');
+}
+
+/**
+ * Rated current (A) of the winding on a side: the rated line current, over √3 for a delta winding of a three-phase unit
+ * (its phase current is the line current over √3).
+ */
+export function ratedWindingCurrentA(unit: Pick<Unit, 'phases' | 'ratedKVA' | 'hvKV' | 'lvKV' | 'vectorGroup'>, side: 'hv' | 'lv'): number {
+  const line = ratedCurrentA(unit.ratedKVA, side === 'hv' ? unit.hvKV : unit.lvKV, unit.phases);
+  if (unit.phases !== 3) return line;
+  const vg = parseVectorGroup(unit.vectorGroup);
+  return (side === 'hv' ? vg?.hv : vg?.lv)?.kind === 'delta' ? line / SQRT3 : line;
 }
 
 /** Line per-unit currents of a fault's shots (each fault on its own measured side). */
@@ -212,7 +229,6 @@ export function frequentFaultExceeded(tf: ThroughFault, criteria: Criteria = cri
 export function dutyIndicators(tf: ThroughFault | null, criteria: Criteria = criteriaV1): Indicator[] {
   if (!tf) return [];
   const c = criteria.throughFault;
-  const digits = criteria.rounding.significantDigits;
   const out: Indicator[] = [];
   const duty = { basis: 'duty' as const };
   // The beyond-curve level sits on the event's I²t for a high-duty event, on the time against the thermal curve otherwise.
@@ -241,7 +257,7 @@ export function dutyIndicators(tf: ThroughFault | null, criteria: Criteria = cri
       ),
     );
   }
-  const over = roundSignificant(tf.currentPerUnit, digits) > roundSignificant(tf.maxCurrentPerUnit, digits);
+  const over = aboveDesignMaximum(tf.currentPerUnit, tf.maxCurrentPerUnit, criteria);
   out.push(
     indicator(
       'duty.forceRatioPercent',
