@@ -2,7 +2,7 @@
 import type { z } from 'zod';
 import type { CurrentIs, FaultType, ReadingSet as CaseReadingSet, Shot } from '../../shared/schemas/case';
 import type { Protection } from '../../shared/schemas/case';
-import type { UNIT_SORTS, unitListQuerySchema } from '../../shared/schemas/fleet';
+import type { ReadingSetBody, UNIT_SORTS, unitListQuerySchema } from '../../shared/schemas/fleet';
 import type { Recommendation, ThroughFault } from '../../shared/schemas/result';
 import { api } from './client';
 import type { Design } from './designs';
@@ -126,6 +126,14 @@ export interface UnitDetail extends Unit {
 // GET /api/units — one page of the fleet.
 export function listUnits(query: UnitListQuery = {}, signal?: AbortSignal): Promise<UnitListPage> {
   return api.get<UnitListPage>('/units', { query: { ...query }, signal });
+}
+
+/** The answer to a new unit reading set: its stored conditions and values. */
+export type CreatedReadingSet = ReadingSetConditions & { values?: CaseReadingSet };
+
+// POST /api/units/:id/reading-sets — a factory, commissioning or routine reading set (tester, admin).
+export function createUnitReadingSet(unitId: number, body: ReadingSetBody): Promise<CreatedReadingSet> {
+  return api.post<CreatedReadingSet>(`/units/${unitId}/reading-sets`, body);
 }
 
 // GET /api/units/:id — the unit file: design, site, reading sets with values, events newest first.

@@ -293,4 +293,32 @@ describe('EventSessionForm', () => {
     await fill(wrapper, 'session-dissolvedGasPPM.C2H2', '-1');
     expect(fieldOf(wrapper, 'session-dissolvedGasPPM.C2H2').classList.contains('q-field--error')).toBe(true);
   });
+
+  it('enters a factory, commissioning or routine set of the unit: kind required, reference mark, no separate pre-fault sample', async () => {
+    const { requests } = scriptFetch({ 'POST /api/units/7/reading-sets': { status: 201, body: { id: 90, kind: 'routine' } } });
+    const wrapper = render({ eventId: null, unitId: 7, faultAt: null });
+    expect(wrapper.find('[data-test="session-pre-fault-gas"]').exists()).toBe(false);
+    await fill(wrapper, 'session-takenAt', '2026-05-04T10:00');
+    await fill(wrapper, 'session-capacitancePF.CH', '3121');
+    await fill(wrapper, 'session-dissolvedGasPPM.C2H2', '0.2');
+    await wrapper.get('form').trigger('submit');
+    await settle();
+    expect(requests.some((r) => r.method === 'POST')).toBe(false);
+    expect(wrapper.get('[data-test="set-kind-error"]').text()).toContain('required: factory, commissioning or routine');
+
+    await wrapper.get('[data-test="set-kind-routine"]').trigger('click');
+    await wrapper.get('[data-test="set-reference"]').trigger('click');
+    await settle();
+    await wrapper.get('form').trigger('submit');
+    await vi.waitFor(() => expect(requests.some((r) => r.method === 'POST')).toBe(true));
+    expect(requests[0].url).toBe('/api/units/7/reading-sets');
+    expect(requests[0].body).toEqual({
+      takenAt: '2026-05-04T09:00:00.000Z', // 10:00 British Summer Time
+      kind: 'routine',
+      isReference: true,
+      capacitancePF: { CH: 3121 },
+      dissolvedGasPPM: { C2H2: 0.2 },
+    });
+    expect(wrapper.emitted('created')).toHaveLength(1);
+  });
 });

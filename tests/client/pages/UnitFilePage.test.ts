@@ -139,4 +139,21 @@ describe('UnitFilePage (/units/:id)', () => {
 
     expect(wrapper.get('[data-test="unit-error"]').text()).toContain('There is no unit with this number.');
   });
+
+  it('lets a tester add a reading set of the unit (engineers only read), checked against the unit’s own baseline', async () => {
+    signedInAs(['engineer']);
+    const reader = await mountApp('/units/3');
+    expect(reader.wrapper.find('[data-test="add-reading-set"]').exists()).toBe(false);
+    reader.wrapper.unmount();
+    resetClientState();
+
+    signedInAs(['tester']);
+    const { wrapper } = await mountApp('/units/3');
+    await wrapper.get('[data-test="add-reading-set"]').trigger('click');
+    await settle();
+    expect(wrapper.find('[data-test="set-kind"]').exists()).toBe(true);
+    expect(wrapper.find('[data-test="session-pre-fault-gas"]').exists()).toBe(false);
+    expect(wrapper.get('[data-test="session-references"]').text()).toMatch(/checked as you type against/);
+  });
 });
+
