@@ -2,10 +2,21 @@
 //
 // Row numbers in error keys are line numbers in the file, counting the header line as row 1: the first data row
 // directly under the header is "row 2", and a blank line still counts, so "row 7" is what a text editor shows as line 7.
-import Papa from 'papaparse';
+import {
+  DECIMAL_COMMA_MESSAGE,
+  collectRowErrors,
+  csvRecords,
+  detectDelimiter,
+  isDecimalCommaNumber,
+  normaliseCsvText,
+  parseDecimalCell,
+  quoteCell,
+  readFixedHeader,
+  separatorProblem,
+} from './csv.js';
 
-/** The one message for a number written with a decimal comma (both importers use it). */
-export const DECIMAL_COMMA_MESSAGE = 'decimal comma: use a point (3.14)';
+// Callers that import these from the readings importer get the shared ones.
+export { DECIMAL_COMMA_MESSAGE, isDecimalCommaNumber };
 
 /** Column names of the canonical readings CSV, in the order written by `mapColumns`. */
 export const READINGS_COLUMNS = ['quantity', 'configuration', 'phase', 'value', 'unit'] as const;
@@ -161,113 +172,12 @@ const TERMINAL = /^[A-Za-z0-9](?:[A-Za-z0-9._-]{0,18}[A-Za-z0-9])?$/;
 const MAX_LISTED_BAD_ROWS = 1000;
 
 // ---------------------------------------------------------------------------------------------------------------------
-// CSV helpers shared with the sweep importer
-// ---------------------------------------------------------------------------------------------------------------------
-
-export type CsvRecord = { line: number; cells: string[] };
-
-/** BOM removed and every line ending turned into \n, so line numbers and papaparse agree. */
-export function normaliseCsvText(text: string): string {
-  const noBom = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  return noBom.replace(/\r\n?/g, '\n');
-}
-
-/**
- * The column separator of a file judged by its first non-blank line: ';' when the line has one and its commas (if any)
- * all sit between digits (decimal commas, as spreadsheets in many locales write them), else ',' when it has one, else a
- * tab when it has one, else ','.
- */
-export function detectDelimiter(normalisedText: string): ',' | ';' | '\t' {
-  const first = normalisedText.split('\n').find((l) => l.trim() !== '') ?? '';
-  const commas = first.match(/,/g)?.length ?? 0;
-  const decimalCommas = first.match(/\d,\d/g)?.length ?? 0;
-  if (first.includes(';') && commas === decimalCommas) return ';';
-  if (first.includes(',')) return ',';
-  if (first.includes('\t')) return '\t';
-  return ',';
-}
-
-/** A sentence for a file whose columns are not separated by commas (null when they are). */
-export function separatorProblem(delimiter: ',' | ';' | '\t'): string | null {
-  if (delimiter === ';') {
-    return "the file uses ';' between columns: save it as CSV with ',' between columns and a point as the decimal mark";
-  }
-  if (delimiter === '\t') return "the file uses tabs between columns: save it as CSV with ',' between columns";
-  return null;
-}
-
-/** Every non-blank record of a normalised CSV text with the file line it starts on (1-based), plus quoting errors by line. */
-export function csvRecords(
-  normalisedText: string,
-  delimiter: string,
-): { records: CsvRecord[]; quoteErrorLines: Map<number, string> } {
-  const parsed = Papa.parse<string[]>(normalisedText, { delimiter, newline: '\n', header: false, skipEmptyLines: false });
-  const records: CsvRecord[] = [];
-  const startLines: number[] = [];
-  let line = 1;
-  for (const cells of parsed.data) {
-    startLines.push(line);
-    if (cells.some((c) => c.trim() !== '')) records.push({ line, cells });
-    // A quoted cell may hold line breaks: the next record starts that many lines further down.
-    line += 1 + cells.reduce((n, c) => n + (c.match(/\n/g)?.length ?? 0), 0);
-  }
-  const quoteErrorLines = new Map<number, string>();
-  for (const e of parsed.errors) {
-    if (e.type !== 'Quotes' || e.row === undefined) continue;
-    const at = startLines[e.row] ?? line;
-    quoteErrorLines.set(
-      at,
-      e.code === 'MissingQuotes' ? 'a quoted value is not closed' : 'a quote mark sits inside a value (write it as "")',
-    );
-  }
-  return { records, quoteErrorLines };
-}
-
-const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
-// "3,14", ",5", "1.234,5" (a point as thousands separator and a comma as decimal mark).
-const DECIMAL_COMMA = /^[+-]?(?:\d{1,3}(?:\.\d{3})+|\d*),\d+$/;
-
-/** A cell read as a plain decimal number: the number, or why not. */
-export function parseDecimalCell(cell: string): { value: number } | { error: string } {
-  const s = cell.trim();
-  if (s === '') return { error: 'required' };
-  if (DECIMAL_COMMA.test(s)) return { error: DECIMAL_COMMA_MESSAGE };
-  if (!NUMBER.test(s)) return { error: 'not a number' };
-  const value = Number(s);
-  if (!Number.isFinite(value)) return { error: 'not a finite number' };
-  return { value };
-}
-
-/** True when a cell looks like a number written with a decimal comma. */
-export function isDecimalCommaNumber(cell: string): boolean {
-  return DECIMAL_COMMA.test(cell.trim());
-}
-
-function quoteCell(cell: string): string {
-  return /[",\n]/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell;
-}
-
-function listNames(names: readonly string[]): string {
-  return names.map((n) => `'${n}'`).join(', ');
-}
-
-// ---------------------------------------------------------------------------------------------------------------------
 // Readings
 // ---------------------------------------------------------------------------------------------------------------------
 
 /** Header cells → column index per canonical name, or a message naming unknown, missing and repeated columns. */
 function readHeader(cells: string[]): { index: Record<ReadingsColumn, number> } | { error: string } {
-  const names = cells.map((c) => c.trim().toLowerCase());
-  const unknown = names.filter((n) => !(READINGS_COLUMNS as readonly string[]).includes(n));
-  const missing = READINGS_COLUMNS.filter((c) => !names.includes(c));
-  const repeated = READINGS_COLUMNS.filter((c) => names.filter((n) => n === c).length > 1);
-  const problems: string[] = [];
-  if (unknown.length > 0) problems.push(`unknown column${unknown.length > 1 ? 's' : ''} ${listNames(unknown.map((u) => u || '(empty)'))}`);
-  if (missing.length > 0) problems.push(`missing column${missing.length > 1 ? 's' : ''} ${listNames(missing)}`);
-  if (repeated.length > 0) problems.push(`repeated column${repeated.length > 1 ? 's' : ''} ${listNames(repeated)}`);
-  if (problems.length > 0) return { error: `${problems.join('; ')}: the header must be ${READINGS_COLUMNS.join(',')}` };
-  const index = Object.fromEntries(READINGS_COLUMNS.map((c) => [c, names.indexOf(c)])) as Record<ReadingsColumn, number>;
-  return { index };
+  return readFixedHeader(cells, READINGS_COLUMNS);
 }
 
 type RowCheck = { row?: ReadingRow; errors: Record<string, string> };
@@ -383,12 +293,8 @@ export function parseReadingsCsv(text: string, options: ReadingsCsvOptions = {})
   const rows: ReadingRow[] = [];
   const rowLines = new Map<ReadingRow, number>();
   const firstSeen = new Map<string, number>();
-  let badRows = 0;
-  const addRowErrors = (line: number, errors: Record<string, string>) => {
-    badRows += 1;
-    if (badRows > MAX_LISTED_BAD_ROWS) return;
-    for (const [field, message] of Object.entries(errors)) fields[field === '' ? `row ${line}` : `row ${line}.${field}`] = message;
-  };
+  const rowErrors = collectRowErrors(MAX_LISTED_BAD_ROWS, fields);
+  const addRowErrors = (line: number, errors: Record<string, string>) => rowErrors.add(line, errors);
 
   for (const { line, cells } of dataRecords) {
     const quoteError = quoteErrorLines.get(line);
@@ -429,7 +335,7 @@ export function parseReadingsCsv(text: string, options: ReadingsCsvOptions = {})
     reported.add(terminal);
     addRowErrors(rowLines.get(row)!, { configuration: `bushing ${terminal} has no bushing-c1 row: give its C1 capacitance too` });
   }
-  if (badRows > MAX_LISTED_BAD_ROWS) fields.more = `${badRows - MAX_LISTED_BAD_ROWS} more bad rows not listed`;
+  rowErrors.finish();
   if (Object.keys(fields).length > 0) return { ok: false, fields };
   return { ok: true, rows };
 }

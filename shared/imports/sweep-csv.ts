@@ -3,12 +3,13 @@
 // Row numbers in error keys are line numbers in the file: with a header the first point is "row 2", without one "row 1".
 import {
   DECIMAL_COMMA_MESSAGE,
+  collectRowErrors,
   csvRecords,
   detectDelimiter,
   normaliseCsvText,
   parseDecimalCell,
   separatorProblem,
-} from './readings-csv.js';
+} from './csv.js';
 
 /** Fewer points than this cannot carry the three DL/T 911 bands (each needs several common points). */
 export const SWEEP_MIN_POINTS = 10;
@@ -92,15 +93,10 @@ export function parseSweepCsv(text: string): SweepCsvResult {
     };
   }
 
-  const fields: Record<string, string> = {};
+  const rowErrors = collectRowErrors(MAX_LISTED_BAD_ROWS);
+  const addRowErrors = (line: number, errors: Record<string, string>) => rowErrors.add(line, errors);
   const points: number[][] = [];
-  let badRows = 0;
   let previous: { frequencyHz: number; line: number } | null = null;
-  const addRowErrors = (line: number, errors: Record<string, string>) => {
-    badRows += 1;
-    if (badRows > MAX_LISTED_BAD_ROWS) return;
-    for (const [field, message] of Object.entries(errors)) fields[field === '' ? `row ${line}` : `row ${line}.${field}`] = message;
-  };
 
   for (const { line, cells } of data) {
     const quoteError = quoteErrorLines.get(line);
@@ -135,7 +131,7 @@ export function parseSweepCsv(text: string): SweepCsvResult {
     previous = { frequencyHz: f as number, line };
     points.push(columns.includes('phaseDeg') ? [f as number, point.magnitudeDb as number, point.phaseDeg as number] : [f as number, point.magnitudeDb as number]);
   }
-  if (badRows > MAX_LISTED_BAD_ROWS) fields.more = `${badRows - MAX_LISTED_BAD_ROWS} more bad rows not listed`;
+  const fields = rowErrors.finish();
   if (Object.keys(fields).length > 0) return { ok: false, fields };
   if (points.length < SWEEP_MIN_POINTS) {
     return { ok: false, fields: { file: `at least ${SWEEP_MIN_POINTS} points are needed, found ${points.length}` } };
