@@ -34,14 +34,5 @@ export const userPatchSchema = z
   .refine((v) => Object.keys(v).length > 0, { message: 'nothing to change' });
 export type UserPatch = z.infer<typeof userPatchSchema>;
 
-export interface UserDto {
-  id: number;
-  email: string;
-  name: string;
-  roles: z.infer<typeof roleSchema>[];
-  siteIds: number[];
-  allSites: boolean;
-  active: boolean;
-  demo: boolean;
-  lastSignInAt: string | null;
-}
+/** The user as the API shows it (its schema: responses/auth.ts). */
+export type { UserView as UserDto } from './responses/auth.js';

@@ -15,6 +15,7 @@ import {
   sweepWindingSchema,
   windingsSchema,
 } from './case.js';
+import { EVENT_STATUSES, RECOMMENDATIONS, UNIT_READING_SET_KINDS } from './enums.js';
 
 // Request bodies of the fleet, reading and event routes (api.md), shared by server validation and client forms.
 
@@ -83,7 +84,7 @@ export const unitListQuerySchema = z.object({
   q: z.string().trim().max(60).optional(),
   siteId: z.coerce.number().int().positive().optional(),
   designId: z.coerce.number().int().positive().optional(),
-  recommendation: z.enum(['go', 'conditional', 'no-go']).optional(),
+  recommendation: z.enum(RECOMMENDATIONS).optional(),
   sort: z.enum(UNIT_SORTS).default('serial'),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(50),
@@ -148,7 +149,7 @@ export const readingSetBodySchema = readingSetSchema
   .extend({
     ...readingSections,
     ...sessionConditions,
-    kind: z.enum(['factory', 'commissioning', 'routine']),
+    kind: z.enum(UNIT_READING_SET_KINDS),
     isReference: z.boolean().optional(),
   })
   .superRefine(sameHours);
@@ -187,7 +188,7 @@ export const eventBodySchema = z.object({
 export type EventBody = z.infer<typeof eventBodySchema>;
 
 export const eventListQuerySchema = z.object({
-  status: z.enum(['logged', 'testing', 'screened', 'held', 'released']).optional(),
+  status: z.enum(EVENT_STATUSES).optional(),
   unitId: z.coerce.number().int().positive().optional(),
   siteId: z.coerce.number().int().positive().optional(),
   sort: z.enum(['occurredAt', '-occurredAt']).default('-occurredAt'),

@@ -1,8 +1,9 @@
 // Zod schema and inferred types of a screening result (`gapsight-result/1`, public contract: product case-format).
 import { z } from 'zod';
+import { RECOMMENDATIONS } from './enums.js';
 
 export const levelSchema = z.enum(['ok', 'watch', 'investigate', 'critical']);
-export const recommendationSchema = z.enum(['go', 'conditional', 'no-go']);
+export const recommendationSchema = z.enum(RECOMMENDATIONS);
 export const methodSchema = z.enum([
   'capacitance',
   'power-factor',

@@ -1,6 +1,6 @@
 import { z } from 'zod';
+import { ROLES, type Role } from './enums.js';
 
-// The five roles of the brief; a user may hold several.
-export const ROLES = ['admin', 'protection', 'tester', 'manager', 'engineer'] as const;
+// The five roles of the brief (the list lives in enums.ts); a user may hold several.
+export { ROLES, type Role };
 export const roleSchema = z.enum(ROLES);
-export type Role = z.infer<typeof roleSchema>;

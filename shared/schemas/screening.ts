@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { FOLLOW_UPS } from '../screening/verdict.js';
+import { DECISION_OUTCOMES, FINDING_CLASSIFICATIONS, type DecisionOutcome, type Recommendation } from './enums.js';
 
 // Bodies of the screening, decision, follow-up and finding routes, and the decision rules both sides apply.
 
@@ -8,14 +9,13 @@ export const screeningRunBodySchema = z.object({
   comparison: z.boolean().default(false),
 });
 
-export const DECISION_OUTCOMES = ['release', 'release-with-restrictions', 'hold'] as const;
-export type DecisionOutcome = (typeof DECISION_OUTCOMES)[number];
+export { DECISION_OUTCOMES, type DecisionOutcome };
 
 /** Characters a reason needs when the decision goes against the recommendation. */
 export const AGAINST_REASON_MIN = 20;
 
 /** Whether a decision goes against the recommendation: go → hold; conditional → plain release; no-go → any release. */
-export function decisionGoesAgainst(recommendation: 'go' | 'conditional' | 'no-go', outcome: DecisionOutcome): boolean {
+export function decisionGoesAgainst(recommendation: Recommendation, outcome: DecisionOutcome): boolean {
   if (recommendation === 'go') return outcome === 'hold';
   if (recommendation === 'conditional') return outcome === 'release';
   return outcome !== 'hold';
@@ -47,7 +47,7 @@ export type DecisionBody = z.infer<typeof decisionBodySchema>;
 export const followUpCloseSchema = z.object({ result: z.string().trim().min(1, 'required').max(5000) });
 
 export const findingBodySchema = z.object({
-  classification: z.enum(['no-damage', 'deformation-confirmed', 'other']),
+  classification: z.enum(FINDING_CLASSIFICATIONS),
   text: z.string().trim().min(1, 'required').max(10000),
 });
 

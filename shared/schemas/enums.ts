@@ -1,0 +1,34 @@
+// Status and kind lists shared by the server's entities and the client's screens. Plain constants (no zod), so a page
+// that needs one list or label does not pull a schema library into its chunk.
+
+/** The five roles of the brief; a user may hold several. */
+export const ROLES = ['admin', 'protection', 'tester', 'manager', 'engineer'] as const;
+export type Role = (typeof ROLES)[number];
+
+/** A fault event's status (workflow: logged → testing → screened → held | released). */
+export const EVENT_STATUSES = ['logged', 'testing', 'screened', 'held', 'released'] as const;
+export type EventStatus = (typeof EVENT_STATUSES)[number];
+
+/** The screening's recommendation. */
+export const RECOMMENDATIONS = ['go', 'conditional', 'no-go'] as const;
+export type Recommendation = (typeof RECOMMENDATIONS)[number];
+
+/** Kinds of reading set: a post-fault set belongs to an event (a session); the others are the unit's own tests. */
+export const READING_SET_KINDS = ['factory', 'commissioning', 'routine', 'post-fault'] as const;
+export type ReadingSetKind = (typeof READING_SET_KINDS)[number];
+
+/** The kinds a reading set added to a unit (not to an event) may have. */
+export const UNIT_READING_SET_KINDS = ['factory', 'commissioning', 'routine'] as const;
+export type UnitReadingSetKind = (typeof UNIT_READING_SET_KINDS)[number];
+
+/** The manager's decision on a screening. */
+export const DECISION_OUTCOMES = ['release', 'release-with-restrictions', 'hold'] as const;
+export type DecisionOutcome = (typeof DECISION_OUTCOMES)[number];
+
+/** What an inspection found. */
+export const FINDING_CLASSIFICATIONS = ['no-damage', 'deformation-confirmed', 'other'] as const;
+export type FindingClassification = (typeof FINDING_CLASSIFICATIONS)[number];
+
+/** A queued e-mail's state. */
+export const NOTIFICATION_STATUSES = ['queued', 'sent', 'failed'] as const;
+export type NotificationStatus = (typeof NOTIFICATION_STATUSES)[number];

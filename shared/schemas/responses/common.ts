@@ -1,0 +1,8 @@
+import { z } from 'zod';
+
+// Building blocks of the API answers' schemas.
+
+/** A time as the API writes it: ISO 8601 in UTC (`2026-07-01T03:12:00.000Z`). */
+export const isoDateTime = z.iso.datetime();
+/** A row id. */
+export const rowId = z.number().int().positive();

@@ -1,0 +1,16 @@
+import { z } from 'zod';
+import { isoDateTime } from './common.js';
+
+// GET /api/dev/outbox — what the local mail sink received, newest first.
+
+export const outboxAttachmentSchema = z.strictObject({ filename: z.string(), contentType: z.string(), size: z.number().int().nonnegative() });
+export type OutboxAttachment = z.infer<typeof outboxAttachmentSchema>;
+
+export const outboxMessageSchema = z.strictObject({
+  to: z.string(),
+  subject: z.string(),
+  text: z.string(),
+  receivedAt: isoDateTime,
+  attachments: z.array(outboxAttachmentSchema),
+});
+export type OutboxMessage = z.infer<typeof outboxMessageSchema>;
