@@ -4,11 +4,17 @@ import express, { type Express } from 'express';
 import helmet from 'helmet';
 import type { AppContext } from './context.js';
 import { apiNotFound, errorHandler } from './common/error-handler.js';
-import { buildApiRouter } from './routes.js';
+import { createLogger, requestLogger, type Logger } from './logger.js';
+import type { RouteDef } from './route-def.js';
+import { buildApiRouter, routeTable } from './routes.js';
 
 export interface AppOptions {
   /** Folder of the built client (dist/); when absent only the API is served. */
   staticDir?: string;
+  /** The request log's logger; by default one at the configured LOG_LEVEL. */
+  logger?: Logger;
+  /** The API route table; tests pass their own, the app always uses the declared one. */
+  routes?: RouteDef[];
 }
 
 /** Builds the Express app (no listen: tests import it with supertest). */
@@ -17,6 +23,8 @@ export function createApp(context: AppContext, opts: AppOptions = {}): Express {
   app.locals.ctx = context;
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  // First, so every answer (404s, static files and errors included) carries X-Request-Id.
+  app.use(requestLogger(opts.logger ?? createLogger(context.config.LOG_LEVEL)));
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -34,7 +42,7 @@ export function createApp(context: AppContext, opts: AppOptions = {}): Express {
     }),
   );
   app.use('/api', express.json({ limit: '5mb' }));
-  app.use('/api', buildApiRouter());
+  app.use('/api', buildApiRouter(opts.routes ?? routeTable));
   app.use('/api', apiNotFound);
 
   const dir = opts.staticDir;

@@ -15,7 +15,7 @@ const envSchema = z.object({
   DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, 'letters, digits and _ only').default('gapsight'),
   DB_USER: z.string().default('gapsight'),
   DB_PASSWORD: z.string().optional(),
-  JWT_SECRET: z.string().min(32, 'at least 32 characters').optional(),
+  JWT_SECRET: z.string().optional(),
   JWT_EXPIRES_IN: z.string().regex(/^\d+[smhd]$/, 'a number followed by s, m, h or d (e.g. 8h)').default('8h'),
   DEMO: z.enum(['on', 'off']).default('on'),
   APP_URL: z.string().url().optional(),
@@ -28,6 +28,7 @@ const envSchema = z.object({
   MAIL_SINK_PORT: portSchema.default(2526),
   LOGIN_MAX_FAILURES: z.coerce.number().int().min(1).default(5),
   LOGIN_LOCK_MINUTES: z.coerce.number().min(0.01).default(15),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 
 export type Config = z.infer<typeof envSchema> & { dataDir: string; dbPassword: string; jwtSecret: string };
@@ -38,19 +39,43 @@ export function readDataSecret(dataDir: string, name: string): string {
   return existsSync(file) ? readFileSync(file, 'utf8').trim() : '';
 }
 
-/** Parses process.env into a Config; throws an Error naming every bad variable. */
-export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+export const JWT_SECRET_MIN = 32;
+
+/** A configuration the server cannot run with; the message names the variable. */
+export class ConfigError extends Error {}
+
+/**
+ * Parses the environment into a Config; throws a ConfigError naming every bad variable.
+ * An explicitly set JWT_SECRET must have at least 32 characters. When JWT_SECRET is not set, the secret comes from
+ * DATA_DIR/jwt-secret (written by `npm start`); with `requireJwtSecret` (the server) a missing or short one is an error,
+ * without it (database tools that sign nothing) jwtSecret is then ''.
+ */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, opts: { requireJwtSecret?: boolean } = {}): Config {
   const parsed = envSchema.safeParse(env);
-  if (!parsed.success) {
-    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
-    throw new Error(`Invalid environment:\n${lines.join('\n')}`);
+  const lines = parsed.success ? [] : parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+  const jwt = env.JWT_SECRET;
+  if (jwt !== undefined && jwt.trim().length < JWT_SECRET_MIN) {
+    lines.push(
+      jwt.trim() === ''
+        ? `  JWT_SECRET: set but empty; give it at least ${JWT_SECRET_MIN} random characters (e.g. openssl rand -hex 32), or unset it to use the data folder's secret`
+        : `  JWT_SECRET: ${jwt.length} characters; it needs at least ${JWT_SECRET_MIN} (e.g. openssl rand -hex 32)`,
+    );
   }
+  if (!parsed.success || lines.length) throw new ConfigError(`Invalid environment:\n${lines.join('\n')}`);
   const c = parsed.data;
   const dataDir = path.resolve(c.DATA_DIR);
+  const jwtSecret = c.JWT_SECRET ?? readDataSecret(dataDir, 'jwt-secret');
+  if (opts.requireJwtSecret && jwtSecret.length < JWT_SECRET_MIN) {
+    const file = path.join(dataDir, 'jwt-secret');
+    throw new ConfigError(
+      `Invalid environment:\n  JWT_SECRET: not set, and ${file} is ${jwtSecret ? `shorter than ${JWT_SECRET_MIN} characters` : 'missing'}; ` +
+        `set JWT_SECRET to at least ${JWT_SECRET_MIN} random characters (e.g. openssl rand -hex 32)`,
+    );
+  }
   return {
     ...c,
     dataDir,
-    dbPassword: c.DB_PASSWORD ?? readDataSecret(dataDir, 'db-password'),
-    jwtSecret: c.JWT_SECRET ?? readDataSecret(dataDir, 'jwt-secret'),
+    dbPassword: c.DB_PASSWORD || readDataSecret(dataDir, 'db-password'),
+    jwtSecret,
   };
 }

@@ -119,6 +119,8 @@ async function main(): Promise<number> {
     MAIL_SINK_PORT: '0',
     TEST_DB_SOCKET: paths.socket,
     TEST_DB_PID_FILE: paths.pidFile,
+    // Quiet request log; LOG_LEVEL=info npm test … shows it.
+    LOG_LEVEL: process.env.LOG_LEVEL ?? 'silent',
   });
   delete process.env.SMTP_HOST;
 

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import multer from 'multer';
+import { requestId } from '../logger.js';
 import { AppError } from './app-error.js';
 
 // JSON 404 for unknown API routes.
@@ -8,10 +9,19 @@ export const apiNotFound: RequestHandler = (req, res) => {
 };
 
 // Turns every error into `{ error: { code, message, fields? } }`; never a stack trace to the client.
-export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
+// A 5xx answer also carries the request id, which the log line of the error has too.
+export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
+  if (res.headersSent) {
+    // Too late for a JSON answer (a stream failed half-way): log it and let Express end the connection.
+    req.log?.error({ err }, 'error after the answer started');
+    next(err);
+    return;
+  }
   if (err instanceof AppError) {
     if (err.headers) for (const [k, v] of Object.entries(err.headers)) res.setHeader(k, v);
-    res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } });
+    const serverSide = err.status >= 500 ? { requestId: requestId(req) } : {};
+    if (err.status >= 500) req.log?.error({ err }, 'request failed');
+    res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}), ...serverSide } });
     return;
   }
   if (err instanceof multer.MulterError) {
@@ -33,6 +43,8 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
     res.status(e.status).json({ error: { code, message } });
     return;
   }
-  console.error(err);
-  res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server; the error was logged.' } });
+  req.log?.error({ err }, 'unhandled error');
+  res.status(500).json({
+    error: { code: 'internal', message: 'Something went wrong on the server; the error was logged.', requestId: requestId(req) },
+  });
 };

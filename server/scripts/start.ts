@@ -12,15 +12,16 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '.
 
 async function main(): Promise<void> {
   process.chdir(root);
-  let config = loadConfig();
-  const p = mariaDbPaths(config.dataDir, config.DB_PORT);
-  console.log(`Data folder: ${config.dataDir}`);
+  // Every variable is checked here, before anything starts; the secrets the data folder provides are checked once
+  // they are provisioned (a missing JWT_SECRET gets a generated one kept in DATA_DIR/jwt-secret).
+  const settings = loadConfig(process.env);
+  const p = mariaDbPaths(settings.dataDir, settings.DB_PORT);
+  console.log(`Data folder: ${settings.dataDir}`);
   const db0 = await startMariaDb(p);
   console.log(db0.alreadyRunning ? `MariaDB: already running on 127.0.0.1:${p.port} (reused)` : `MariaDB: started on 127.0.0.1:${p.port}`);
-  const password = ensureDatabaseAndUser(p, config.DB_NAME, config.DB_USER, config.DB_PASSWORD);
-  process.env.DB_PASSWORD ??= password;
-  if (!process.env.JWT_SECRET) process.env.JWT_SECRET = ensureSecretFile(config.dataDir, 'jwt-secret', 48);
-  config = loadConfig();
+  ensureDatabaseAndUser(p, settings.DB_NAME, settings.DB_USER, settings.DB_PASSWORD);
+  if (settings.JWT_SECRET === undefined) ensureSecretFile(settings.dataDir, 'jwt-secret', 48);
+  const config = loadConfig(process.env, { requireJwtSecret: true });
 
   const dev = process.env.GAPSIGHT_DEV === '1';
   if (dev) {
