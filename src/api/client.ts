@@ -43,6 +43,16 @@ export function writeStoredToken(token: string | null): void {
   }
 }
 
+/** Turn anything thrown into an ApiError a page can show. */
+export function toApiError(error: unknown): ApiError {
+  return error instanceof ApiError ? error : new ApiError(0, 'client_error', error instanceof Error ? error.message : String(error));
+}
+
+/** Whether a caught error is the abort of a request we cancelled ourselves. */
+export function isAbort(error: unknown, signal?: AbortSignal): boolean {
+  return !!signal?.aborted || (error instanceof DOMException && error.name === 'AbortError') || (error instanceof Error && error.name === 'AbortError');
+}
+
 type UnauthorizedHandler = (error: ApiError) => void;
 let unauthorizedHandler: UnauthorizedHandler | null = null;
 
@@ -83,7 +93,7 @@ function isErrorBody(value: unknown): value is { error: { code?: unknown; messag
     && (value as { error?: unknown }).error !== null;
 }
 
-async function toApiError(response: Response): Promise<ApiError> {
+async function errorFromResponse(response: Response): Promise<ApiError> {
   const retryHeader = response.headers.get('Retry-After');
   const retryAfterS = retryHeader !== null && /^\d+$/.test(retryHeader.trim()) ? Number(retryHeader) : undefined;
   let body: unknown = null;
@@ -135,7 +145,7 @@ export async function apiRequest<T>(method: string, path: string, options: Reque
   }
 
   if (!response.ok) {
-    const error = await toApiError(response);
+    const error = await errorFromResponse(response);
     // Only a token we sent that is still the current one ends the session: a wrong password at sign-in is
     // an ordinary error, and a burst of parallel 401s for the same token is handled once.
     if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) {
@@ -190,7 +200,7 @@ export async function apiDownload(path: string, options: Omit<RequestOptions, 'b
     throw new ApiError(0, 'network_error', 'Cannot reach the Gapsight server. Check the connection and try again.');
   }
   if (!response.ok) {
-    const error = await toApiError(response);
+    const error = await errorFromResponse(response);
     if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) {
       unauthorizedHandler(error);
     }

@@ -1,44 +1,15 @@
 // Design families (sister units) — GET /api/designs, GET /api/designs/:id.
-import type { Recommendation } from '../../shared/schemas/result';
+import type { DesignDetail, DesignListItem, DesignView } from '../../shared/schemas/responses';
 import { api } from './client';
 
-export interface Design {
-  id: number;
-  reference: string;
-  maker: string;
-  windings: string;
-  vectorGroup: string;
-  phases: 1 | 3;
-  hvKV: number;
-  lvKV: number;
-  tvKV: number | null;
-  coolingStages: { stage: string; kVA: number }[];
-  impedancePercent: number;
-  impedanceBaseKVA: number;
-  conductor: 'Cu' | 'Al';
-  requiredCapacitance: string[];
-  notes: string | null;
-}
-
-export interface DesignListItem extends Design {
-  unitCount: number;
-}
-
-export interface DesignDetail extends Design {
-  units: {
-    id: number;
-    serial: string;
-    position: string;
-    siteId: number;
-    siteName: string;
-    year: number | null;
-    lastRecommendation: Recommendation | null;
-  }[];
-}
+// The answers' types live in shared/schemas/responses.
+export type { DesignDetail, DesignListItem };
+/** A design family's own record. */
+export type Design = DesignView;
 
 // GET /api/designs — every design with its number of units.
-export function listDesigns(): Promise<DesignListItem[]> {
-  return api.get<DesignListItem[]>('/designs');
+export function listDesigns(signal?: AbortSignal): Promise<DesignListItem[]> {
+  return api.get<DesignListItem[]>('/designs', { signal });
 }
 
 // GET /api/designs/:id — one design with its sister units.

@@ -1,14 +1,11 @@
 // Sites (substations) with their time zones — GET /api/sites.
+import type { SiteView } from '../../shared/schemas/responses';
 import { api } from './client';
 
-export interface Site {
-  id: number;
-  name: string;
-  /** IANA time zone, e.g. Europe/London: the site's dates are shown in it. */
-  timeZone: string;
-}
+/** A site (its schema: shared/schemas/responses). */
+export type Site = SiteView;
 
 // GET /api/sites — every site by name.
-export function listSites(): Promise<Site[]> {
-  return api.get<Site[]>('/sites');
+export function listSites(signal?: AbortSignal): Promise<Site[]> {
+  return api.get<Site[]>('/sites', { signal });
 }

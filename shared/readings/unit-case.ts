@@ -1,0 +1,36 @@
+// A unit record (with its design) as the case format's unit block: the one mapping the server's case export, the
+// session form's references and the duty figures use.
+import { conductorSchema, windingsSchema, type Unit } from '../schemas/case.js';
+
+/** What a unit record holds for the case: its nameplate and its design's vector group, windings and capacitances. */
+export interface UnitRecord {
+  serial: string;
+  phases: 1 | 3;
+  ratedKVA: number;
+  hvKV: number;
+  lvKV: number;
+  impedancePercent: number;
+  systemImpedancePercent?: number | null;
+  conductor?: string | null;
+  design?: { vectorGroup?: string | null; windings?: string | null; requiredCapacitance?: readonly string[] | null } | null;
+}
+
+/** The case unit of a unit record; optional fields only when the record has them (and they are case values). */
+export function unitToCase(u: UnitRecord): Unit {
+  const d = u.design ?? null;
+  const windings = windingsSchema.safeParse(d?.windings);
+  const conductor = conductorSchema.safeParse(u.conductor);
+  return {
+    serial: u.serial,
+    phases: u.phases,
+    ratedKVA: u.ratedKVA,
+    hvKV: u.hvKV,
+    lvKV: u.lvKV,
+    impedancePercent: u.impedancePercent,
+    ...(u.systemImpedancePercent != null ? { systemImpedancePercent: u.systemImpedancePercent } : {}),
+    ...(windings.success ? { windings: windings.data } : {}),
+    ...(d?.vectorGroup ? { vectorGroup: d.vectorGroup } : {}),
+    ...(conductor.success ? { conductor: conductor.data } : {}),
+    ...(d?.requiredCapacitance?.length ? { requiredCapacitance: [...d.requiredCapacitance] } : {}),
+  };
+}

@@ -1,0 +1,49 @@
+// The one way pages and components change something on the server: `saving` while it runs, the failure as an
+// ApiError, and a notification — the success text when given, the failure unless the component shows it in place.
+import { ref, shallowRef, type Ref, type ShallowRef } from 'vue';
+import { useQuasar } from 'quasar';
+import { type ApiError, toApiError } from '../api/client';
+
+export interface MutationOptions<R> {
+  /** Notified when the change succeeded. */
+  success?: string | ((result: R) => string);
+  /** Words before the server's message in the failure notification (default "The change failed"). */
+  failure?: string;
+  /** The component shows `error` itself (beside the form or the field): no failure notification. */
+  inline?: boolean;
+}
+
+export interface Mutation<A extends unknown[], R> {
+  saving: Ref<boolean>;
+  error: ShallowRef<ApiError | null>;
+  /** Run the change; the result, or undefined when it failed (then `error` says why). */
+  run: (...args: A) => Promise<R | undefined>;
+  /** Forget the last failure. */
+  reset: () => void;
+}
+
+export function useMutation<A extends unknown[], R>(fn: (...args: A) => Promise<R>, options: MutationOptions<R> = {}): Mutation<A, R> {
+  const $q = useQuasar();
+  const saving = ref(false);
+  const error = shallowRef<ApiError | null>(null);
+
+  async function run(...args: A): Promise<R | undefined> {
+    saving.value = true;
+    error.value = null;
+    try {
+      const result = await fn(...args);
+      const message = typeof options.success === 'function' ? options.success(result) : options.success;
+      if (message) $q.notify({ type: 'positive', message });
+      return result;
+    } catch (caught) {
+      const e = toApiError(caught);
+      error.value = e;
+      if (!options.inline) $q.notify({ type: 'negative', message: `${options.failure ?? 'The change failed'}: ${e.message}` });
+      return undefined;
+    } finally {
+      saving.value = false;
+    }
+  }
+
+  return { saving, error, run, reset: () => (error.value = null) };
+}
