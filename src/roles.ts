@@ -1,5 +1,5 @@
 // What each role is called and does in Gapsight, in the words of the product brief's role table.
-import type { Role } from './api/auth';
+import type { Role } from '../shared/schemas/enums';
 
 export const ROLE_LABELS: Record<Role, string> = {
   protection: 'Protection engineer',

@@ -2,7 +2,9 @@
 import { defineStore } from 'pinia';
 import { computed, ref } from 'vue';
 import { ApiError, readStoredToken, writeStoredToken } from '../api/client';
-import { login, me, type Role, type SessionUser } from '../api/auth';
+import type { Role } from '../../shared/schemas/enums';
+import type { SessionUser } from '../../shared/schemas/responses';
+import { login, me } from '../api/auth';
 
 export const useSessionStore = defineStore('session', () => {
   const token = ref<string | null>(readStoredToken());

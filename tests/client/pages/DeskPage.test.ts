@@ -13,6 +13,8 @@ function listItem(overrides: Partial<EventListItem> = {}): EventListItem {
     type: 'three-phase',
     faultedPhases: 'ABC',
     side: 'lv',
+    location: null,
+    currentIs: null,
     shots: [{ currentKA: 6.3, durationS: 0.12 }],
     transformerTripped: true,
     protectionOperated: ['overcurrent'],

@@ -251,7 +251,7 @@ describe('EventFilePage (/events/:id)', () => {
 
   it('marks a stored post-fault sweep that has no baseline trace to compare with', async () => {
     const sweep = (id: number, label: string) => ({
-      id, readingSetId: 31, label, testType: 'open-circuit', terminals: null, winding: 'hv' as const, phase: label.includes('-A-') ? ('A' as const) : ('B' as const),
+      id, readingSetId: 31, label, testType: 'open-circuit' as const, terminals: null, winding: 'hv' as const, phase: label.includes('-A-') ? ('A' as const) : ('B' as const),
       tapPosition: '9b', baselineTapPosition: null, demagnetised: null, pointCount: 1000, minHz: 1000, maxHz: 1000000, sha256: 'ab'.repeat(32), fileName: null, createdAt: '2026-07-02T10:00:00.000Z',
     });
     const event = eventDetail();
@@ -277,7 +277,7 @@ describe('EventFilePage (/events/:id)', () => {
   it('tells the sweep form which baseline traces the unit has (from the unit file, before the fault)', async () => {
     const unit = unitDetail();
     unit.readingSets[1].sweeps = [
-      { id: 70, readingSetId: 20, label: 'HV-A-open', testType: 'open-circuit', terminals: null, tapPosition: '9b', demagnetised: null, pointCount: 1000, minHz: 1000, maxHz: 1000000, sha256: 'cd'.repeat(32), fileName: null, createdAt: '2019-05-02T12:00:00.000Z' },
+      { id: 70, readingSetId: 20, label: 'HV-A-open', testType: 'open-circuit', terminals: null, winding: null, phase: null, tapPosition: '9b', baselineTapPosition: null, demagnetised: null, pointCount: 1000, minHz: 1000, maxHz: 1000000, sha256: 'cd'.repeat(32), fileName: null, createdAt: '2019-05-02T12:00:00.000Z' },
     ];
     signedInAs(['tester'], eventDetail(), { 'GET /api/units/3': { body: unit } });
     const { wrapper } = await mountApp('/events/11');
