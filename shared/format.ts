@@ -63,3 +63,78 @@ export function offsetText(minutes: number): string {
   const abs = Math.abs(minutes);
   return `${sign}${pad2(Math.floor(abs / 60))}:${pad2(abs % 60)}`;
 }
+
+// ---------------------------------------------------------------------------------------------------------------------
+// Instants: one form for the app, the mail and the PDF — ISO date and time on the site's wall clock, offset, zone name.
+
+const DATE_ONLY = /^\d{4}-\d{2}-\d{2}$/;
+
+/**
+ * "2026-11-28 03:12 +00:00 Europe/London" (`withZone` false: "2026-11-28 03:12"); a date-only string stays as it is;
+ * empty → "—"; text that is no instant is returned as it is.
+ */
+export function formatInstant(iso: string | null | undefined, timeZone: string | null | undefined, withZone = true): string {
+  if (!iso) return '—';
+  if (DATE_ONLY.test(iso)) return iso;
+  const date = new Date(iso);
+  if (Number.isNaN(date.getTime())) return iso;
+  const zone = validZone(timeZone);
+  const w = wallClock(date, zone);
+  const text = `${w.year}-${pad2(w.month)}-${pad2(w.day)} ${pad2(w.hour)}:${pad2(w.minute)}`;
+  return withZone ? `${text} ${offsetText(zoneOffsetMinutes(date, zone))} ${zone}` : text;
+}
+
+/** The date part on the site's wall clock ("2026-11-28"); a date-only string stays as it is; empty → "—". */
+export function formatDay(iso: string | null | undefined, timeZone: string | null | undefined): string {
+  if (!iso) return '—';
+  if (DATE_ONLY.test(iso)) return iso;
+  const date = new Date(iso);
+  if (Number.isNaN(date.getTime())) return iso;
+  const w = wallClock(date, validZone(timeZone));
+  return `${w.year}-${pad2(w.month)}-${pad2(w.day)}`;
+}
+
+/** Whole years from `from` to `to` (completed years; null when either is not a date). */
+export function wholeYears(from: string, to: string): number | null {
+  const a = new Date(from);
+  const b = new Date(to);
+  if (Number.isNaN(a.getTime()) || Number.isNaN(b.getTime())) return null;
+  let years = b.getUTCFullYear() - a.getUTCFullYear();
+  const beforeAnniversary =
+    b.getUTCMonth() < a.getUTCMonth() || (b.getUTCMonth() === a.getUTCMonth() && b.getUTCDate() < a.getUTCDate());
+  if (beforeAnniversary) years--;
+  return Math.max(0, years);
+}
+
+// ---------------------------------------------------------------------------------------------------------------------
+// Figures in words
+
+/** A percentage or similar figure for reading: 89 · 8.7 · 0.29 (and a sign when asked: +3.42 is kept at 3 digits). */
+export function formatFigure(value: number | null | undefined, signed = false): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  const abs = Math.abs(value);
+  const text = abs >= 100 ? value.toFixed(0) : formatSignificant(value, 3);
+  return signed && value > 0 ? `+${text}` : text;
+}
+
+/** A coarse percentage for plain words: 89 · 8.7 · 0.99 (whole numbers from 10, one decimal from 1). */
+export function formatCoarse(value: number | null | undefined): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  const abs = Math.abs(value);
+  if (abs >= 10) return value.toFixed(0);
+  if (abs >= 1) return value.toFixed(1);
+  return formatSignificant(value, 2);
+}
+
+/** A multiple of rated current with one decimal ("9.0"). */
+export function formatPerUnit(value: number): string {
+  return value.toFixed(1);
+}
+
+/** "1st", "2nd", "3rd", "4th", "11th", "22nd". */
+export function ordinal(n: number): string {
+  const mod100 = n % 100;
+  if (mod100 >= 11 && mod100 <= 13) return `${n}th`;
+  const suffix = ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th';
+  return `${n}${suffix}`;
+}

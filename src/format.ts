@@ -1,6 +1,6 @@
 // How the client writes numbers and times: numbers with a sensible precision (tabular figures come from CSS),
 // dates in ISO form in the site's time zone, with the zone named.
-import { formatSignificant, offsetText, pad2 as pad, validZone, wallClock, zoneOffsetMinutes } from '../shared/format';
+import { formatDay, formatInstant, formatSignificant, offsetText, pad2 as pad, validZone, wallClock, zoneOffsetMinutes } from '../shared/format';
 
 export { formatSignificant, zoneOffsetMinutes };
 
@@ -19,22 +19,12 @@ export function formatBytes(bytes: number): string {
 
 /** An instant in ISO form on the site's wall clock, with offset and zone: "2026-11-28 03:12 +00:00 Europe/London". */
 export function formatInZone(iso: string | null | undefined, timeZone: string | null | undefined, withZone = true): string {
-  if (!iso) return '—';
-  const date = new Date(iso);
-  if (Number.isNaN(date.getTime())) return iso;
-  const zone = validZone(timeZone);
-  const w = wallClock(date, zone);
-  const text = `${w.year}-${pad(w.month)}-${pad(w.day)} ${pad(w.hour)}:${pad(w.minute)}`;
-  return withZone ? `${text} ${offsetText(zoneOffsetMinutes(date, zone))} ${zone}` : text;
+  return formatInstant(iso, timeZone, withZone);
 }
 
 /** The date part only, on the site's wall clock ("2026-11-28"). */
 export function formatDateInZone(iso: string | null | undefined, timeZone: string | null | undefined): string {
-  if (!iso) return '—';
-  const date = new Date(iso);
-  if (Number.isNaN(date.getTime())) return iso;
-  const w = wallClock(date, validZone(timeZone));
-  return `${w.year}-${pad(w.month)}-${pad(w.day)}`;
+  return formatDay(iso, timeZone);
 }
 
 /** The value of a datetime-local input ("2026-11-28T03:12") for an instant, on the site's wall clock. */

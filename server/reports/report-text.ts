@@ -1,92 +1,33 @@
-// Words and numbers shared by the manager's e-mail and the PDF report: pure functions, no I/O.
-// The result JSON keeps full precision; everything here rounds for display the way the UI does.
+// What the manager's e-mail and the PDF report say: the narrative built from a stored screening. Pure functions, no I/O.
+// Labels for codes come from the shared vocabulary, numbers and times from shared/format.ts; the result JSON keeps full
+// precision and everything here rounds for display the way the UI does.
 import type { GapsightCase } from '../../shared/schemas/case.js';
-import type { Basis, GapsightResult, Indicator, Level, Method, Recommendation, ThroughFault } from '../../shared/schemas/result.js';
+import type { GapsightResult, Indicator, Level, Method, Recommendation, ThroughFault } from '../../shared/schemas/result.js';
 import { CAUTIONS, corroboratingMethods, describeRequired, isDutyOnlyPath } from '../../shared/screening/verdict.js';
 import { criteriaV1, type Criteria } from '../../shared/screening/criteria.js';
 import { levelRank } from '../../shared/screening/levels.js';
 import { decisiveReason } from '../../shared/screening/reasons.js';
-
-export { decisiveReason };
+import { INTERNAL_PROTECTIONS, isInternalProtection } from '../../shared/screening/protections.js';
+import {
+  LEVEL_WORD,
+  QUANTITY_LABELS,
+  RECOMMENDATION_WORD,
+  basisLabel,
+  faultTypeWord,
+  inSentence,
+  indicatorLabel,
+  indicatorUnit,
+  methodWord,
+  protectionWord,
+} from '../../shared/vocabulary.js';
+import { formatCoarse, formatDay, formatFigure, formatInstant, formatPerUnit, formatSignificant, ordinal, wholeYears } from '../../shared/format.js';
 import type { ScreeningReportData } from './report-data.js';
-import { formatSignificant, offsetText, pad2 as pad, validZone, wallClock, zoneOffsetMinutes } from '../../shared/format.js';
 
-export { formatSignificant };
-
-// ---------------------------------------------------------------------------------------------------------------------
-// Numbers
-
-/** A percentage or similar figure for reading: 89 · 8.7 · 0.29 (and a sign when asked: +3.42 is kept at 3 digits). */
-export function formatFigure(value: number | null | undefined, signed = false): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  const abs = Math.abs(value);
-  const text = abs >= 100 ? value.toFixed(0) : formatSignificant(value, 3);
-  return signed && value > 0 ? `+${text}` : text;
-}
-
-/** A coarse percentage for plain words: 89 · 8.7 · 0.99 (whole numbers from 10, one decimal from 1). */
-export function formatCoarse(value: number | null | undefined): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  const abs = Math.abs(value);
-  if (abs >= 10) return value.toFixed(0);
-  if (abs >= 1) return value.toFixed(1);
-  return formatSignificant(value, 2);
-}
-
-/** A multiple of rated current with one decimal ("9.0"). */
-export function formatPerUnit(value: number): string {
-  return value.toFixed(1);
-}
-
-/** "1st", "2nd", "3rd", "4th", "11th", "22nd". */
-export function ordinal(n: number): string {
-  const mod100 = n % 100;
-  if (mod100 >= 11 && mod100 <= 13) return `${n}th`;
-  const suffix = ['th', 'st', 'nd', 'rd'][n % 10] ?? 'th';
-  return `${n}${suffix}`;
-}
-
-// ---------------------------------------------------------------------------------------------------------------------
-// Times (ISO form on the site's wall clock, zone named)
-
-/** "2026-11-28 03:12 Europe/London (UTC+00:00)"; a date-only string stays as it is; empty → "—". */
-export function formatInstant(iso: string | null | undefined, timeZone: string | null | undefined): string {
-  if (!iso) return '—';
-  if (/^\d{4}-\d{2}-\d{2}$/.test(iso)) return iso;
-  const date = new Date(iso);
-  if (Number.isNaN(date.getTime())) return iso;
-  const zone = validZone(timeZone);
-  const w = wallClock(date, zone);
-  return `${w.year}-${pad(w.month)}-${pad(w.day)} ${pad(w.hour)}:${pad(w.minute)} ${zone} (UTC${offsetText(zoneOffsetMinutes(date, zone))})`;
-}
-
-/** The date part on the site's wall clock ("2026-11-28"); a date-only string stays as it is. */
-export function formatDay(iso: string | null | undefined, timeZone: string | null | undefined): string {
-  if (!iso) return '—';
-  if (/^\d{4}-\d{2}-\d{2}$/.test(iso)) return iso;
-  const date = new Date(iso);
-  if (Number.isNaN(date.getTime())) return iso;
-  const w = wallClock(date, validZone(timeZone));
-  return `${w.year}-${pad(w.month)}-${pad(w.day)}`;
-}
-
-/** Whole years from `from` to `to` (completed years; null when either is not a date). */
-export function wholeYears(from: string, to: string): number | null {
-  const a = new Date(from);
-  const b = new Date(to);
-  if (Number.isNaN(a.getTime()) || Number.isNaN(b.getTime())) return null;
-  let years = b.getUTCFullYear() - a.getUTCFullYear();
-  const beforeAnniversary =
-    b.getUTCMonth() < a.getUTCMonth() || (b.getUTCMonth() === a.getUTCMonth() && b.getUTCDate() < a.getUTCDate());
-  if (beforeAnniversary) years--;
-  return Math.max(0, years);
-}
+export { decisiveReason, formatInstant, formatSignificant, indicatorLabel, LEVEL_WORD, methodWord, RECOMMENDATION_WORD };
 
 // ---------------------------------------------------------------------------------------------------------------------
 // Words
 
-export const RECOMMENDATION_WORD: Record<Recommendation, string> = { go: 'GO', conditional: 'CONDITIONAL', 'no-go': 'NO-GO' };
-export const LEVEL_WORD: Record<Level, string> = { ok: 'OK', watch: 'WATCH', investigate: 'INVESTIGATE', critical: 'CRITICAL' };
 export const levelAtLeast = (l: Level, min: Level) => levelRank(l) >= levelRank(min);
 
 /** What each recommendation means, in one line, for a unit that tripped (see `recommendationMeaning` for one in service). */
@@ -124,64 +65,8 @@ export const RECOMMENDATION_LEVEL: Record<Recommendation, Level> = { go: 'ok', c
 export const recommendationColour = (r: Recommendation) => PALETTE[RECOMMENDATION_LEVEL[r]];
 export const levelColour = (l: Level) => PALETTE[l];
 
-/** Protections whose operation means an internal fault is suspected (case format). */
-export const INTERNAL_PROTECTIONS: readonly string[] = [
-  'differential',
-  'restricted-earth-fault',
-  'buchholz-trip',
-  'sudden-pressure',
-  'pressure-relief',
-];
-
-const PROTECTION_WORDS: Record<string, string> = {
-  differential: 'differential',
-  'restricted-earth-fault': 'restricted earth fault',
-  'buchholz-alarm': 'Buchholz alarm',
-  'buchholz-trip': 'Buchholz trip',
-  'sudden-pressure': 'sudden pressure',
-  'pressure-relief': 'pressure relief',
-  overcurrent: 'overcurrent',
-};
-export const protectionWord = (p: string) => PROTECTION_WORDS[p] ?? p;
-
-const FAULT_TYPE_WORDS: Record<string, string> = {
-  'three-phase': 'three-phase',
-  'phase-to-phase': 'phase-to-phase',
-  'phase-to-phase-to-ground': 'phase-to-phase-to-ground',
-  'phase-to-ground': 'phase-to-ground',
-};
-
-const METHOD_WORDS: Record<Method, string> = {
-  capacitance: 'capacitance',
-  'power-factor': 'power factor',
-  reactance: 'leakage reactance',
-  sweep: 'frequency-response sweep',
-  excitation: 'excitation current',
-  resistance: 'winding resistance',
-  ratio: 'turns ratio',
-  gas: 'dissolved gases',
-  bushing: 'bushings',
-  sisters: 'sister-unit statistics',
-  duty: 'through-fault duty',
-};
-export const methodWord = (m: string) => METHOD_WORDS[m as Method] ?? m;
-
-/** What an indicator compares, in words (rules revision 2). */
-export const BASIS_WORDS: Record<Basis, string> = {
-  change: 'against own baseline',
-  sisters: 'against sister units',
-  'phase-comparison': 'phase A vs C',
-  state: 'state',
-  duty: 'duty',
-};
-
-/** The basis of one indicator in words ("against own previous test" for a change against `previous`); null before revision 2. */
-export function basisWords(i: Indicator): string | null {
-  if (!i.basis) return null;
-  if (i.basis === 'change' && /pre-fault/i.test(i.reference ?? '')) return 'against own pre-fault sample';
-  if (i.basis === 'change' && (/FromPrevious/.test(i.key) || /previous/i.test(i.reference ?? ''))) return 'against own previous test';
-  return BASIS_WORDS[i.basis] ?? i.basis;
-}
+/** The basis of one indicator in words; null before revision 2. */
+export const basisWords = (i: Indicator): string | null => basisLabel(i);
 
 /** Legend of the basis words, for the PDF and the mail. */
 export const BASIS_LEGEND =
@@ -237,102 +122,6 @@ export function cautionsOf(r: GapsightResult): string[] {
   return [...stored, ...CAUTIONS.filter((c) => !stored.includes(c))];
 }
 
-
-/** A short label for an indicator key ("CHL capacitance shift vs baseline"); unknown keys are returned as they are. */
-export function indicatorLabel(key: string): string {
-  const p = key.split('.');
-  const last = p[p.length - 1];
-  const [head, a, b] = p;
-  switch (head) {
-    case 'capacitance':
-      if (last === 'shiftPercent') return `${a} capacitance shift vs baseline`;
-      if (last === 'shiftFromPreviousPercent') return `${a} capacitance shift vs previous test`;
-      if (last === 'consistencyPercent') return `${a} GST/UST consistency`;
-      break;
-    case 'powerFactor':
-      if (last === 'pf20Percent') return `${a} power factor at 20 °C`;
-      if (last === 'riseFromBaselinePercent') return `${a} power factor rise vs baseline`;
-      break;
-    case 'reactance':
-      if (a === 'phaseSpreadPercent') return 'Reactance per-phase spread';
-      if (a === 'phaseSpreadChangePoints') return 'Reactance spread change vs baseline';
-      if (a === 'threePhase' && last === 'percent') return 'Three-phase equivalent impedance';
-      if (a === 'threePhase') return 'Three-phase impedance vs nameplate';
-      if (last === 'percent') return `Phase ${a} leakage reactance`;
-      if (last === 'shiftPercent') return `Phase ${a} reactance shift vs baseline`;
-      if (last === 'shiftFromPreviousPercent') return `Phase ${a} reactance shift vs previous test`;
-      if (last === 'deviationFromAveragePercent') return `Phase ${a} reactance vs the phases' mean`;
-      break;
-    case 'sweep': {
-      // Phase comparison without a baseline trace: sweep.<winding>.AC.<figure>
-      const ac = p.length === 4 && p[2] === 'AC' && ['hv', 'lv', 'tv'].includes(p[1]);
-      const label = ac ? `${p[1].toUpperCase()} phase A vs C` : p.slice(1, -1).join('.');
-      const words: Record<string, string> = {
-        correlation: 'correlation',
-        rLF: 'relative factor, low band',
-        rMF: 'relative factor, mid band',
-        rHF: 'relative factor, high band',
-        asleDb: 'ASLE',
-        class: 'DL/T 911 class',
-      };
-      return `Sweep ${label} ${words[last] ?? last}`;
-    }
-    case 'duty': {
-      const words: Record<string, string> = {
-        eventDutyPercent: 'Event duty (of mechanical limit)',
-        thermalDurationPercent: "Shot time (of the thermal curve's allowed time)",
-        forceRatioPercent: 'Force ratio (of design force)',
-        shotsAboveSegment: 'Shots at or above segment start',
-        cumulativeDutyPercent: 'Cumulative duty (Gapsight tally)',
-      };
-      if (words[a]) return words[a];
-      break;
-    }
-    case 'gas':
-      if (a === 'duvalZone') return 'Duval triangle 1 zone';
-      if (last === 'risePPM') return `${a === 'C2H2' ? 'Acetylene (C2H2)' : a === 'H2' ? 'Hydrogen (H2)' : a} rise`;
-      break;
-    case 'excitation':
-      if (a === 'outerPhaseDifferencePercent') return 'Excitation current, outer phases differ';
-      if (last === 'changePercent') return `Phase ${a} excitation current change`;
-      break;
-    case 'resistance':
-      if (a === 'phaseImbalancePercent') return 'Winding resistance phase imbalance';
-      if (last === 'changePercent') return `Phase ${a} winding resistance change`;
-      break;
-    case 'ratio':
-      if (last === 'changePercent') return `Phase ${a} turns ratio change`;
-      if (last === 'deviationFromNameplatePercent') return `Phase ${a} turns ratio vs nameplate`;
-      break;
-    case 'sisters': {
-      const what = a === 'capacitance' ? `${b} capacitance` : a === 'reactance' ? `phase ${b} reactance` : `${a} ${b}`;
-      const words: Record<string, string> = {
-        modifiedZ: 'modified z among sisters',
-        deviationFromMedianPercent: "deviation from sisters' median",
-        grubbsG: 'Grubbs G among sisters',
-        dixonQ: "Dixon's Q among sisters",
-      };
-      return `${what[0].toUpperCase()}${what.slice(1)} ${words[last] ?? last}`;
-    }
-    case 'bushing':
-      if (last === 'c1ShiftPercent') return `Bushing ${a} C1 shift vs reference`;
-      if (last === 'c1Pf20RisePercent') return `Bushing ${a} C1 power factor rise`;
-      break;
-    case 'dfFrequency':
-      return `${a} dissipation over frequency: ${last}`;
-  }
-  return key;
-}
-
-/** The unit of an indicator's value, where known ("%", "points", "ppm", "dB"; "" for ratios, scores and classes). */
-export function indicatorUnit(key: string): string {
-  const last = key.split('.').pop() ?? '';
-  if (/Points$/.test(last)) return 'points';
-  if (/PPM$/.test(last)) return 'ppm';
-  if (/Db$/.test(last)) return 'dB';
-  if (/Percent$/.test(last) || last === 'percent') return '%';
-  return '';
-}
 
 /** Words in place of the event duty's percentage of K for a thermal-region event (never told as a share of K). */
 export const THERMAL_REGION_DUTY = 'not applied: thermal region (below the high-duty threshold), see the time against the curve';
@@ -396,7 +185,9 @@ export interface ProtectionSummary {
 /** Whether a transformer protection operated, and whether it is an internal one. */
 export function protectionSummary(d: ScreeningReportData): ProtectionSummary {
   const operated = [...new Set([...(d.event.protectionOperated ?? []), ...(d.case.fault?.protectionOperated ?? [])])];
-  const internal = operated.filter((p) => INTERNAL_PROTECTIONS.includes(p));
+  // The screening's own criteria set says which protections are internal.
+  const internalList = d.criteria?.verdict.internalProtections ?? INTERNAL_PROTECTIONS;
+  const internal = operated.filter((p) => isInternalProtection(p, internalList));
   const tripped = stayedInService(d) ? 'the unit stayed in service' : 'the unit tripped';
   let line: string;
   if (internal.length) {
@@ -404,7 +195,7 @@ export function protectionSummary(d: ScreeningReportData): ProtectionSummary {
     const others = operated.filter((p) => !internal.includes(p));
     if (others.length) line += ` Also operated: ${others.map(protectionWord).join(', ')}.`;
   } else if (operated.length) {
-    line = `Protection operated: ${operated.map(protectionWord).join(', ')} — no internal protection (differential, restricted earth fault, Buchholz trip, sudden pressure, pressure relief) operated; ${tripped}.`;
+    line = `Protection operated: ${operated.map(protectionWord).join(', ')} — no internal protection (${internalList.map(protectionWord).join(', ')}) operated; ${tripped}.`;
   } else {
     line = `No transformer protection recorded as operated; ${tripped}.`;
   }
@@ -421,7 +212,7 @@ export function currentWords(tf: ThroughFault): string {
 /** The fault in plain words: "9.0 × rated winding current, 89 % of the design force (IEEE category IV), the 2nd such fault since 2024". */
 export function faultInWords(d: ScreeningReportData): string {
   const tf = d.result.throughFault;
-  const type = FAULT_TYPE_WORDS[d.event.type] ?? d.event.type;
+  const type = faultTypeWord(d.event.type);
   const location = d.case.fault?.location;
   const onOther = location !== undefined && location !== d.event.side ? `, fault on the ${location.toUpperCase()} side` : '';
   const where = `${type} fault, current measured on the ${d.event.side.toUpperCase()} side${onOther}`;
@@ -497,17 +288,18 @@ export function dutyInWords(result: GapsightResult, c: GapsightCase): string | n
   return `Thermal region (below the high-duty threshold): ${thermalTimeInWords(tf, c)}, ${curve}; ${tally}`;
 }
 
+/** The post-fault sections listed as tests done, in this order, with their words. */
 const SECTION_WORDS: [string, string][] = [
-  ['capacitancePF', 'capacitance'],
-  ['dissipationPercent', 'dissipation / power factor'],
-  ['reactance', 'leakage reactance'],
-  ['threePhaseEquivalent', 'three-phase equivalent impedance'],
-  ['excitationCurrentMA', 'excitation current'],
-  ['windingResistanceOhm', 'winding resistance'],
-  ['turnsRatio', 'turns ratio'],
-  ['dissolvedGasPPM', 'dissolved gases (oil sample)'],
-  ['dissipationByFrequency', 'dissipation over frequency'],
-];
+  'capacitancePF',
+  'dissipationPercent',
+  'reactance',
+  'threePhaseEquivalent',
+  'excitationCurrentMA',
+  'windingResistanceOhm',
+  'turnsRatio',
+  'dissolvedGasPPM',
+  'dissipationByFrequency',
+].map((field) => [field, inSentence(QUANTITY_LABELS[field])]);
 
 /** Words for a required or unreliable item named by its case field (`sweep.hv.B`, `sweep.<label>`, `turnsRatio`, …). */
 export function itemWords(item: string): string {

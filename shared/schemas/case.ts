@@ -1,6 +1,7 @@
 // Zod schema and inferred types of a screening case (`gapsight-case/1`, public contract: product case-format).
 // Unknown extra fields are allowed everywhere (the contract lets callers add optional fields).
 import { z } from 'zod';
+import { PROTECTIONS } from '../screening/protections.js';
 
 const finite = () => z.number().finite();
 const positive = () => z.number().finite().positive();
@@ -17,15 +18,7 @@ export const faultSideSchema = z.enum(['hv', 'lv']);
 export const currentIsSchema = z.enum(['line', 'winding']);
 export const sweepWindingSchema = z.enum(['hv', 'lv', 'tv']);
 export const sweepPhaseSchema = z.enum(['A', 'B', 'C']);
-export const protectionSchema = z.enum([
-  'differential',
-  'restricted-earth-fault',
-  'buchholz-alarm',
-  'buchholz-trip',
-  'sudden-pressure',
-  'pressure-relief',
-  'overcurrent',
-]);
+export const protectionSchema = z.enum(PROTECTIONS);
 export const windingsSchema = z.enum(['two-winding', 'three-winding', 'auto', 'auto-tertiary']);
 export const conductorSchema = z.enum(['Cu', 'Al']);
 

@@ -1,6 +1,7 @@
 // Criteria set: every threshold and table the engine uses, with its source. Plain JSON (stored in a database column).
 import { z } from 'zod';
 import { levelSchema, methodSchema } from '../schemas/result.js';
+import { INTERNAL_PROTECTIONS } from './protections.js';
 
 /** A band starts at `from` (inclusive, after rounding to the criteria's significant digits) and carries `level`. */
 const bandSchema = z.object({ from: z.number(), level: levelSchema });
@@ -424,7 +425,7 @@ export const criteriaV1: Criteria = {
     source: 'common practice: DF(f) = A/f + B·f + C least squares; rising A/f points to moisture or contamination (informative)',
   },
   verdict: {
-    internalProtections: ['differential', 'restricted-earth-fault', 'buchholz-trip', 'sudden-pressure', 'pressure-relief'],
+    internalProtections: [...INTERNAL_PROTECTIONS],
     internalSource: 'Gapsight case format: an internal protection operated → investigate as an internal fault',
     independentMethods: ['capacitance', 'reactance', 'sweep', 'excitation', 'resistance', 'ratio', 'gas'],
     sameTestAs: { 'power-factor': 'capacitance' },

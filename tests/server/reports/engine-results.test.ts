@@ -110,7 +110,7 @@ describe('mail and PDF on the results the engine computes now (every example cas
         // Findings carry their basis in words; low-confidence ones their doubt.
         for (const i of r.indicators.filter((x) => x.level !== 'ok' && x.method !== 'duty')) {
           expect(i.basis).toBeDefined();
-          const words = { change: /against own (baseline|previous test|pre-fault sample)\)/, sisters: /against sister units\)/, 'phase-comparison': /phase A vs C\)/, state: /, state\)/, duty: /, duty\)/ }[i.basis!];
+          const words = { change: /against own (baseline|previous test|pre-fault sample)\)/, sisters: /against sister units\)/, 'phase-comparison': /phase A vs C\)/, state: /, state \(absolute value\)\)/, duty: /, duty\)/ }[i.basis!];
           expect(mail.text).toMatch(words);
           if (i.lowConfidence) expect(mail.text).toContain(`LOW CONFIDENCE: ${i.note}`);
         }

@@ -51,12 +51,12 @@ describe("manager's e-mail (buildManagerMail)", () => {
 
   it('shows the times in ISO form with the site time zone and its offset (winter and summer)', () => {
     const m = buildManagerMail(recentEventReport());
-    expect(m.text).toContain('Fault: 2026-11-28 03:12 Europe/London (UTC+00:00)');
-    expect(m.text).toContain('Post-fault tests: 2026-11-29 12:12 Europe/London (UTC+00:00)');
+    expect(m.text).toContain('Fault: 2026-11-28 03:12 +00:00 Europe/London');
+    expect(m.text).toContain('Post-fault tests: 2026-11-29 12:12 +00:00 Europe/London');
     const summer = internalFaultReport(); // 2026-08-17T05:02:00Z
-    expect(buildManagerMail(summer).text).toContain('Fault: 2026-08-17 06:02 Europe/London (UTC+01:00)');
+    expect(buildManagerMail(summer).text).toContain('Fault: 2026-08-17 06:02 +01:00 Europe/London');
     const sydney = { ...recentEventReport(), site: { name: 'Harrow Cross', timeZone: 'Australia/Sydney' } };
-    expect(buildManagerMail(sydney).text).toContain('Fault: 2026-11-28 14:12 Australia/Sydney (UTC+11:00)');
+    expect(buildManagerMail(sydney).text).toContain('Fault: 2026-11-28 14:12 +11:00 Australia/Sydney');
   });
 
   it('names the tests done and outstanding in words', () => {
@@ -219,11 +219,11 @@ describe("manager's e-mail under rules revision 2", () => {
     const m = buildManagerMail(doubtsReport());
     expect(m.text).toContain('CHL capacitance shift vs baseline +3.42 % (INVESTIGATE, against own baseline)');
     expect(m.text).toContain('CHL capacitance shift vs previous test +3.16 % (INVESTIGATE, against own previous test)');
-    expect(m.text).toContain('Phase A turns ratio vs nameplate +0.62 % (WATCH, state)');
+    expect(m.text).toContain('Phase A turns ratio vs nameplate +0.62 % (WATCH, state (absolute value))');
     expect(m.text).toContain(
       'CHL power factor rise vs baseline +62 % (WATCH, against own baseline) — LOW CONFIDENCE: temperature correction uncertain (insulation 12 °C and 31 °C)',
     );
-    expect(m.text).toContain('CHL capacitance modified z among sisters +8.57 (WATCH, state)');
+    expect(m.text).toContain('CHL capacitance modified z among sisters +8.57 (WATCH, state (absolute value))');
     expect(m.html).toContain(escapeHtml('(WATCH, against own baseline) — LOW CONFIDENCE: temperature correction uncertain'));
     expect(m.text).toContain('Basis: against own baseline / previous test = a change of this unit');
   });

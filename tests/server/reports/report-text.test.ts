@@ -56,7 +56,7 @@ describe('report text: winding current, basis, revision, cautions, unreliable it
     expect(basisWords(ind({ key: 'gas.C2H2.risePPM', method: 'gas', basis: 'change', reference: '2024-09-02 pre-fault sample' }))).toBe('against own pre-fault sample');
     expect(basisWords(ind({ basis: 'sisters' }))).toBe('against sister units');
     expect(basisWords(ind({ key: 'sweep.hv.AC.class', basis: 'phase-comparison' }))).toBe('phase A vs C');
-    expect(basisWords(ind({ basis: 'state' }))).toBe('state');
+    expect(basisWords(ind({ basis: 'state' }))).toBe('state (absolute value)');
     expect(basisWords(ind({ basis: 'duty' }))).toBe('duty');
     expect(basisWords(ind({}))).toBeNull();
   });

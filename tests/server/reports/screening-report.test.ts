@@ -60,8 +60,8 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
     const text = allText(buildReportDocDefinition(recentEventReport()));
     expect(text).toContain('Gapsight screening report');
     expect(text).toContain('KVP-HX-T2 · T2 · Harrow Cross');
-    expect(text).toMatch(/#318: three-phase fault, LV side, 2026-11-28 03:12 Europe\/London \(UTC\+00:00\)/);
-    expect(text).toContain('2026-11-29 14:05 Europe/London (UTC+00:00) by Priya Natarajan <priya.natarajan@kestrel-valley.example>');
+    expect(text).toMatch(/#318: three-phase fault, LV side, 2026-11-28 03:12 \+00:00 Europe\/London/);
+    expect(text).toContain('2026-11-29 14:05 +00:00 Europe/London by Priya Natarajan <priya.natarajan@kestrel-valley.example>');
     expect(text).toMatch(/Computed with\ncriteria set 1, rules revision \d/);
     expect(text).not.toContain('COMPARISON RUN');
   });
@@ -202,7 +202,7 @@ describe('PDF screening report under rules revision 2', () => {
     expect(text).toContain('Method / basis');
     expect(text).toMatch(/capacitance\.CHL\.shiftPercent[\s\S]*?capacitance\nagainst own baseline\n/);
     expect(text).toMatch(/capacitance\.CHL\.shiftFromPreviousPercent[\s\S]*?capacitance\nagainst own previous test\n/);
-    expect(text).toMatch(/ratio\.A\.deviationFromNameplatePercent[\s\S]*?turns ratio\nstate\n/);
+    expect(text).toMatch(/ratio\.A\.deviationFromNameplatePercent[\s\S]*?turns ratio\nstate \(absolute value\)\n/);
     expect(text).toMatch(/duty\.eventDutyPercent[\s\S]*?through-fault duty\nduty\n/);
     expect(text).toContain('LOW CONFIDENCE: temperature correction uncertain (insulation 12 °C and 31 °C)');
     expect(text).toContain('Basis: against own baseline / previous test = a change of this unit');

@@ -1,0 +1,300 @@
+// Words for the engine's and the API's codes, used by the screens, the manager's e-mail and the PDF report alike.
+// A leaf module: only type imports (erased) and plain constants, so a page that needs one label loads no engine, no
+// schema library and no CSV parser. Labels start with a capital; `inSentence` gives the form used inside a sentence.
+import type { CurrentIs, FaultType } from './schemas/case.js';
+import type { Basis, Indicator, Level, Method } from './schemas/result.js';
+import type {
+  DecisionOutcome,
+  EventStatus,
+  FindingClassification,
+  NotificationStatus,
+  ReadingSetKind,
+  Recommendation,
+} from './schemas/enums.js';
+import type { ProtectionCode } from './screening/protections.js';
+import type { CurrentBasis } from './screening/through-fault.js';
+
+/** Words that keep their capital inside a sentence (names of people and methods). */
+const PROPER_WORDS = /^(Buchholz|Duval|Dixon's|Grubbs|Gapsight|IEEE|IEC)\b/;
+
+/** A label as written inside a sentence: first letter lower case, unless the first word is a name or an abbreviation. */
+export function inSentence(label: string): string {
+  if (PROPER_WORDS.test(label) || /^[A-Z0-9]{2}/.test(label)) return label;
+  return label.charAt(0).toLowerCase() + label.slice(1);
+}
+
+export const FAULT_TYPE_LABELS: Record<FaultType, string> = {
+  'three-phase': 'Three-phase',
+  'phase-to-phase': 'Phase-to-phase',
+  'phase-to-phase-to-ground': 'Phase-to-phase-to-ground',
+  'phase-to-ground': 'Phase-to-ground',
+};
+
+export const SIDE_LABELS: Record<'hv' | 'lv', string> = { hv: 'HV', lv: 'LV' };
+
+export const PROTECTION_LABELS: Record<ProtectionCode, string> = {
+  differential: 'Differential',
+  'restricted-earth-fault': 'Restricted earth fault',
+  'buchholz-alarm': 'Buchholz alarm',
+  'buchholz-trip': 'Buchholz trip',
+  'sudden-pressure': 'Sudden pressure',
+  'pressure-relief': 'Pressure relief',
+  overcurrent: 'Overcurrent',
+};
+
+/** A protection inside a sentence ("pressure relief", "Buchholz trip"); an unknown code as it is. */
+export function protectionWord(p: string): string {
+  const label = PROTECTION_LABELS[p as ProtectionCode];
+  return label === undefined ? p : inSentence(label);
+}
+
+/** A fault type inside a sentence ("phase-to-ground"); an unknown code as it is. */
+export function faultTypeWord(t: string): string {
+  const label = FAULT_TYPE_LABELS[t as FaultType];
+  return label === undefined ? t : inSentence(label);
+}
+
+export const STATUS_LABELS: Record<EventStatus, { word: string; icon: string }> = {
+  logged: { word: 'Logged', icon: 'edit_note' },
+  testing: { word: 'Testing', icon: 'science' },
+  screened: { word: 'Screened', icon: 'fact_check' },
+  held: { word: 'Held', icon: 'pan_tool' },
+  released: { word: 'Released', icon: 'power' },
+};
+
+export const RECOMMENDATION_LABELS: Record<Recommendation, { word: string; icon: string }> = {
+  go: { word: 'Go', icon: 'check_circle' },
+  conditional: { word: 'Conditional', icon: 'warning' },
+  'no-go': { word: 'No-go', icon: 'block' },
+};
+
+/** The recommendation as the head word of the mail and the PDF. */
+export const RECOMMENDATION_WORD: Record<Recommendation, string> = { go: 'GO', conditional: 'CONDITIONAL', 'no-go': 'NO-GO' };
+
+export const LEVEL_LABELS: Record<Level, string> = { ok: 'OK', watch: 'Watch', investigate: 'Investigate', critical: 'Critical' };
+/** The level as printed beside a finding in the mail and the PDF. */
+export const LEVEL_WORD: Record<Level, string> = { ok: 'OK', watch: 'WATCH', investigate: 'INVESTIGATE', critical: 'CRITICAL' };
+
+export const KIND_LABELS: Record<ReadingSetKind, string> = {
+  factory: 'Factory',
+  commissioning: 'Commissioning',
+  routine: 'Routine',
+  'post-fault': 'Post-fault',
+};
+
+/** A manager's decision outcome as icon + word. */
+export const OUTCOME_LABELS: Record<DecisionOutcome, { word: string; icon: string }> = {
+  release: { word: 'Release', icon: 'power' },
+  'release-with-restrictions': { word: 'Release with restrictions', icon: 'tune' },
+  hold: { word: 'Hold', icon: 'pan_tool' },
+};
+
+/** An inspection finding's classification as icon + word. */
+export const FINDING_LABELS: Record<FindingClassification, { word: string; icon: string }> = {
+  'no-damage': { word: 'No damage', icon: 'verified' },
+  'deformation-confirmed': { word: 'Deformation confirmed', icon: 'report' },
+  other: { word: 'Other', icon: 'notes' },
+};
+
+/** An e-mail's delivery state as icon + word. */
+export const NOTIFICATION_STATUS_LABELS: Record<NotificationStatus, { word: string; icon: string }> = {
+  queued: { word: 'Queued', icon: 'schedule_send' },
+  sent: { word: 'Sent', icon: 'mark_email_read' },
+  failed: { word: 'Failed', icon: 'error' },
+};
+
+/** What an audit entry records (`audit.action`). */
+export const AUDIT_ACTION_LABELS: Record<string, string> = {
+  create: 'Created',
+  update: 'Changed',
+  import: 'Imported',
+  screen: 'Screened',
+  decide: 'Decided',
+};
+
+/** The engine's indicator methods. */
+export const METHOD_LABELS: Record<Method, string> = {
+  capacitance: 'Capacitance',
+  'power-factor': 'Power factor',
+  reactance: 'Leakage reactance',
+  sweep: 'Frequency-response sweep',
+  excitation: 'Excitation current',
+  resistance: 'Winding resistance',
+  ratio: 'Turns ratio',
+  gas: 'Dissolved gases',
+  bushing: 'Bushings',
+  sisters: 'Sister-unit statistics',
+  duty: 'Through-fault duty',
+};
+
+/** A method inside a sentence ("leakage reactance"); an unknown code as it is. */
+export function methodWord(m: string): string {
+  const label = METHOD_LABELS[m as Method];
+  return label === undefined ? m : inSentence(label);
+}
+
+/** What an indicator compares (rules revision 2). `phase-comparison` names its phases from the key when it can. */
+export const BASIS_LABELS: Record<Basis, string> = {
+  change: 'against own baseline',
+  sisters: 'against sister units',
+  'phase-comparison': 'phase comparison',
+  state: 'state (absolute value)',
+  duty: 'duty',
+};
+
+/**
+ * An indicator's basis in words: a change against a pre-fault sample or the previous test says so; a phase comparison
+ * names its phases ("phase A vs C"); null before rules revision 2 (no basis stored).
+ */
+export function basisLabel(i: Pick<Indicator, 'key' | 'basis' | 'reference'>): string | null {
+  if (!i.basis) return null;
+  if (i.basis === 'change' && /pre-fault/i.test(i.reference ?? '')) return 'against own pre-fault sample';
+  if (i.basis === 'change' && (/FromPrevious/.test(i.key) || /previous/i.test(i.reference ?? ''))) return 'against own previous test';
+  if (i.basis === 'phase-comparison') {
+    const m = /\.([ABC])([ABC])\./.exec(i.key);
+    return m ? `phase ${m[1]} vs ${m[2]}` : BASIS_LABELS['phase-comparison'];
+  }
+  return BASIS_LABELS[i.basis] ?? i.basis;
+}
+
+/** How the duty's per-unit current was obtained (result `throughFault.currentBasis`). */
+export const CURRENT_BASIS_LABELS: Record<CurrentBasis, string> = {
+  winding: 'entered as winding current',
+  'line-converted': 'converted from the line current by the vector group',
+  'line-assumed': 'line current used as the winding current (factor unknown)',
+};
+
+/** What the shots' currents are (fault field `currentIs`). */
+export const CURRENT_IS_LABELS: Record<CurrentIs, string> = {
+  line: 'Line currents (relay or recorder on the line CTs)',
+  winding: 'Winding currents',
+};
+
+/** Sweep windings (sweep field `winding`). */
+export const WINDING_LABELS: Record<'hv' | 'lv' | 'tv', string> = { hv: 'HV', lv: 'LV', tv: 'TV (tertiary)' };
+
+/** The dissolved gases by formula, with their names. */
+export const GAS_LABELS: Record<'H2' | 'CH4' | 'C2H6' | 'C2H4' | 'C2H2' | 'CO' | 'CO2', string> = {
+  H2: 'Hydrogen (H2)',
+  CH4: 'Methane (CH4)',
+  C2H6: 'Ethane (C2H6)',
+  C2H4: 'Ethylene (C2H4)',
+  C2H2: 'Acetylene (C2H2)',
+  CO: 'Carbon monoxide (CO)',
+  CO2: 'Carbon dioxide (CO2)',
+};
+
+/** The measured quantities of a reading set, by case field. */
+export const QUANTITY_LABELS: Record<string, string> = {
+  capacitancePF: 'Capacitance',
+  dissipationPercent: 'Dissipation / power factor',
+  reactance: 'Leakage reactance',
+  threePhaseEquivalent: 'Three-phase equivalent impedance',
+  excitationCurrentMA: 'Excitation current',
+  windingResistanceOhm: 'Winding resistance',
+  turnsRatio: 'Turns ratio',
+  dissolvedGasPPM: 'Dissolved gases (oil sample)',
+  dissipationByFrequency: 'Dissipation over frequency',
+  bushings: 'Bushings',
+};
+
+/** A short label for an indicator key ("CHL capacitance shift vs baseline"); an unknown key is returned as it is. */
+export function indicatorLabel(key: string): string {
+  const p = key.split('.');
+  const last = p[p.length - 1];
+  const [head, a, b] = p;
+  switch (head) {
+    case 'capacitance':
+      if (last === 'shiftPercent') return `${a} capacitance shift vs baseline`;
+      if (last === 'shiftFromPreviousPercent') return `${a} capacitance shift vs previous test`;
+      if (last === 'consistencyPercent') return `${a} GST/UST consistency`;
+      break;
+    case 'powerFactor':
+      if (last === 'pf20Percent') return `${a} power factor at 20 °C`;
+      if (last === 'riseFromBaselinePercent') return `${a} power factor rise vs baseline`;
+      break;
+    case 'reactance':
+      if (a === 'phaseSpreadPercent') return 'Reactance per-phase spread';
+      if (a === 'phaseSpreadChangePoints') return 'Reactance spread change vs baseline';
+      if (a === 'threePhase' && last === 'percent') return 'Three-phase equivalent impedance';
+      if (a === 'threePhase') return 'Three-phase impedance vs nameplate';
+      if (last === 'percent') return `Phase ${a} leakage reactance`;
+      if (last === 'shiftPercent') return `Phase ${a} reactance shift vs baseline`;
+      if (last === 'shiftFromPreviousPercent') return `Phase ${a} reactance shift vs previous test`;
+      if (last === 'deviationFromAveragePercent') return `Phase ${a} reactance vs the phases' mean`;
+      break;
+    case 'sweep': {
+      // Phase comparison without a baseline trace: sweep.<winding>.AC.<figure>
+      const ac = p.length === 4 && p[2] === 'AC' && ['hv', 'lv', 'tv'].includes(p[1]);
+      const label = ac ? `${p[1].toUpperCase()} phase A vs C` : p.slice(1, -1).join('.');
+      const words: Record<string, string> = {
+        correlation: 'correlation',
+        rLF: 'relative factor, low band',
+        rMF: 'relative factor, mid band',
+        rHF: 'relative factor, high band',
+        asleDb: 'ASLE',
+        class: 'DL/T 911 class',
+      };
+      return `Sweep ${label} ${words[last] ?? last}`;
+    }
+    case 'duty': {
+      const words: Record<string, string> = {
+        eventDutyPercent: 'Event duty (of mechanical limit)',
+        thermalDurationPercent: "Shot time (of the thermal curve's allowed time)",
+        forceRatioPercent: 'Force ratio (of design force)',
+        shotsAboveSegment: 'Shots at or above segment start',
+        cumulativeDutyPercent: 'Cumulative duty (Gapsight tally)',
+      };
+      if (words[a]) return words[a];
+      break;
+    }
+    case 'gas':
+      if (a === 'duvalZone') return 'Duval triangle 1 zone';
+      if (last === 'risePPM') return `${a === 'C2H2' ? 'Acetylene (C2H2)' : a === 'H2' ? 'Hydrogen (H2)' : a} rise`;
+      break;
+    case 'excitation':
+      if (a === 'outerPhaseDifferencePercent') return 'Excitation current, outer phases differ';
+      if (last === 'changePercent') return `Phase ${a} excitation current change`;
+      break;
+    case 'resistance':
+      if (a === 'phaseImbalancePercent') return 'Winding resistance phase imbalance';
+      if (last === 'changePercent') return `Phase ${a} winding resistance change`;
+      break;
+    case 'ratio':
+      if (last === 'changePercent') return `Phase ${a} turns ratio change`;
+      if (last === 'deviationFromNameplatePercent') return `Phase ${a} turns ratio vs nameplate`;
+      break;
+    case 'sisters': {
+      const what = a === 'capacitance' ? `${b} capacitance` : a === 'reactance' ? `phase ${b} reactance` : `${a} ${b}`;
+      const words: Record<string, string> = {
+        modifiedZ: 'modified z among sisters',
+        deviationFromMedianPercent: "deviation from sisters' median",
+        grubbsG: 'Grubbs G among sisters',
+        dixonQ: "Dixon's Q among sisters",
+      };
+      return `${what[0].toUpperCase()}${what.slice(1)} ${words[last] ?? last}`;
+    }
+    case 'bushing':
+      if (last === 'c1ShiftPercent') return `Bushing ${a} C1 shift vs reference`;
+      if (last === 'c1Pf20RisePercent') return `Bushing ${a} C1 power factor rise`;
+      break;
+    case 'dfFrequency':
+      return `${a} dissipation over frequency: ${last}`;
+  }
+  return key;
+}
+
+/** The unit of an indicator's value, read from its key ("%", "points", "ppm", "dB"; "" for ratios, scores and classes). */
+export function indicatorUnit(key: string): string {
+  const last = key.split('.').pop() ?? '';
+  if (/Points$/.test(last)) return 'points';
+  if (/PPM$/.test(last)) return 'ppm';
+  if (/Db$/.test(last)) return 'dB';
+  if (/Percent$/.test(last) || last === 'percent') return '%';
+  return '';
+}
+
+/** "criteria set 2 · rules revision 2" of a stored screening (a result without `engineRevision` is revision 1). */
+export function rulesText(s: { criteriaVersion: number; result?: { engineRevision?: number } | null }): string {
+  return `criteria set ${s.criteriaVersion} · rules revision ${s.result?.engineRevision ?? 1}`;
+}
