@@ -1,7 +1,9 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn, type Relation } from 'typeorm';
+import type { FaultType, Protection } from '../../../shared/schemas/case.js';
+import type { EventStatus } from '../../../shared/schemas/enums.js';
 import { Unit } from '../units/unit.entity.js';
 
-export type EventStatus = 'logged' | 'testing' | 'screened' | 'held' | 'released';
+export type { EventStatus };
 
 // A through-fault logged by protection: shots measured on one side, which protections operated, whether it tripped.
 @Entity({ name: 'fault_event' })
@@ -23,7 +25,7 @@ export class FaultEvent {
   occurredAt!: Date;
 
   @Column({ type: 'varchar', length: 30 })
-  type!: 'three-phase' | 'phase-to-phase' | 'phase-to-phase-to-ground' | 'phase-to-ground';
+  type!: FaultType;
 
   @Column({ type: 'varchar', length: 10, nullable: true })
   faultedPhases!: string | null;
@@ -47,7 +49,7 @@ export class FaultEvent {
   transformerTripped!: boolean;
 
   @Column({ type: 'json' })
-  protectionOperated!: string[];
+  protectionOperated!: Protection[];
 
   @Column({ type: 'text', nullable: true })
   notes!: string | null;

@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import type { NotificationStatus } from '../../../shared/schemas/enums.js';
 
 // One e-mail to send: queued after the screening's transaction commits, retried on failure.
 @Entity({ name: 'notification' })
@@ -21,7 +22,7 @@ export class Notification {
   subject!: string;
 
   @Column({ type: 'varchar', length: 10, default: 'queued' })
-  status!: 'queued' | 'sent' | 'failed';
+  status!: NotificationStatus;
 
   @Column({ type: 'int', unsigned: true, default: 0 })
   attempts!: number;

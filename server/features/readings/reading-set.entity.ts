@@ -1,8 +1,9 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import type { ReadingSetKind } from '../../../shared/schemas/enums.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
 import { Unit } from '../units/unit.entity.js';
 
-export type ReadingSetKind = 'factory' | 'commissioning' | 'routine' | 'post-fault';
+export type { ReadingSetKind };
 
 // One test session on a unit: its conditions (temperatures, tap, instrument) and, through Reading rows, its values.
 // A post-fault set belongs to an event (a "session").

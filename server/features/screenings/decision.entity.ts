@@ -1,4 +1,5 @@
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import type { DecisionOutcome } from '../../../shared/schemas/enums.js';
 import { Screening } from './screening.entity.js';
 
 // The manager's sign-off on a screening: release, release with restrictions, or hold, with a reason.
@@ -19,7 +20,7 @@ export class Decision {
   managerId!: number;
 
   @Column({ type: 'varchar', length: 30 })
-  outcome!: 'release' | 'release-with-restrictions' | 'hold';
+  outcome!: DecisionOutcome;
 
   @Column({ type: 'text', nullable: true })
   restrictions!: string | null;

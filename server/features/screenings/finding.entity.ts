@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import type { FindingClassification } from '../../../shared/schemas/enums.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
 
 // What an inspection of a held unit found: the outcome history criteria can be back-tested against.
@@ -16,7 +17,7 @@ export class Finding {
   event!: Relation<FaultEvent>;
 
   @Column({ type: 'varchar', length: 30 })
-  classification!: 'no-damage' | 'deformation-confirmed' | 'other';
+  classification!: FindingClassification;
 
   @Column({ type: 'text' })
   text!: string;

@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import type { Recommendation } from '../../../shared/schemas/enums.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
 
 // One run of the engine on an event: the case it was given and the result, under a criteria-set version.
@@ -22,7 +23,7 @@ export class Screening {
   result!: Record<string, unknown>;
 
   @Column({ type: 'varchar', length: 12 })
-  recommendation!: 'go' | 'conditional' | 'no-go';
+  recommendation!: Recommendation;
 
   @Column({ type: 'int', unsigned: true })
   criteriaVersion!: number;

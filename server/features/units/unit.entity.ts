@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn, type Relation } from 'typeorm';
+import type { EventStatus, Recommendation } from '../../../shared/schemas/enums.js';
 import { Design } from '../designs/design.entity.js';
 import { Site } from '../sites/site.entity.js';
 
@@ -65,10 +66,10 @@ export class Unit {
   lastEventId!: number | null;
 
   @Column({ type: 'varchar', length: 12, nullable: true })
-  lastEventStatus!: string | null;
+  lastEventStatus!: EventStatus | null;
 
   @Column({ type: 'varchar', length: 12, nullable: true })
-  lastRecommendation!: string | null;
+  lastRecommendation!: Recommendation | null;
 
   @CreateDateColumn({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   createdAt!: Date;

@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, JoinTable, ManyToMany, PrimaryGeneratedColumn, UpdateDateColumn, type Relation } from 'typeorm';
-import type { Role } from '../../../shared/schemas/roles.js';
+import type { Role } from '../../../shared/schemas/enums.js';
 import { Site } from '../sites/site.entity.js';
 
 // A person who signs in. Sign-in counters live here (not in memory) so several app servers agree.
