@@ -30,18 +30,23 @@ function step(title: string): void {
   console.log(`\n▶ ${title}`);
 }
 
-/** Installs Debian's Chromium when it is missing (as `npm start` installs MariaDB); the browser tests drive it. */
+const DEBIAN_CHROMIUM = '/usr/bin/chromium';
+
+/**
+ * Installs Debian's Chromium when it is missing (as `npm start` installs MariaDB); the browser tests drive it.
+ * CHROMIUM_PATH names the binary to look for (and the one the browser tests launch).
+ */
 function ensureChromium(): boolean {
-  const exe = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+  const exe = process.env.CHROMIUM_PATH ?? DEBIAN_CHROMIUM;
   if (existsSync(exe)) {
     console.log(`✓ ${exe}`);
     return true;
   }
   if (process.getuid?.() !== 0) {
-    console.error(`✗ ${exe} is missing: install it with apt-get install -y chromium (or set CHROMIUM_PATH)`);
+    console.error(`✗ ${exe} is missing and installing it needs root: run sudo sh -c 'apt-get update && apt-get install -y chromium' (or set CHROMIUM_PATH)`);
     return false;
   }
-  console.log("Chromium is not installed: installing Debian's chromium with apt-get (about a minute) …");
+  console.log(`${exe} is missing: installing Debian's chromium with apt-get (about a minute) …`);
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   for (const args of [['update', '-qq'], ['install', '-y', '-qq', 'chromium']]) {
     const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
@@ -50,8 +55,13 @@ function ensureChromium(): boolean {
       return false;
     }
   }
+  if (!existsSync(exe)) {
+    const hint = exe === DEBIAN_CHROMIUM ? '' : ` (Debian's chromium is ${DEBIAN_CHROMIUM}; unset CHROMIUM_PATH to use it)`;
+    console.error(`✗ apt-get installed chromium, but ${exe} is still missing${hint}`);
+    return false;
+  }
   console.log(`✓ ${exe} installed`);
-  return existsSync(exe);
+  return true;
 }
 
 let tmp: string | null = null;

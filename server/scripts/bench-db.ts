@@ -6,8 +6,8 @@ import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { ensureDatabaseAndUser, mariaDbPaths, startMariaDb, stopMariaDb } from './mariadb.js';
 
-// npm run bench -- --db: API timings on a throw-away MariaDB holding the demo scenario plus a 5 000-unit fleet with
-// 10 000 events (figures go to the README's scaling notes).
+// npm run bench: the demo seed into fresh databases on a throw-away MariaDB; with `-- --db` also API timings on a
+// database holding the demo scenario plus a 5 000-unit fleet with 10 000 events (figures go to the README).
 
 function freePort(): Promise<number> {
   return new Promise((resolve) => {
@@ -18,18 +18,49 @@ function freePort(): Promise<number> {
   });
 }
 
-export async function benchDatabase(): Promise<void> {
+const SEED_RUNS = 3;
+
+export async function benchDatabase(opts: { fleet: boolean }): Promise<void> {
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'gapsight-bench-'));
   const p = mariaDbPaths(path.join(tmp, 'db'), await freePort());
   try {
     await startMariaDb(p, { bufferPoolMB: 256 });
     const pw = randomBytes(12).toString('hex');
     ensureDatabaseAndUser(p, 'gapsight_bench', 'gapsight', pw);
-    Object.assign(process.env, { DB_PORT: String(p.port), DB_NAME: 'gapsight_bench', DB_PASSWORD: pw, JWT_SECRET: randomBytes(32).toString('hex'), DATA_DIR: path.join(tmp, 'data') });
+    for (let i = 1; i <= SEED_RUNS; i++) ensureDatabaseAndUser(p, `gapsight_seed_${i}`, 'gapsight', pw);
+    Object.assign(process.env, {
+      DB_PORT: String(p.port),
+      DB_NAME: 'gapsight_bench',
+      DB_PASSWORD: pw,
+      JWT_SECRET: randomBytes(32).toString('hex'),
+      DATA_DIR: path.join(tmp, 'data'),
+      LOG_LEVEL: 'warn',
+    });
     const { default: db } = await import('../db/data-source.js');
+    const { DataSource } = await import('typeorm');
+    const { seedDemo } = await import('../db/seed/demo-seed.js');
+
+    // The demo seed as `npm start` runs it on a first start: migrated, empty database; one fresh database a run.
+    const seedMs: number[] = [];
+    for (let i = 1; i <= SEED_RUNS; i++) {
+      const fresh = new DataSource({ ...db.options, database: `gapsight_seed_${i}` } as typeof db.options);
+      await fresh.initialize();
+      await fresh.runMigrations({ transaction: 'each' });
+      const start = performance.now();
+      if (!(await seedDemo(fresh))) throw new Error('the demo seed did not run on a fresh database');
+      seedMs.push(performance.now() - start);
+      await fresh.destroy();
+    }
+    const median = [...seedMs].sort((a, b) => a - b)[Math.floor(SEED_RUNS / 2)];
+    console.log(
+      `${'seedDemo into a fresh database'.padEnd(44)} ${String(SEED_RUNS).padStart(7)} runs  ${median.toFixed(0).padStart(9)} ms/run (median; ${seedMs.map((ms) => ms.toFixed(0)).join(', ')} ms)`,
+    );
+    if (!opts.fleet) return;
+
     const { loadConfig } = await import('../config.js');
     const { createApp } = await import('../app.js');
     const { signToken } = await import('../common/auth.js');
+    const { systemClock } = await import('../common/clock.js');
     const { migrateAndSeedOn } = await import('./prepare.js');
     const { default: request } = await import('supertest');
     await db.initialize();
@@ -49,9 +80,10 @@ export async function benchDatabase(): Promise<void> {
     await db.query('ANALYZE TABLE unit, fault_event');
     console.log(`\nDatabase: 5 000 extra units and 10 000 events inserted in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 
-    const app = createApp({ db, config: loadConfig(), mailSinkRunning: false });
+    const config = loadConfig();
+    const app = createApp({ db, clock: systemClock, config, mailSinkRunning: false });
     const [tester] = await db.query("SELECT id FROM `user` WHERE email = 'tester@kestrel-valley.example'");
-    const auth = { Authorization: `Bearer ${signToken(tester.id, loadConfig().jwtSecret, '1h')}` };
+    const auth = { Authorization: `Bearer ${signToken(tester.id, config.jwtSecret, '1h')}` };
     const [recent] = await db.query("SELECT e.id FROM fault_event e JOIN unit u ON u.id = e.unitId WHERE u.serial = 'KVP-HX-T2' ORDER BY e.occurredAt DESC LIMIT 1");
     const routes: [string, string][] = [
       ['GET /api/units (page 1, 50 by serial)', '/api/units'],

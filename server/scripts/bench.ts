@@ -6,8 +6,8 @@ import { parseCase } from '../../shared/schemas/case.js';
 import { screenCase } from '../../shared/screening/index.js';
 import { parseSweepCsv } from '../../shared/imports/sweep-csv.js';
 
-// npm run bench — speed of the pure engine on the example cases and of the sweep parser; `-- --db` adds API timings
-// on a throw-away MariaDB with a 5 000-unit fleet. Figures go to the README.
+// npm run bench — speed of the pure engine on the example cases, of the sweep parser and of the demo seed into a fresh
+// database; `-- --db` adds API timings on a throw-away MariaDB with a 5 000-unit fleet. Figures go to the README.
 // Timing belongs here, never in tests.
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -50,8 +50,9 @@ bench('screenCase, one 20 000-point sweep pair', () => screenCase(denseCase.valu
 
 const csv = ['frequencyHz,magnitudeDb,phaseDeg', ...dense.map(([f, m]) => `${f},${m},0`)].join('\n');
 bench('parseSweepCsv, 20 000 rows', () => parseSweepCsv(csv));
-if (process.argv.includes('--db')) {
+// The demo seed needs a throw-away MariaDB (installed when missing, as by `npm start`); `-- --no-db` skips it.
+if (!process.argv.includes('--no-db')) {
   const { benchDatabase } = await import('./bench-db.js');
-  await benchDatabase();
+  await benchDatabase({ fleet: process.argv.includes('--db') });
 }
 console.log(`\nNode ${process.version}, ${process.platform}/${process.arch}`);
