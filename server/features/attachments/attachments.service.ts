@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { DataSource } from 'typeorm';
 import { detectRelayRecord } from '../../../shared/imports/sniff.js';
+import type { AttachmentView } from '../../../shared/schemas/responses/index.js';
 import { notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import { unsupportedType } from '../../common/upload.js';
@@ -39,7 +40,7 @@ export async function addEventAttachment(db: DataSource, userId: number, eventId
     );
     await m.getRepository(AttachmentContent).insert({ attachmentId: a.id, data: file.buffer });
     await audit(m, { userId, action: 'create', entity: 'attachment', entityId: a.id, after: { eventId, name, kind: a.kind, size: a.size, sha256 } });
-    return { id: a.id, name: a.name, contentType: a.contentType, kind: a.kind, size: a.size, sha256: a.sha256, createdAt: a.createdAt.toISOString() };
+    return { id: a.id, name: a.name, contentType: a.contentType, kind: a.kind, size: a.size, sha256: a.sha256, createdAt: a.createdAt.toISOString() } satisfies AttachmentView;
   });
 }
 

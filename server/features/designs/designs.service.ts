@@ -1,6 +1,7 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { designBodySchema, designPatchSchema } from '../../../shared/schemas/fleet.js';
+import type { DesignDetail, DesignListItem, DesignView } from '../../../shared/schemas/responses/index.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import { Unit } from '../units/unit.entity.js';
@@ -23,7 +24,7 @@ export function designView(d: Design) {
     conductor: d.conductor,
     requiredCapacitance: d.requiredCapacitance,
     notes: d.notes,
-  };
+  } satisfies DesignView;
 }
 
 /** Every design with its number of units. */
@@ -31,7 +32,7 @@ export async function listDesigns(db: DataSource) {
   const designs = await db.getRepository(Design).find({ order: { reference: 'ASC' } });
   const counts: { designId: number; n: number }[] = await db.query('SELECT designId, COUNT(*) AS n FROM `unit` GROUP BY designId');
   const byId = new Map(counts.map((c) => [Number(c.designId), Number(c.n)]));
-  return designs.map((d) => ({ ...designView(d), unitCount: byId.get(d.id) ?? 0 }));
+  return designs.map((d) => ({ ...designView(d), unitCount: byId.get(d.id) ?? 0 }) satisfies DesignListItem);
 }
 
 /** One design with its units (the sister family). */
@@ -42,7 +43,7 @@ export async function getDesign(db: DataSource, id: number) {
   return {
     ...designView(d),
     units: units.map((u) => ({ id: u.id, serial: u.serial, position: u.position, siteId: u.siteId, siteName: u.site.name, year: u.year, lastRecommendation: u.lastRecommendation })),
-  };
+  } satisfies DesignDetail;
 }
 
 async function assertReferenceFree(m: EntityManager, reference: string, exceptId?: number) {

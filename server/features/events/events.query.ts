@@ -1,6 +1,9 @@
 import { In, LessThan, Not, type DataSource } from 'typeorm';
 import type { z } from 'zod';
+import type { Recommendation } from '../../../shared/schemas/enums.js';
 import type { eventListQuerySchema } from '../../../shared/schemas/fleet.js';
+import type { EventDetail, EventListPage, EventView } from '../../../shared/schemas/responses/index.js';
+import type { GapsightResult } from '../../../shared/schemas/result.js';
 import { computeThroughFault } from '../../../shared/screening/index.js';
 import { notFound } from '../../common/app-error.js';
 import { AuditEntry } from '../../common/audit-entry.entity.js';
@@ -38,7 +41,7 @@ export function eventView(e: FaultEvent) {
     status: e.status,
     createdById: e.createdById,
     createdAt: e.createdAt.toISOString(),
-  };
+  } satisfies EventView;
 }
 
 /** The event's through-fault duty (with the unit's earlier faults counted), as the engine computes it. */
@@ -64,7 +67,7 @@ export async function listEvents(db: DataSource, q: z.infer<typeof eventListQuer
   const [events, total] = await eventListQuery(db, q).getManyAndCount();
   const units = events.length ? await db.getRepository(Unit).find({ where: { id: In([...new Set(events.map((e) => e.unitId))]) }, relations: { site: true } }) : [];
   const unit = new Map(units.map((u) => [u.id, u]));
-  const latest: { eventId: number; recommendation: string }[] = events.length
+  const latest: { eventId: number; recommendation: Recommendation }[] = events.length
     ? await db.query(
         'SELECT s.eventId, s.recommendation FROM screening s JOIN (SELECT eventId, MAX(id) AS id FROM screening WHERE comparison = 0 AND eventId IN (?) GROUP BY eventId) m ON m.id = s.id',
         [events.map((e) => e.id)],
@@ -79,7 +82,7 @@ export async function listEvents(db: DataSource, q: z.infer<typeof eventListQuer
     total,
     page: q.page,
     pageSize: q.pageSize,
-  };
+  } satisfies EventListPage;
 }
 
 /** An event with its unit, duty, sessions (values and sweeps), screenings (newest first), decision, follow-ups, findings, attachments and audit trail. */
@@ -122,7 +125,7 @@ export async function getEvent(db: DataSource, id: number) {
       comparison: s.comparison,
       computedById: s.computedById,
       computedAt: s.computedAt.toISOString(),
-      result: s.result,
+      result: s.result as unknown as GapsightResult,
     })),
     decision: decisions[0]
       ? {
@@ -153,5 +156,5 @@ export async function getEvent(db: DataSource, id: number) {
     })),
     audit: auditRows.map((a) => ({ id: a.id, at: a.at.toISOString(), userId: a.userId, action: a.action, entity: a.entity, entityId: a.entityId, before: a.before, after: a.after, highlighted: a.highlighted, note: a.note })),
     people,
-  };
+  } satisfies EventDetail;
 }

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import { looksLikeCsvText } from '../../../shared/imports/sniff.js';
 import { parseSweepCsv } from '../../../shared/imports/sweep-csv.js';
+import type { SweepMeta } from '../../../shared/schemas/responses/index.js';
 import { AppError } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import { extensionOf, unsupportedType } from '../../common/upload.js';
@@ -82,5 +83,5 @@ export function sweepMeta(t: SweepTrace) {
     sha256: t.sha256,
     fileName: t.fileName,
     createdAt: t.createdAt.toISOString(),
-  };
+  } satisfies SweepMeta;
 }

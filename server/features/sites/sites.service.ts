@@ -1,11 +1,12 @@
 import type { DataSource } from 'typeorm';
 import type { z } from 'zod';
 import type { siteBodySchema, sitePatchSchema } from '../../../shared/schemas/fleet.js';
+import type { SiteView } from '../../../shared/schemas/responses/index.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import { Site } from './site.entity.js';
 
-const view = (s: Site) => ({ id: s.id, name: s.name, timeZone: s.timeZone });
+const view = (s: Site) => ({ id: s.id, name: s.name, timeZone: s.timeZone }) satisfies SiteView;
 
 /** All sites by name. */
 export async function listSites(db: DataSource) {

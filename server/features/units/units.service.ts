@@ -1,6 +1,7 @@
 import { In, type DataSource } from 'typeorm';
 import type { z } from 'zod';
 import type { ReadingSetBody, unitBodySchema, unitListQuerySchema, unitPatchSchema } from '../../../shared/schemas/fleet.js';
+import type { CreatedReadingSet, ReadingSetConditions, UnitDetail, UnitListPage, UnitView } from '../../../shared/schemas/responses/index.js';
 import { computeThroughFault } from '../../../shared/screening/index.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
@@ -36,7 +37,7 @@ export function unitView(u: Unit) {
     lastEventAt: u.lastEventAt ? u.lastEventAt.toISOString() : null,
     lastEventStatus: u.lastEventStatus,
     lastRecommendation: u.lastRecommendation,
-  };
+  } satisfies UnitView;
 }
 
 const SORT_COLUMNS: Record<string, string> = {
@@ -85,7 +86,7 @@ export async function listUnits(db: DataSource, q: UnitListQuery) {
     total,
     page: q.page,
     pageSize: q.pageSize,
-  };
+  } satisfies UnitListPage;
 }
 
 /** A unit with its design, site, reading sets (with values, sweeps listed) and events, newest first. */
@@ -119,7 +120,7 @@ export async function getUnit(db: DataSource, id: number) {
       shots: e.shots,
       throughFault: computeThroughFault(unitForDuty, caseFault(e)),
     })),
-  };
+  } satisfies UnitDetail;
 }
 
 /** The stored conditions of a reading set (no values). */
@@ -147,7 +148,7 @@ export function readingSetConditions(s: ReadingSet) {
     notes: s.notes,
     createdById: s.createdById,
     createdAt: s.createdAt.toISOString(),
-  };
+  } satisfies ReadingSetConditions;
 }
 
 async function checkRefs(m: import('typeorm').EntityManager, siteId?: number, designId?: number) {
@@ -211,7 +212,7 @@ export async function addUnitReadingSet(db: DataSource, userId: number, unitId: 
     if (!(await m.getRepository(Unit).exists({ where: { id: unitId } }))) throw notFound('Unit');
     const set = await insertReadingSet(m, { unitId, kind: body.kind, body, userId });
     const values = await loadCaseReadingSets(m, [set]);
-    return { ...readingSetConditions(set), values: values.get(set.id) };
+    return { ...readingSetConditions(set), values: values.get(set.id) } satisfies CreatedReadingSet;
   });
 }
 
