@@ -24,6 +24,7 @@ export * from './capacitance.js';
 export * from './power-factor.js';
 export * from './reactance.js';
 export * from './through-fault.js';
+export * from './duty-history.js';
 export * from './sweep.js';
 export * from './sisters.js';
 export * from './gas.js';

@@ -4,7 +4,7 @@ import type { Recommendation } from '../../../shared/schemas/enums.js';
 import type { eventListQuerySchema } from '../../../shared/schemas/fleet.js';
 import type { EventDetail, EventListPage, EventView } from '../../../shared/schemas/responses/index.js';
 import type { GapsightResult } from '../../../shared/schemas/result.js';
-import { computeThroughFault } from '../../../shared/screening/index.js';
+import { dutyWithPriorFaults } from '../../../shared/screening/duty-history.js';
 import { notFound } from '../../common/app-error.js';
 import { AuditEntry } from '../../common/audit-entry.entity.js';
 import { Attachment } from '../attachments/attachment.entity.js';
@@ -47,7 +47,7 @@ export function eventView(e: FaultEvent) {
 /** The event's through-fault duty (with the unit's earlier faults counted), as the engine computes it. */
 export async function eventThroughFault(db: DataSource, e: FaultEvent, unit: Unit) {
   const prior = await db.getRepository(FaultEvent).find({ where: { unitId: e.unitId, occurredAt: LessThan(e.occurredAt), id: Not(e.id) } });
-  return computeThroughFault(caseUnit(unit), caseFault(e), prior.map(casePriorFault));
+  return dutyWithPriorFaults(caseUnit(unit), caseFault(e), prior.map((p) => ({ id: p.id, ...casePriorFault(p) })), e.id);
 }
 
 /** The event-list query of one page (exported so a test can EXPLAIN it): the event table alone, through its indexes. */

@@ -2,7 +2,7 @@ import { In, type DataSource } from 'typeorm';
 import type { z } from 'zod';
 import type { ReadingSetBody, unitBodySchema, unitListQuerySchema, unitPatchSchema } from '../../../shared/schemas/fleet.js';
 import type { CreatedReadingSet, ReadingSetConditions, UnitDetail, UnitListPage, UnitView } from '../../../shared/schemas/responses/index.js';
-import { computeThroughFault } from '../../../shared/screening/index.js';
+import { dutyWithPriorFaults } from '../../../shared/screening/duty-history.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import { Design } from '../designs/design.entity.js';
@@ -98,6 +98,7 @@ export async function getUnit(db: DataSource, id: number) {
   const sweeps = sets.length ? await db.getRepository(SweepTrace).find({ where: { readingSetId: In(sets.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
   const events = await db.getRepository(FaultEvent).find({ where: { unitId: id }, order: { occurredAt: 'DESC', id: 'DESC' } });
   const unitForDuty = caseUnit(u);
+  const unitFaults = events.map((e) => ({ id: e.id, ...caseFault(e) }));
   return {
     ...unitView(u),
     site: { id: u.site.id, name: u.site.name, timeZone: u.site.timeZone },
@@ -118,7 +119,8 @@ export async function getUnit(db: DataSource, id: number) {
       transformerTripped: e.transformerTripped,
       protectionOperated: e.protectionOperated,
       shots: e.shots,
-      throughFault: computeThroughFault(unitForDuty, caseFault(e)),
+      // The unit's earlier faults counted, by the same rule as the event file.
+      throughFault: dutyWithPriorFaults(unitForDuty, caseFault(e), unitFaults, e.id),
     })),
   } satisfies UnitDetail;
 }
