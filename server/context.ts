@@ -1,10 +1,13 @@
 import type { Request } from 'express';
 import type { DataSource } from 'typeorm';
+import type { Clock } from './common/clock.js';
 import type { Config } from './config.js';
 
-// What every request handler may reach: the database, the configuration, the mail sink's state.
+// What every request handler may reach: the database, the clock, the configuration, the mail sink's state.
 export interface AppContext {
   db: DataSource;
+  /** Where services read "now" (systemClock in the app; tests may pin it). */
+  clock: Clock;
   config: Config;
   /** True while the local mail sink runs in this process (the outbox route exists only then). */
   mailSinkRunning: boolean;

@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import { AuditEntry } from './audit-entry.entity.js';
+import type { Clock } from './clock.js';
 
 export interface AuditInput {
   userId: number | null;
@@ -12,19 +13,20 @@ export interface AuditInput {
   note?: string;
 }
 
-/** Records one audited write inside the caller's transaction. */
-export async function audit(manager: EntityManager, a: AuditInput): Promise<void> {
-  const repo = manager.getRepository(AuditEntry);
+/** Records one audited write inside the caller's transaction, dated by the clock. */
+export async function audit(m: EntityManager, clock: Clock, a: AuditInput): Promise<void> {
+  const repo = m.getRepository(AuditEntry);
   await repo.save(
     repo.create({
-    userId: a.userId,
-    action: a.action,
-    entity: a.entity,
-    entityId: String(a.entityId),
-    before: (a.before ?? null) as AuditEntry['before'],
-    after: (a.after ?? null) as AuditEntry['after'],
-    highlighted: a.highlighted ?? false,
-    note: a.note ?? null,
+      at: clock.now(),
+      userId: a.userId,
+      action: a.action,
+      entity: a.entity,
+      entityId: String(a.entityId),
+      before: (a.before ?? null) as AuditEntry['before'],
+      after: (a.after ?? null) as AuditEntry['after'],
+      highlighted: a.highlighted ?? false,
+      note: a.note ?? null,
     }),
   );
 }

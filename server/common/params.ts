@@ -1,6 +1,15 @@
 import { z } from 'zod';
 
-// Route parameter schemas used by many routes.
-export const idParams = z.object({ id: z.coerce.number().int().positive('not a valid id') });
-export type IdParams = z.infer<typeof idParams>;
-export const attachmentParams = idParams.extend({ attachmentId: z.coerce.number().int().positive('not a valid id') });
+// Route parameter schemas, each named for the id it carries.
+const id = () => z.coerce.number().int().positive('not a valid id');
+
+export const eventParams = z.object({ eventId: id() });
+export const sessionParams = z.object({ sessionId: id() });
+export const screeningParams = z.object({ screeningId: id() });
+export const followUpParams = z.object({ followUpId: id() });
+export const unitParams = z.object({ unitId: id() });
+export const designParams = z.object({ designId: id() });
+export const siteParams = z.object({ siteId: id() });
+export const userParams = z.object({ userId: id() });
+export const sweepParams = z.object({ sweepId: id() });
+export const attachmentParams = z.object({ eventId: id(), attachmentId: id() });

@@ -48,7 +48,8 @@ async function main(): Promise<number> {
   await db.initialize();
   try {
     const { createUser } = await import('../features/users/users.service.js');
-    const user = await createUser(db, null, parsed.data);
+    const { systemClock } = await import('../common/clock.js');
+    const user = await db.transaction((m) => createUser(m, systemClock, null, parsed.data));
     console.log(`Created user ${user.id}: ${user.email} (${user.roles.join(', ')})`);
     if (generated) console.log(`Password (shown once): ${generated}`);
     return 0;

@@ -5,6 +5,7 @@ import type { Express } from 'express';
 import type { DataSource } from 'typeorm';
 import { createApp } from '../../server/app.js';
 import { signToken } from '../../server/common/auth.js';
+import { systemClock, type Clock } from '../../server/common/clock.js';
 import { loadConfig, type Config } from '../../server/config.js';
 import { User } from '../../server/features/users/user.entity.js';
 import type { Role } from '../../shared/schemas/roles.js';
@@ -22,12 +23,12 @@ export interface TestEnv {
 }
 
 /** Opens the test database and builds the app on it. */
-export async function openTestEnv(opts: { mailSinkRunning?: boolean } = {}): Promise<TestEnv> {
+export async function openTestEnv(opts: { mailSinkRunning?: boolean; clock?: Clock } = {}): Promise<TestEnv> {
   if (!process.env.DB_PASSWORD) throw new Error('API tests need the database of `npm test` (tests/run.ts).');
   const config = loadConfig();
   const { default: db } = await import('../../server/db/data-source.js');
   if (!db.isInitialized) await db.initialize();
-  const app = createApp({ db, config, mailSinkRunning: opts.mailSinkRunning ?? false });
+  const app = createApp({ db, clock: opts.clock ?? systemClock, config, mailSinkRunning: opts.mailSinkRunning ?? false });
   return { db, config, app };
 }
 

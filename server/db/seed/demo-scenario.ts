@@ -1,28 +1,28 @@
 // Writes the "Kestrel Valley Power" demo scenario inside the seed's transaction: sites, designs, units, baselines and
 // routine tests, sweeps, and the three fault events with their sessions, screenings, decisions, finding and follow-ups.
-// Every write goes through the same service functions the API uses (audited). The connection's clock is set to each
-// step's instant (MariaDB `SET timestamp`), so audit entries and created/updated times read as the story happened;
-// it is reset before the connection goes back to the pool.
+// Every write goes through the service the API route calls, with its body checked by the route's schema, and a fixed
+// clock set to each step's instant: rows, their times and their audit entries are what the app writes at that time.
 import type { EntityManager } from 'typeorm';
+import type { z } from 'zod';
 import type { GapsightResult } from '../../../shared/schemas/result.js';
-import { screenCase } from '../../../shared/screening/index.js';
+import { decisionBodySchema, findingBodySchema, followUpCloseSchema, type DecisionBody } from '../../../shared/schemas/screening.js';
+import { designBodySchema, eventBodySchema, readingSetBodySchema, sessionBodySchema, siteBodySchema, unitBodySchema, type EventBody } from '../../../shared/schemas/fleet.js';
 import { FOLLOW_UPS } from '../../../shared/screening/verdict.js';
-import { audit } from '../../common/audit.js';
-import { loadCriteria } from '../../features/criteria/criteria.service.js';
+import type { FixedClock } from '../../common/clock.js';
 import { Design } from '../../features/designs/design.entity.js';
-import { buildEventCase } from '../../features/events/case-export.service.js';
-import { createEventRow, moveEvent } from '../../features/events/events.service.js';
-import { FaultEvent } from '../../features/events/fault-event.entity.js';
+import { createDesign } from '../../features/designs/designs.service.js';
+import { logEvent } from '../../features/events/events.service.js';
+import { addSessionSweep, createSession } from '../../features/events/sessions.service.js';
 import { Notification } from '../../features/notifications/notification.entity.js';
-import { ReadingSet, type ReadingSetKind } from '../../features/readings/reading-set.entity.js';
-import { insertReadingSet } from '../../features/readings/readings.service.js';
-import { insertSweepTrace } from '../../features/readings/sweeps.service.js';
-import { Decision } from '../../features/screenings/decision.entity.js';
-import { Finding } from '../../features/screenings/finding.entity.js';
-import { FollowUp } from '../../features/screenings/follow-up.entity.js';
-import { Screening } from '../../features/screenings/screening.entity.js';
+import { recordMailSent } from '../../features/notifications/notifications.service.js';
+import type { ReadingSetKind } from '../../features/readings/reading-set.entity.js';
+import type { SweepFields } from '../../features/readings/sweeps.service.js';
+import { closeFollowUp, decide as decideService, recordFinding, runScreening } from '../../features/screenings/screenings.service.js';
 import { Site } from '../../features/sites/site.entity.js';
-import { Unit } from '../../features/units/unit.entity.js';
+import { createSite } from '../../features/sites/sites.service.js';
+import { addUnitReadingSet, addUnitSweep, createUnit } from '../../features/units/units.service.js';
+import { buildManagerMail } from '../../reports/manager-mail.js';
+import { loadReportData } from '../../reports/report-data.service.js';
 import {
   DEMO_DESIGNS,
   DEMO_SITES,
@@ -73,73 +73,52 @@ const MINUTE = 60e3;
 const HOUR = 60 * MINUTE;
 const DAY = 24 * HOUR;
 
-/** The transaction connection's clock: CURRENT_TIMESTAMP (row defaults, audit times) reads the story's instant. */
-class StoryClock {
-  constructor(private readonly m: EntityManager) {}
+/** A body as the route takes it: parsed by the route's schema (defaults filled, bad demo data fails loudly). */
+const asRoute = <S extends z.ZodType>(schema: S, value: unknown): z.output<S> => schema.parse(value);
 
-  /** Runs `fn` with the connection's clock at `when`. */
-  async at<T>(when: Date, fn: () => Promise<T>): Promise<T> {
-    await this.m.query('SET timestamp = ?', [when.getTime() / 1000]);
-    return fn();
-  }
-
-  async reset(): Promise<void> {
-    await this.m.query('SET timestamp = DEFAULT');
-  }
-}
-
-export async function seedScenario(m: EntityManager, users: DemoUserIds, now: Date): Promise<DemoScenarioResult> {
-  const clock = new StoryClock(m);
-  try {
-    return await writeScenario(m, users, now, clock);
-  } finally {
-    await clock.reset();
-  }
-}
-
-async function writeScenario(m: EntityManager, users: DemoUserIds, now: Date, clock: StoryClock): Promise<DemoScenarioResult> {
+export async function seedScenario(m: EntityManager, clock: FixedClock, users: DemoUserIds, now: Date): Promise<DemoScenarioResult> {
   const t = demoTimeline(now);
-  const { version: criteriaVersion, criteria } = await loadCriteria(m, 1);
 
   // ---------- sites, designs, units ----------
   const setupAt = t.setup;
+  clock.set(setupAt);
   const siteIds: Record<string, number> = {};
-  await clock.at(setupAt, async () => {
-    for (const s of DEMO_SITES) {
-      const existing = await m.getRepository(Site).findOne({ where: { name: s.name } });
-      const id = existing ? existing.id : (await m.insert(Site, { name: s.name, timeZone: s.timeZone })).identifiers[0].id as number;
-      siteIds[s.name] = id;
-      if (!existing) await audit(m, { userId: users.admin, action: 'create', entity: 'site', entityId: id, after: { name: s.name, timeZone: s.timeZone }, note: 'demo data' });
-    }
-  });
+  for (const s of DEMO_SITES) {
+    const existing = await m.getRepository(Site).findOne({ where: { name: s.name } });
+    siteIds[s.name] = existing ? existing.id : (await createSite(m, clock, users.admin, asRoute(siteBodySchema, { name: s.name, timeZone: s.timeZone }))).id;
+  }
   const designIds = {} as Record<FamilyKey, number>;
-  await clock.at(setupAt, async () => {
-    for (const d of Object.values(DEMO_DESIGNS)) {
-      const row = {
-        reference: d.reference,
-        maker: d.maker,
-        windings: d.windings,
-        vectorGroup: d.vectorGroup,
-        phases: d.phases,
-        hvKV: d.hvKV,
-        lvKV: d.lvKV,
-        tvKV: null,
-        coolingStages: d.coolingStages,
-        impedancePercent: d.impedancePercent,
-        impedanceBaseKVA: d.impedanceBaseKVA,
-        conductor: d.conductor,
-        requiredCapacitance: d.requiredCapacitance,
-        notes: d.notes,
-      };
-      const existing = await m.getRepository(Design).findOne({ where: { reference: d.reference } });
-      const id = existing ? existing.id : ((await m.insert(Design, row)).identifiers[0].id as number);
-      designIds[d.key] = id;
-      if (!existing) await audit(m, { userId: users.admin, action: 'create', entity: 'design', entityId: id, after: row, note: 'demo data' });
-    }
-  });
-  const unitRows = DEMO_UNITS.map((u) => {
+  for (const d of Object.values(DEMO_DESIGNS)) {
+    const existing = await m.getRepository(Design).findOne({ where: { reference: d.reference } });
+    designIds[d.key] = existing
+      ? existing.id
+      : (
+          await createDesign(
+            m,
+            clock,
+            users.admin,
+            asRoute(designBodySchema, {
+              reference: d.reference,
+              maker: d.maker,
+              windings: d.windings,
+              vectorGroup: d.vectorGroup,
+              phases: d.phases,
+              hvKV: d.hvKV,
+              lvKV: d.lvKV,
+              coolingStages: d.coolingStages,
+              impedancePercent: d.impedancePercent,
+              impedanceBaseKVA: d.impedanceBaseKVA,
+              conductor: d.conductor,
+              requiredCapacitance: d.requiredCapacitance,
+              notes: d.notes,
+            }),
+          )
+        ).id;
+  }
+  const unitIds: Record<string, number> = {};
+  for (const u of DEMO_UNITS) {
     const d = DEMO_DESIGNS[u.family];
-    return {
+    const body = asRoute(unitBodySchema, {
       serial: u.serial,
       position: u.position,
       siteId: siteIds[u.site],
@@ -152,207 +131,167 @@ async function writeScenario(m: EntityManager, users: DemoUserIds, now: Date, cl
       impedancePercent: d.impedancePercent,
       systemImpedancePercent: demoSite(u.site).systemImpedancePercent,
       conductor: d.conductor,
-    };
-  });
-  const unitIds = await clock.at(setupAt, async () => {
-    await m.insert(Unit, unitRows);
-    const units = await m.getRepository(Unit).find({ where: unitRows.map((u) => ({ serial: u.serial })) });
-    const ids = Object.fromEntries(units.map((u) => [u.serial, u.id])) as Record<string, number>;
-    for (const row of unitRows) await audit(m, { userId: users.admin, action: 'create', entity: 'unit', entityId: ids[row.serial], after: row, note: 'demo data' });
-    return ids;
-  });
+    });
+    unitIds[u.serial] = (await createUnit(m, clock, users.admin, body)).id;
+  }
 
   // ---------- reading sets ----------
-  // Factory results were entered from the makers' test reports when the fleet was set up; later sets on the day.
+  // Factory results were entered from the makers' test reports when the fleet was set up; routine sets later that day;
+  // commissioning sets five hours after the tests; post-fault sessions an hour after they were taken.
   let backEntered = 0;
-  const addSet = async (serial: string, kind: ReadingSetKind, body: ReadingBody, userId: number, eventId: number | null = null): Promise<ReadingSet> => {
-    const takenAt = new Date(body.takenAt);
-    const enteredAt = takenAt < setupAt ? at(setupAt, ++backEntered * 20 * MINUTE) : at(takenAt, kind === 'routine' ? 16 * HOUR : 5 * HOUR);
-    return clock.at(enteredAt, () => insertReadingSet(m, { unitId: unitIds[serial], kind, eventId, body, userId }));
+  const enteredAt = (kind: ReadingSetKind, takenAt: Date) =>
+    takenAt < setupAt ? at(setupAt, ++backEntered * 20 * MINUTE) : at(takenAt, kind === 'routine' ? 16 * HOUR : kind === 'post-fault' ? HOUR : 5 * HOUR);
+  const addSet = async (serial: string, kind: Exclude<ReadingSetKind, 'post-fault'>, body: ReadingBody): Promise<number> => {
+    clock.set(enteredAt(kind, new Date(body.takenAt)));
+    return (await addUnitReadingSet(m, clock, users.tester, unitIds[serial], asRoute(readingSetBodySchema, { ...body, kind }))).id;
   };
-  const addTraces = async (setId: number, serial: string, state: SweepState, session: string, field: boolean, when: Date, userId: number) => {
-    await clock.at(when, async () => {
-      for (const tr of sessionTraces(serial, state, session, field)) {
-        const freqs = tr.points.map((p) => p[0]);
-        await insertSweepTrace(
-          m,
-          setId,
-          {
-            label: tr.label,
-            testType: tr.testType,
-            winding: tr.winding,
-            phase: tr.phase,
-            terminals: tr.terminals,
-            tapPosition: tr.tapPosition,
-            ...(tr.demagnetised === null ? {} : { demagnetised: tr.demagnetised }),
-          },
-          { points: tr.points, minHz: Math.min(...freqs), maxHz: Math.max(...freqs) },
-          tr.fileName,
-          userId,
-        );
-      }
+  const traces = (serial: string, state: SweepState, session: string, field: boolean) =>
+    sessionTraces(serial, state, session, field).map((tr) => {
+      const freqs = tr.points.map((p) => p[0]);
+      const fields: SweepFields = {
+        label: tr.label,
+        testType: tr.testType,
+        winding: tr.winding,
+        phase: tr.phase,
+        terminals: tr.terminals,
+        tapPosition: tr.tapPosition,
+        ...(tr.demagnetised === null ? {} : { demagnetised: tr.demagnetised }),
+      };
+      return { fields, parsed: { points: tr.points, minHz: Math.min(...freqs), maxHz: Math.max(...freqs) }, fileName: tr.fileName };
     });
+  /** Baseline traces on one of the unit's reading sets (POST /api/units/:unitId/sweeps). */
+  const addUnitTraces = async (serial: string, setId: number, state: SweepState, session: string, field: boolean, when: Date) => {
+    clock.set(when);
+    for (const tr of traces(serial, state, session, field)) await addUnitSweep(m, clock, users.tester, unitIds[serial], setId, tr.fields, tr.parsed, tr.fileName);
+  };
+  /** Post-fault traces on a session (POST /api/sessions/:sessionId/sweeps). */
+  const addSessionTraces = async (serial: string, sessionId: number, state: SweepState, session: string, when: Date) => {
+    clock.set(when);
+    for (const tr of traces(serial, state, session, true)) await addSessionSweep(m, clock, users.tester, sessionId, tr.fields, tr.parsed, tr.fileName);
   };
 
   for (const u of DEMO_UNITS) {
-    const factory = await addSet(u.serial, 'factory', factoryBody(u), users.tester);
+    const factoryId = await addSet(u.serial, 'factory', factoryBody(u));
     if (u.serial === RECENT_EVENT_SERIAL || u.serial === HISTORY_EVENT_SERIAL) {
-      await addTraces(factory.id, u.serial, 'factory', 'factory', false, at(setupAt, (++backEntered) * 20 * MINUTE), users.tester);
+      await addUnitTraces(u.serial, factoryId, 'factory', 'factory', false, at(setupAt, ++backEntered * 20 * MINUTE));
     }
     const dates = routineDates(u, now);
-    for (let k = 0; k < dates.length; k++) await addSet(u.serial, 'routine', routineBody(u, dates[k], k), users.tester);
+    for (let k = 0; k < dates.length; k++) await addSet(u.serial, 'routine', routineBody(u, dates[k], k));
   }
 
   // ---------- shared steps of an event's life ----------
-  const move = (eventId: number, to: FaultEvent['status'], userId: number, what: string, when: Date) => clock.at(when, () => moveEvent(m, eventId, to, userId, what));
+  const logFault = async (body: EventBody): Promise<number> => {
+    clock.set(at(new Date(body.occurredAt), 40 * MINUTE));
+    return (await logEvent(m, clock, users.protection, asRoute(eventBodySchema, body))).id;
+  };
 
+  const session = async (eventId: number, body: ReadingBody): Promise<number> => {
+    clock.set(enteredAt('post-fault', new Date(body.takenAt)));
+    return (await createSession(m, clock, users.tester, eventId, asRoute(sessionBodySchema, body))).id;
+  };
+
+  // The screenings of the story ran under criteria set 1 (the set published then); the managers' mail went out two
+  // minutes later (the worker's record of it; the outbox of those days is not kept).
   const screen = async (eventId: number, when: Date): Promise<{ id: number; result: GapsightResult }> => {
-    const c = await buildEventCase(m, eventId);
-    const result = screenCase(c, criteria);
-    const id = await clock.at(when, async () => {
-      const repo = m.getRepository(Screening);
-      const row = repo.create({
-        eventId,
-        case: c as Record<string, unknown>,
-        result: result as unknown as Record<string, unknown>,
-        recommendation: result.recommendation,
-        criteriaVersion,
-        comparison: false,
-        computedById: users.tester,
-        computedAt: when,
-      });
-      const sid = (await repo.save(row)).id;
-      await audit(m, { userId: users.tester, action: 'screen', entity: 'screening', entityId: sid, after: { eventId, recommendation: result.recommendation, criteriaVersion, reasons: result.reasons } });
-      return sid;
-    });
-    await move(eventId, 'screened', users.tester, 'A screening', when);
-    const event = await m.getRepository(FaultEvent).findOneByOrFail({ id: eventId });
-    await clock.at(when, () => m.update(Unit, event.unitId, { lastRecommendation: result.recommendation }));
-    // The manager's mail went out after the screening (the outbox of those days is not kept: only the log row).
-    await m.insert(Notification, {
-      eventId,
-      screeningId: id,
-      to: 'manager@kestrel-valley.example',
-      subject: `[Gapsight] ${result.recommendation.toUpperCase()}: ${(await m.getRepository(Unit).findOneByOrFail({ id: event.unitId })).serial} after the fault of ${event.occurredAt.toISOString().slice(0, 10)}`,
-      status: 'sent',
-      attempts: 1,
-      sentAt: at(when, 2 * MINUTE),
-      messageId: `<demo-screening-${id}@gapsight.invalid>`,
-    });
-    return { id, result };
+    clock.set(when);
+    const s = await runScreening(m, clock, users.tester, eventId, { criteriaVersion: 1, comparison: false });
+    clock.set(at(when, 2 * MINUTE));
+    const { subject } = buildManagerMail(await loadReportData(m, s.id, ''));
+    const queued = await m.getRepository(Notification).find({ where: { screeningId: s.id, status: 'queued' }, order: { id: 'ASC' } });
+    for (const n of queued) await recordMailSent(m, clock, n.id, { subject, messageId: `<demo-notification-${n.id}@gapsight.invalid>`, attempts: 1 });
+    return { id: s.id, result: s.result };
   };
 
-  const decide = async (
-    eventId: number,
-    screeningId: number,
-    outcome: Decision['outcome'],
-    reason: string,
-    restrictions: string | null,
-    when: Date,
-  ): Promise<void> => {
-    await clock.at(when, async () => {
-      const id = (await m.insert(Decision, { screeningId, managerId: users.manager, outcome, restrictions, reason, againstRecommendation: false, signedAt: when })).identifiers[0].id as number;
-      await audit(m, { userId: users.manager, action: 'decide', entity: 'decision', entityId: id, after: { eventId, screeningId, outcome, restrictions, reason } });
-    });
-    await move(eventId, outcome === 'hold' ? 'held' : 'released', users.manager, `Decision: ${outcome}`, when);
+  const decide = async (screeningId: number, body: DecisionBody, when: Date): Promise<{ followUpIds: number[] }> => {
+    clock.set(when);
+    const d = await decideService(m, clock, users.manager, screeningId, asRoute(decisionBodySchema, body));
+    return { followUpIds: d.followUps.map((f) => f.id) };
   };
 
-  const followUp = async (eventId: number, task: string, dueAt: Date, createdAt: Date, closed?: { at: Date; result: string }): Promise<void> => {
-    const id = await clock.at(createdAt, async () => {
-      const fid = (await m.insert(FollowUp, { eventId, task, dueAt })).identifiers[0].id as number;
-      await audit(m, { userId: users.manager, action: 'create', entity: 'follow_up', entityId: fid, after: { eventId, task, dueAt: dueAt.toISOString() } });
-      return fid;
-    });
-    if (closed) {
-      await clock.at(closed.at, async () => {
-        await m.update(FollowUp, id, { closedAt: closed.at, closedById: users.manager, result: closed.result });
-        await audit(m, { userId: users.manager, action: 'update', entity: 'follow_up', entityId: id, before: { closedAt: null }, after: { closedAt: closed.at.toISOString(), result: closed.result } });
-      });
-    }
-  };
-
-  const logEvent = async (body: Parameters<typeof createEventRow>[1]): Promise<number> => {
-    const when = at(new Date(body.occurredAt), 40 * MINUTE);
-    const event = await clock.at(when, () => createEventRow(m, body, users.protection));
-    return event.id;
-  };
-
-  const session = async (serial: string, eventId: number, body: ReadingBody): Promise<ReadingSet> => {
-    await move(eventId, 'testing', users.tester, 'A new post-fault session', new Date(body.takenAt));
-    return addSet(serial, 'post-fault', body, users.tester, eventId);
+  const closeFollowUpAt = async (followUpId: number, result: string, when: Date) => {
+    clock.set(when);
+    await closeFollowUp(m, clock, users.manager, followUpId, asRoute(followUpCloseSchema, { result }).result);
   };
 
   // ---------- KVP-HX-T2, two years ago: a feeder fault, unit in service (duty-only path) ----------
   const hx2 = RECENT_EVENT_SERIAL;
-  const priorEventId = await logEvent(priorEventBody(unitIds[hx2], t));
-  await session(hx2, priorEventId, priorGasSession(t));
+  const priorEventId = await logFault(priorEventBody(unitIds[hx2], t));
+  await session(priorEventId, priorGasSession(t));
   const prior = await screen(priorEventId, t.priorScreening);
-  await decide(priorEventId, prior.id, 'release', 'Unit stayed in service; fault below the mechanical segment (duty-only path) and the next-day oil sample shows no acetylene. Keep the gas follow-ups.', null, t.priorDecision);
   // The unit stayed in service: the samples count from the event (rules revision 2 wording).
   const priorFollowUps: { task: string; due: Date; result: string }[] = [
     { task: FOLLOW_UPS.gasNow, due: t.priorGasSample, result: 'The next-day sample of the post-fault session: C2H2 0 ppm, H2 +3 ppm against the routine sample. Normal.' },
     { task: FOLLOW_UPS.gas24hEvent, due: at(t.priorFault, DAY), result: 'Taken with the next-day sample: C2H2 0 ppm, H2 +3 ppm. Normal.' },
     { task: FOLLOW_UPS.gas1wEvent, due: at(t.priorFault, 7 * DAY), result: 'C2H2 0 ppm, H2 29 ppm, CO 412 ppm: in line with the routine trend.' },
     { task: FOLLOW_UPS.gas1mEvent, due: at(t.priorFault, 30 * DAY), result: 'C2H2 0 ppm; all gases within the unit\'s normal trend. Closed.' },
-  ];
-  for (const f of priorFollowUps) {
-    if (!prior.result.followUps.includes(f.task)) continue;
-    await followUp(priorEventId, f.task, f.due, t.priorDecision, { at: at(f.due, 6 * HOUR), result: f.result });
-  }
+  ].filter((f) => prior.result.followUps.includes(f.task));
+  const priorDecision = await decide(
+    prior.id,
+    {
+      outcome: 'release',
+      reason: 'Unit stayed in service; fault below the mechanical segment (duty-only path) and the next-day oil sample shows no acetylene. Keep the gas follow-ups.',
+      followUps: priorFollowUps.map((f) => ({ task: f.task, dueAt: f.due.toISOString() })),
+    },
+    t.priorDecision,
+  );
+  for (const [k, f] of priorFollowUps.entries()) await closeFollowUpAt(priorDecision.followUpIds[k], f.result, at(f.due, 6 * HOUR));
 
   // ---------- KVP-MB-T1, about 14 months ago: high duty → no-go → hold → inspected → repaired → go → released ----------
   const mb1 = HISTORY_EVENT_SERIAL;
-  const historyEventId = await logEvent(historyEventBody(unitIds[mb1], t));
-  const hs = await session(mb1, historyEventId, historySession(t));
-  await addTraces(hs.id, mb1, 'deformed', 'post-fault', true, at(t.historySession, 5 * HOUR), users.tester);
+  const historyEventId = await logFault(historyEventBody(unitIds[mb1], t));
+  const hs = await session(historyEventId, historySession(t));
+  await addSessionTraces(mb1, hs, 'deformed', 'post-fault', at(t.historySession, 5 * HOUR));
   const first = await screen(historyEventId, t.historyScreening1);
   await decide(
-    historyEventId,
     first.id,
-    'hold',
-    'No-go: CL up and CHL down with the phase B reactance, excitation current and sweep all moved, and acetylene in the oil. Hold for internal inspection (untank).',
-    null,
+    {
+      outcome: 'hold',
+      reason: 'No-go: CL up and CHL down with the phase B reactance, excitation current and sweep all moved, and acetylene in the oil. Hold for internal inspection (untank).',
+    },
     t.historyHold,
   );
-  await clock.at(t.historyFinding, async () => {
-    const id = (
-      await m.insert(Finding, {
-        eventId: historyEventId,
-        classification: 'deformation-confirmed',
-        text: 'Untanked at the maker\'s works: the LV (inner) winding of phase B shows radial buckling inward (forced buckling) over about a third of its circumference, with six spacer columns displaced and two discs tilted near the top. LV windings A and C and all HV windings sound; clamping pressure found low on all three limbs. Remedy: new LV winding for phase B, all windings re-clamped, oil processed.',
-        recordedById: users.engineer,
-        recordedAt: t.historyFinding,
-      })
-    ).identifiers[0].id as number;
-    await audit(m, { userId: users.engineer, action: 'create', entity: 'finding', entityId: id, after: { eventId: historyEventId, classification: 'deformation-confirmed' } });
-  });
-  // Back at site: commissioning tests (the new reference fingerprint), then the event's re-test.
-  const commissioning = await addSet(mb1, 'commissioning', repairedBody(t, 'commissioning'), users.tester);
-  await addTraces(commissioning.id, mb1, 'repaired', 'commissioning', true, at(t.repairCommissioning, 6 * HOUR), users.tester);
-  const retest = await session(mb1, historyEventId, repairedBody(t, 'retest'));
-  await addTraces(retest.id, mb1, 'repaired', 'retest', true, at(t.historyRetest, 5 * HOUR), users.tester);
-  const second = await screen(historyEventId, t.historyScreening2);
-  await decide(
+  clock.set(t.historyFinding);
+  await recordFinding(
+    m,
+    clock,
+    users.engineer,
     historyEventId,
+    asRoute(findingBodySchema, {
+      classification: 'deformation-confirmed',
+      text: 'Untanked at the maker\'s works: the LV (inner) winding of phase B shows radial buckling inward (forced buckling) over about a third of its circumference, with six spacer columns displaced and two discs tilted near the top. LV windings A and C and all HV windings sound; clamping pressure found low on all three limbs. Remedy: new LV winding for phase B, all windings re-clamped, oil processed.',
+    }),
+  );
+  // Back at site: commissioning tests (the new reference fingerprint), then the event's re-test.
+  const commissioningId = await addSet(mb1, 'commissioning', repairedBody(t, 'commissioning'));
+  await addUnitTraces(mb1, commissioningId, 'repaired', 'commissioning', true, at(t.repairCommissioning, 6 * HOUR));
+  const retest = await session(historyEventId, repairedBody(t, 'retest'));
+  await addSessionTraces(mb1, retest, 'repaired', 'retest', at(t.historyRetest, 5 * HOUR));
+  const second = await screen(historyEventId, t.historyScreening2);
+  const r = t.historyReenergised;
+  const historyFollowUps: { task: string; due: Date; closed?: { at: Date; result: string } }[] = [
+    { task: FOLLOW_UPS.gas24h, due: at(r, DAY), closed: { at: at(r, DAY + 3 * HOUR), result: 'H2 6 ppm, CH4 1.4, C2H6 0.8, C2H4 0.4, C2H2 0, CO 24, CO2 230 ppm: no acetylene. Normal.' } },
+    { task: FOLLOW_UPS.gas1w, due: at(r, 7 * DAY), closed: { at: at(r, 7 * DAY + 5 * HOUR), result: 'H2 9 ppm, CH4 2.0, C2H4 0.6, C2H2 0, CO 41 ppm: slow rise of CO as expected for new paper insulation. Normal.' } },
+    { task: FOLLOW_UPS.gas1m, due: at(r, 30 * DAY) },
+    { task: FOLLOW_UPS.sweepNextOutage, due: at(r, 180 * DAY) },
+  ];
+  const release = await decide(
     second.id,
-    'release-with-restrictions',
-    'Re-test after repair is back on the fingerprint (go). Release with restrictions until the gas follow-ups are clean.',
-    'Load held at or below 40 MVA (ONAN rating) and auto-reclose on the Millbrook 33 kV feeders blocked until the 1-month oil sample is clean.',
+    {
+      outcome: 'release-with-restrictions',
+      reason: 'Re-test after repair is back on the fingerprint (go). Release with restrictions until the gas follow-ups are clean.',
+      restrictions: 'Load held at or below 40 MVA (ONAN rating) and auto-reclose on the Millbrook 33 kV feeders blocked until the 1-month oil sample is clean.',
+      followUps: historyFollowUps.map((f) => ({ task: f.task, dueAt: f.due.toISOString() })),
+    },
     t.historyRelease,
   );
-  const r = t.historyReenergised;
-  await followUp(historyEventId, FOLLOW_UPS.gas24h, at(r, DAY), t.historyRelease, { at: at(r, DAY + 3 * HOUR), result: 'H2 6 ppm, CH4 1.4, C2H6 0.8, C2H4 0.4, C2H2 0, CO 24, CO2 230 ppm: no acetylene. Normal.' });
-  await followUp(historyEventId, FOLLOW_UPS.gas1w, at(r, 7 * DAY), t.historyRelease, { at: at(r, 7 * DAY + 5 * HOUR), result: 'H2 9 ppm, CH4 2.0, C2H4 0.6, C2H2 0, CO 41 ppm: slow rise of CO as expected for new paper insulation. Normal.' });
-  await followUp(historyEventId, FOLLOW_UPS.gas1m, at(r, 30 * DAY), t.historyRelease);
-  await followUp(historyEventId, FOLLOW_UPS.sweepNextOutage, at(r, 180 * DAY), t.historyRelease);
+  for (const [k, f] of historyFollowUps.entries()) if (f.closed) await closeFollowUpAt(release.followUpIds[k], f.closed.result, f.closed.at);
 
   // ---------- KVP-HX-T2, three days ago: the event the demo screens (expected: conditional) ----------
-  const recentEventId = await logEvent(recentEventBody(unitIds[hx2], t));
-  await session(hx2, recentEventId, recentSession1(t));
-  const s2 = await session(hx2, recentEventId, recentSession2(t));
-  await addTraces(s2.id, hx2, 'factory', 'post-fault', true, at(t.recentSession2, 4 * HOUR), users.tester);
-  // The fleet list's recommendation is the newest screening of the unit's last event: none yet for the recent one.
-  await m.update(Unit, unitIds[hx2], { lastRecommendation: null });
+  // Logging it leaves the unit without a recommendation until the event is screened.
+  const recentEventId = await logFault(recentEventBody(unitIds[hx2], t));
+  await session(recentEventId, recentSession1(t));
+  const s2 = await session(recentEventId, recentSession2(t));
+  await addSessionTraces(hx2, s2, 'factory', 'post-fault', at(t.recentSession2, 4 * HOUR));
 
   return { unitIds, priorEventId, historyEventId, recentEventId, timeline: t };
 }

@@ -1,9 +1,10 @@
 import { createHash } from 'node:crypto';
-import type { DataSource } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import { detectRelayRecord } from '../../../shared/imports/sniff.js';
 import type { AttachmentView } from '../../../shared/schemas/responses/index.js';
 import { notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
+import type { Clock } from '../../common/clock.js';
 import { unsupportedType } from '../../common/upload.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
 import { AttachmentContent } from './attachment-content.entity.js';
@@ -19,35 +20,34 @@ const CONTENT_TYPES: Record<string, string> = {
 };
 
 /** Stores a relay record on an event after checking its extension against its content (415 otherwise); checksum kept. */
-export async function addEventAttachment(db: DataSource, userId: number, eventId: number, file: { originalname: string; buffer: Buffer }) {
+export async function addEventAttachment(m: EntityManager, clock: Clock, userId: number, eventId: number, file: { originalname: string; buffer: Buffer }) {
   const check = detectRelayRecord(file.originalname, new Uint8Array(file.buffer));
   if ('error' in check) throw unsupportedType(check.error);
-  return db.transaction(async (m) => {
-    if (!(await m.getRepository(FaultEvent).exists({ where: { id: eventId } }))) throw notFound('Event');
-    const sha256 = createHash('sha256').update(file.buffer).digest('hex');
-    const name = file.originalname.replace(/[\\/]/g, '_').slice(0, 255);
-    const a = await m.getRepository(Attachment).save(
-      m.getRepository(Attachment).create({
-        ownerType: 'event',
-        ownerId: eventId,
-        name,
-        contentType: CONTENT_TYPES[check.kind],
-        kind: check.kind,
-        size: file.buffer.length,
-        sha256,
-        createdById: userId,
-      }),
-    );
-    await m.getRepository(AttachmentContent).insert({ attachmentId: a.id, data: file.buffer });
-    await audit(m, { userId, action: 'create', entity: 'attachment', entityId: a.id, after: { eventId, name, kind: a.kind, size: a.size, sha256 } });
-    return { id: a.id, name: a.name, contentType: a.contentType, kind: a.kind, size: a.size, sha256: a.sha256, createdAt: a.createdAt.toISOString() } satisfies AttachmentView;
-  });
+  if (!(await m.getRepository(FaultEvent).exists({ where: { id: eventId } }))) throw notFound('Event');
+  const sha256 = createHash('sha256').update(file.buffer).digest('hex');
+  const name = file.originalname.replace(/[\\/]/g, '_').slice(0, 255);
+  const a = await m.getRepository(Attachment).save(
+    m.getRepository(Attachment).create({
+      ownerType: 'event',
+      ownerId: eventId,
+      name,
+      contentType: CONTENT_TYPES[check.kind],
+      kind: check.kind,
+      size: file.buffer.length,
+      sha256,
+      createdById: userId,
+      createdAt: clock.now(),
+    }),
+  );
+  await m.getRepository(AttachmentContent).insert({ attachmentId: a.id, data: file.buffer });
+  await audit(m, clock, { userId, action: 'create', entity: 'attachment', entityId: a.id, after: { eventId, name, kind: a.kind, size: a.size, sha256 } });
+  return { id: a.id, name: a.name, contentType: a.contentType, kind: a.kind, size: a.size, sha256: a.sha256, createdAt: a.createdAt.toISOString() } satisfies AttachmentView;
 }
 
 /** An attachment's bytes with its name and type (404 when it is not this event's). */
-export async function getEventAttachment(db: DataSource, eventId: number, attachmentId: number) {
-  const a = await db.getRepository(Attachment).findOne({ where: { id: attachmentId, ownerType: 'event', ownerId: eventId } });
+export async function getEventAttachment(m: EntityManager, eventId: number, attachmentId: number) {
+  const a = await m.getRepository(Attachment).findOne({ where: { id: attachmentId, ownerType: 'event', ownerId: eventId } });
   if (!a) throw notFound('Attachment');
-  const c = await db.getRepository(AttachmentContent).findOneOrFail({ where: { attachmentId } });
+  const c = await m.getRepository(AttachmentContent).findOneOrFail({ where: { attachmentId } });
   return { name: a.name, contentType: a.contentType, sha256: a.sha256, data: c.data };
 }

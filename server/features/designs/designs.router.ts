@@ -1,36 +1,29 @@
-import type { RouteDef } from '../../route-def.js';
-import { validate } from '../../common/validate.js';
-import { currentUser } from '../../common/auth.js';
-import { idParams, type IdParams } from '../../common/params.js';
+import { route, type RouteDef } from '../../route-def.js';
+import { designParams } from '../../common/params.js';
 import { designBodySchema, designPatchSchema } from '../../../shared/schemas/fleet.js';
-import { ctx } from '../../context.js';
 import { createDesign, getDesign, listDesigns, updateDesign } from './designs.service.js';
 
 export const designRoutes: RouteDef[] = [
   // GET /api/designs — design families with their unit counts
-  { method: 'get', path: '/designs', access: 'signed-in', handlers: [async (req, res) => void res.json(await listDesigns(ctx(req).db))] },
-  {
-    // GET /api/designs/:id — one design with its sister units
-    method: 'get',
-    path: '/designs/:id',
-    access: 'signed-in',
-    handlers: [validate({ params: idParams }), async (req, res) => void res.json(await getDesign(ctx(req).db, (res.locals.params as IdParams).id))],
-  },
-  {
-    // POST /api/designs — add a design family
+  route({ method: 'get', path: '/designs', access: 'signed-in', handler: ({ m }) => listDesigns(m) }),
+  // GET /api/designs/:designId — one design with its sister units
+  route({ method: 'get', path: '/designs/:designId', access: 'signed-in', params: designParams, handler: ({ m, params }) => getDesign(m, params.designId) }),
+  // POST /api/designs — add a design family
+  route({
     method: 'post',
     path: '/designs',
     access: ['admin'],
-    handlers: [validate({ body: designBodySchema }), async (req, res) => void res.status(201).json(await createDesign(ctx(req).db, currentUser(res).id, res.locals.body))],
-  },
-  {
-    // PATCH /api/designs/:id — change a design family
+    body: designBodySchema,
+    status: 201,
+    handler: ({ m, clock, user, body }) => createDesign(m, clock, user.id, body),
+  }),
+  // PATCH /api/designs/:designId — change a design family
+  route({
     method: 'patch',
-    path: '/designs/:id',
+    path: '/designs/:designId',
     access: ['admin'],
-    handlers: [
-      validate({ params: idParams, body: designPatchSchema }),
-      async (req, res) => void res.json(await updateDesign(ctx(req).db, currentUser(res).id, (res.locals.params as IdParams).id, res.locals.body)),
-    ],
-  },
+    params: designParams,
+    body: designPatchSchema,
+    handler: ({ m, clock, user, params, body }) => updateDesign(m, clock, user.id, params.designId, body),
+  }),
 ];

@@ -1,9 +1,10 @@
-import type { DataSource, EntityManager } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { designBodySchema, designPatchSchema } from '../../../shared/schemas/fleet.js';
 import type { DesignDetail, DesignListItem, DesignView } from '../../../shared/schemas/responses/index.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
+import type { Clock } from '../../common/clock.js';
 import { Unit } from '../units/unit.entity.js';
 import { Design } from './design.entity.js';
 
@@ -28,18 +29,18 @@ export function designView(d: Design) {
 }
 
 /** Every design with its number of units. */
-export async function listDesigns(db: DataSource) {
-  const designs = await db.getRepository(Design).find({ order: { reference: 'ASC' } });
-  const counts: { designId: number; n: number }[] = await db.query('SELECT designId, COUNT(*) AS n FROM `unit` GROUP BY designId');
+export async function listDesigns(m: EntityManager) {
+  const designs = await m.getRepository(Design).find({ order: { reference: 'ASC' } });
+  const counts: { designId: number; n: number }[] = await m.query('SELECT designId, COUNT(*) AS n FROM `unit` GROUP BY designId');
   const byId = new Map(counts.map((c) => [Number(c.designId), Number(c.n)]));
   return designs.map((d) => ({ ...designView(d), unitCount: byId.get(d.id) ?? 0 }) satisfies DesignListItem);
 }
 
 /** One design with its units (the sister family). */
-export async function getDesign(db: DataSource, id: number) {
-  const d = await db.getRepository(Design).findOne({ where: { id } });
+export async function getDesign(m: EntityManager, id: number) {
+  const d = await m.getRepository(Design).findOne({ where: { id } });
   if (!d) throw notFound('Design');
-  const units = await db.getRepository(Unit).find({ where: { designId: id }, relations: { site: true }, order: { serial: 'ASC' } });
+  const units = await m.getRepository(Unit).find({ where: { designId: id }, relations: { site: true }, order: { serial: 'ASC' } });
   return {
     ...designView(d),
     units: units.map((u) => ({ id: u.id, serial: u.serial, position: u.position, siteId: u.siteId, siteName: u.site.name, year: u.year, lastRecommendation: u.lastRecommendation })),
@@ -52,25 +53,21 @@ async function assertReferenceFree(m: EntityManager, reference: string, exceptId
 }
 
 /** Creates a design family (audited). */
-export async function createDesign(db: DataSource, userId: number, body: z.infer<typeof designBodySchema>) {
-  return db.transaction(async (m) => {
-    await assertReferenceFree(m, body.reference);
-    const d = await m.getRepository(Design).save(m.getRepository(Design).create({ ...body, tvKV: body.tvKV ?? null, notes: body.notes ?? null }));
-    await audit(m, { userId, action: 'create', entity: 'design', entityId: d.id, after: designView(d) });
-    return designView(d);
-  });
+export async function createDesign(m: EntityManager, clock: Clock, userId: number, body: z.infer<typeof designBodySchema>) {
+  await assertReferenceFree(m, body.reference);
+  const d = await m.getRepository(Design).save(m.getRepository(Design).create({ ...body, tvKV: body.tvKV ?? null, notes: body.notes ?? null, createdAt: clock.now(), updatedAt: clock.now() }));
+  await audit(m, clock, { userId, action: 'create', entity: 'design', entityId: d.id, after: designView(d) });
+  return designView(d);
 }
 
 /** Changes a design (audited with before and after). */
-export async function updateDesign(db: DataSource, userId: number, id: number, patch: z.infer<typeof designPatchSchema>) {
-  return db.transaction(async (m) => {
-    const d = await m.getRepository(Design).findOne({ where: { id } });
-    if (!d) throw notFound('Design');
-    const before = designView(d);
-    if (patch.reference !== undefined) await assertReferenceFree(m, patch.reference, id);
-    Object.assign(d, patch);
-    await m.getRepository(Design).save(d);
-    await audit(m, { userId, action: 'update', entity: 'design', entityId: id, before, after: designView(d) });
-    return designView(d);
-  });
+export async function updateDesign(m: EntityManager, clock: Clock, userId: number, id: number, patch: z.infer<typeof designPatchSchema>) {
+  const d = await m.getRepository(Design).findOne({ where: { id } });
+  if (!d) throw notFound('Design');
+  const before = designView(d);
+  if (patch.reference !== undefined) await assertReferenceFree(m, patch.reference, id);
+  Object.assign(d, patch, { updatedAt: clock.now() });
+  await m.getRepository(Design).save(d);
+  await audit(m, clock, { userId, action: 'update', entity: 'design', entityId: id, before, after: designView(d) });
+  return designView(d);
 }

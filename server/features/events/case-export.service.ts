@@ -1,5 +1,7 @@
 import { In, LessThan, Not, type EntityManager } from 'typeorm';
+import { isBaselineSet } from '../../../shared/readings/baseline.js';
 import { mergeReadingSets } from '../../../shared/readings/merge.js';
+import { unitToCase } from '../../../shared/readings/unit-case.js';
 import type { Fault, GapsightCase, PriorFault, ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
 import { notFound } from '../../common/app-error.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
@@ -10,20 +12,7 @@ import { FaultEvent } from './fault-event.entity.js';
 
 /** The unit block of a case, from the unit and its design. */
 export function caseUnit(unit: Unit): GapsightCase['unit'] {
-  const d = unit.design;
-  return {
-    serial: unit.serial,
-    phases: unit.phases,
-    ratedKVA: unit.ratedKVA,
-    hvKV: unit.hvKV,
-    lvKV: unit.lvKV,
-    impedancePercent: unit.impedancePercent,
-    systemImpedancePercent: unit.systemImpedancePercent,
-    windings: d.windings,
-    vectorGroup: d.vectorGroup,
-    conductor: unit.conductor,
-    ...(d.requiredCapacitance.length ? { requiredCapacitance: d.requiredCapacitance } : {}),
-  };
+  return unitToCase(unit);
 }
 
 /** A logged event as the case format's fault (or prior fault): location and current basis only when recorded. */
@@ -52,7 +41,7 @@ export function casePriorFault(p: FaultEvent): PriorFault {
   };
 }
 
-const isReferenceSet = (s: ReadingSet) => s.kind === 'factory' || s.kind === 'commissioning' || (s.isReference && s.kind !== 'post-fault');
+const isReferenceSet = (s: ReadingSet) => isBaselineSet(s);
 
 function mergeOf(sets: ReadingSet[], values: Map<number, CaseReadingSet>): CaseReadingSet | undefined {
   return mergeReadingSets(sets.map((s) => values.get(s.id)!).filter(Boolean));

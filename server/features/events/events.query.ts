@@ -1,4 +1,4 @@
-import { In, LessThan, Not, type DataSource } from 'typeorm';
+import { In, LessThan, Not, type EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { Recommendation } from '../../../shared/schemas/enums.js';
 import type { eventListQuerySchema } from '../../../shared/schemas/fleet.js';
@@ -45,14 +45,14 @@ export function eventView(e: FaultEvent) {
 }
 
 /** The event's through-fault duty (with the unit's earlier faults counted), as the engine computes it. */
-export async function eventThroughFault(db: DataSource, e: FaultEvent, unit: Unit) {
-  const prior = await db.getRepository(FaultEvent).find({ where: { unitId: e.unitId, occurredAt: LessThan(e.occurredAt), id: Not(e.id) } });
+export async function eventThroughFault(m: EntityManager, e: FaultEvent, unit: Unit) {
+  const prior = await m.getRepository(FaultEvent).find({ where: { unitId: e.unitId, occurredAt: LessThan(e.occurredAt), id: Not(e.id) } });
   return dutyWithPriorFaults(caseUnit(unit), caseFault(e), prior.map((p) => ({ id: p.id, ...casePriorFault(p) })), e.id);
 }
 
 /** The event-list query of one page (exported so a test can EXPLAIN it): the event table alone, through its indexes. */
-export function eventListQuery(db: DataSource, q: z.infer<typeof eventListQuerySchema>) {
-  const qb = db.getRepository(FaultEvent).createQueryBuilder('e');
+export function eventListQuery(m: EntityManager, q: z.infer<typeof eventListQuerySchema>) {
+  const qb = m.getRepository(FaultEvent).createQueryBuilder('e');
   if (q.status) qb.andWhere('e.status = :status', { status: q.status });
   if (q.unitId) qb.andWhere('e.unitId = :unitId', { unitId: q.unitId });
   if (q.siteId) qb.andWhere('e.unitId IN (SELECT su.id FROM unit su WHERE su.siteId = :siteId)', { siteId: q.siteId });
@@ -63,12 +63,12 @@ export function eventListQuery(db: DataSource, q: z.infer<typeof eventListQueryS
 }
 
 /** One page of events, newest first by default, filtered by status, unit or site; each with its unit, site and newest recommendation. */
-export async function listEvents(db: DataSource, q: z.infer<typeof eventListQuerySchema>) {
-  const [events, total] = await eventListQuery(db, q).getManyAndCount();
-  const units = events.length ? await db.getRepository(Unit).find({ where: { id: In([...new Set(events.map((e) => e.unitId))]) }, relations: { site: true } }) : [];
+export async function listEvents(m: EntityManager, q: z.infer<typeof eventListQuerySchema>) {
+  const [events, total] = await eventListQuery(m, q).getManyAndCount();
+  const units = events.length ? await m.getRepository(Unit).find({ where: { id: In([...new Set(events.map((e) => e.unitId))]) }, relations: { site: true } }) : [];
   const unit = new Map(units.map((u) => [u.id, u]));
   const latest: { eventId: number; recommendation: Recommendation }[] = events.length
-    ? await db.query(
+    ? await m.query(
         'SELECT s.eventId, s.recommendation FROM screening s JOIN (SELECT eventId, MAX(id) AS id FROM screening WHERE comparison = 0 AND eventId IN (?) GROUP BY eventId) m ON m.id = s.id',
         [events.map((e) => e.id)],
       )
@@ -86,20 +86,20 @@ export async function listEvents(db: DataSource, q: z.infer<typeof eventListQuer
 }
 
 /** An event with its unit, duty, sessions (values and sweeps), screenings (newest first), decision, follow-ups, findings, attachments and audit trail. */
-export async function getEvent(db: DataSource, id: number) {
-  const e = await db.getRepository(FaultEvent).findOne({ where: { id } });
+export async function getEvent(m: EntityManager, id: number) {
+  const e = await m.getRepository(FaultEvent).findOne({ where: { id } });
   if (!e) throw notFound('Event');
-  const unit = await db.getRepository(Unit).findOneOrFail({ where: { id: e.unitId }, relations: { site: true, design: true } });
-  const sessions = await db.getRepository(ReadingSet).find({ where: { eventId: id }, order: { takenAt: 'ASC', id: 'ASC' } });
-  const values = await loadCaseReadingSets(db.manager, sessions);
-  const sweeps = sessions.length ? await db.getRepository(SweepTrace).find({ where: { readingSetId: In(sessions.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
-  const screenings = await db.getRepository(Screening).find({ where: { eventId: id }, order: { computedAt: 'DESC', id: 'DESC' } });
-  const decisions = screenings.length ? await db.getRepository(Decision).find({ where: { screeningId: In(screenings.map((s) => s.id)) }, order: { signedAt: 'DESC', id: 'DESC' } }) : [];
-  const followUps = await db.getRepository(FollowUp).find({ where: { eventId: id }, order: { dueAt: 'ASC', id: 'ASC' } });
-  const findings = await db.getRepository(Finding).find({ where: { eventId: id }, order: { recordedAt: 'ASC', id: 'ASC' } });
-  const notifications = await db.getRepository(Notification).find({ where: { eventId: id }, order: { id: 'DESC' }, take: 200 });
-  const attachments = await db.getRepository(Attachment).find({ where: { ownerType: 'event', ownerId: id }, order: { id: 'ASC' } });
-  const auditRows = await db.getRepository(AuditEntry).find({
+  const unit = await m.getRepository(Unit).findOneOrFail({ where: { id: e.unitId }, relations: { site: true, design: true } });
+  const sessions = await m.getRepository(ReadingSet).find({ where: { eventId: id }, order: { takenAt: 'ASC', id: 'ASC' } });
+  const values = await loadCaseReadingSets(m, sessions);
+  const sweeps = sessions.length ? await m.getRepository(SweepTrace).find({ where: { readingSetId: In(sessions.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
+  const screenings = await m.getRepository(Screening).find({ where: { eventId: id }, order: { computedAt: 'DESC', id: 'DESC' } });
+  const decisions = screenings.length ? await m.getRepository(Decision).find({ where: { screeningId: In(screenings.map((s) => s.id)) }, order: { signedAt: 'DESC', id: 'DESC' } }) : [];
+  const followUps = await m.getRepository(FollowUp).find({ where: { eventId: id }, order: { dueAt: 'ASC', id: 'ASC' } });
+  const findings = await m.getRepository(Finding).find({ where: { eventId: id }, order: { recordedAt: 'ASC', id: 'ASC' } });
+  const notifications = await m.getRepository(Notification).find({ where: { eventId: id }, order: { id: 'DESC' }, take: 200 });
+  const attachments = await m.getRepository(Attachment).find({ where: { ownerType: 'event', ownerId: id }, order: { id: 'ASC' } });
+  const auditRows = await m.getRepository(AuditEntry).find({
     where: [
       { entity: 'fault_event', entityId: String(id) },
       ...(sessions.length ? [{ entity: 'reading_set', entityId: In(sessions.map((s) => String(s.id))) }] : []),
@@ -111,12 +111,12 @@ export async function getEvent(db: DataSource, id: number) {
     take: 500,
   });
   const userIds = [...new Set([e.createdById, ...sessions.map((s) => s.createdById), ...screenings.map((s) => s.computedById), ...decisions.map((d) => d.managerId), ...followUps.map((f) => f.closedById), ...findings.map((f) => f.recordedById), ...auditRows.map((a) => a.userId)].filter((x): x is number => typeof x === 'number'))];
-  const users = userIds.length ? await db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
+  const users = userIds.length ? await m.getRepository(User).find({ where: { id: In(userIds) } }) : [];
   const people = Object.fromEntries(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
   return {
     ...eventView(e),
     unit: { ...unitView(unit), site: { id: unit.site.id, name: unit.site.name, timeZone: unit.site.timeZone }, design: designView(unit.design) },
-    throughFault: await eventThroughFault(db, e, unit),
+    throughFault: await eventThroughFault(m, e, unit),
     sessions: sessions.map((s) => ({ ...readingSetConditions(s), values: values.get(s.id), sweeps: sweeps.filter((t) => t.readingSetId === s.id).map(sweepMeta) })),
     screenings: screenings.map((s) => ({
       id: s.id,

@@ -1,134 +1,108 @@
-import type { RouteDef } from '../../route-def.js';
-import { validate } from '../../common/validate.js';
-import { currentUser } from '../../common/auth.js';
-import { attachmentParams, idParams, type IdParams } from '../../common/params.js';
-import { singleFile, UPLOAD_LIMITS } from '../../common/upload.js';
-import { eventBodySchema, eventListQuerySchema, sessionBodySchema, sweepUploadFieldsSchema, type EventBody } from '../../../shared/schemas/fleet.js';
-import { notFound } from '../../common/app-error.js';
-import { ctx } from '../../context.js';
+import { fileReply, route, type RouteDef } from '../../route-def.js';
+import { attachmentParams, eventParams, sessionParams, sweepParams } from '../../common/params.js';
+import { UPLOAD_LIMITS } from '../../common/upload.js';
+import { eventBodySchema, eventListQuerySchema, sessionBodySchema, sweepUploadFieldsSchema } from '../../../shared/schemas/fleet.js';
 import { addEventAttachment, getEventAttachment } from '../attachments/attachments.service.js';
-import { SweepTrace } from '../readings/sweep-trace.entity.js';
-import { parseSweepUpload, sweepMeta } from '../readings/sweeps.service.js';
-import { Unit } from '../units/unit.entity.js';
+import { getSweep, parseSweepUpload } from '../readings/sweeps.service.js';
 import { buildEventCase } from './case-export.service.js';
-import { createEventRow } from './events.service.js';
-import { eventThroughFault, eventView, getEvent, listEvents } from './events.query.js';
+import { logEvent } from './events.service.js';
+import { getEvent, listEvents } from './events.query.js';
 import { addSessionSweep, createSession, importReadingsCsv } from './sessions.service.js';
 
-const eventId = (res: { locals: Record<string, unknown> }) => (res.locals.params as IdParams).id;
-
 export const eventRoutes: RouteDef[] = [
-  {
-    // POST /api/events — log a fault event; answers its through-fault duty
+  // POST /api/events — log a fault event; answers its through-fault duty
+  route({
     method: 'post',
     path: '/events',
     access: ['protection', 'admin'],
-    handlers: [
-      validate({ body: eventBodySchema }),
-      async (req, res) => {
-        const { db } = ctx(req);
-        const event = await db.transaction((m) => createEventRow(m, res.locals.body as EventBody, currentUser(res).id));
-        const unit = await db.getRepository(Unit).findOneOrFail({ where: { id: event.unitId }, relations: { design: true } });
-        res.status(201).json({ ...eventView(event), throughFault: await eventThroughFault(db, event, unit) });
-      },
-    ],
-  },
-  {
-    // GET /api/events — events, newest first, by status, unit or site
+    body: eventBodySchema,
+    status: 201,
+    handler: ({ m, clock, user, body }) => logEvent(m, clock, user.id, body),
+  }),
+  // GET /api/events — events, newest first, by status, unit or site
+  route({
     method: 'get',
     path: '/events',
     access: 'signed-in',
-    handlers: [validate({ query: eventListQuerySchema }), async (req, res) => void res.json(await listEvents(ctx(req).db, res.locals.query))],
-  },
-  {
-    // GET /api/events/:id — the event file
+    query: eventListQuerySchema,
+    handler: ({ m, query }) => listEvents(m, query),
+  }),
+  // GET /api/events/:eventId — the event file
+  route({
     method: 'get',
-    path: '/events/:id',
+    path: '/events/:eventId',
     access: 'signed-in',
-    handlers: [validate({ params: idParams }), async (req, res) => void res.json(await getEvent(ctx(req).db, eventId(res)))],
-  },
-  {
-    // GET /api/events/:id/case — the event as a gapsight-case/1 document
+    params: eventParams,
+    handler: ({ m, params }) => getEvent(m, params.eventId),
+  }),
+  // GET /api/events/:eventId/case — the event as a gapsight-case/1 document
+  route({
     method: 'get',
-    path: '/events/:id/case',
+    path: '/events/:eventId/case',
     access: 'signed-in',
-    handlers: [validate({ params: idParams }), async (req, res) => void res.json(await ctx(req).db.transaction((m) => buildEventCase(m, eventId(res))))],
-  },
-  {
-    // POST /api/events/:id/attachments — a relay record (COMTRADE, CSV, PDF, text)
+    params: eventParams,
+    handler: ({ m, params }) => buildEventCase(m, params.eventId),
+  }),
+  // POST /api/events/:eventId/attachments — a relay record (COMTRADE, CSV, PDF, text)
+  route({
     method: 'post',
-    path: '/events/:id/attachments',
+    path: '/events/:eventId/attachments',
     access: ['protection', 'admin'],
-    handlers: [
-      ...singleFile(UPLOAD_LIMITS.attachmentBytes),
-      validate({ params: idParams }),
-      async (req, res) => void res.status(201).json(await addEventAttachment(ctx(req).db, currentUser(res).id, eventId(res), req.file!)),
-    ],
-  },
-  {
-    // GET /api/events/:id/attachments/:attachmentId — download a stored relay record
+    upload: UPLOAD_LIMITS.attachmentBytes,
+    params: eventParams,
+    status: 201,
+    handler: ({ m, clock, user, params, file }) => addEventAttachment(m, clock, user.id, params.eventId, file),
+  }),
+  // GET /api/events/:eventId/attachments/:attachmentId — download a stored relay record
+  route({
     method: 'get',
-    path: '/events/:id/attachments/:attachmentId',
+    path: '/events/:eventId/attachments/:attachmentId',
     access: 'signed-in',
-    handlers: [
-      validate({ params: attachmentParams }),
-      async (req, res) => {
-        const p = res.locals.params as { id: number; attachmentId: number };
-        const a = await getEventAttachment(ctx(req).db, p.id, p.attachmentId);
-        res.setHeader('Content-Type', a.contentType);
-        res.setHeader('Content-Disposition', `attachment; filename="${a.name.replace(/"/g, '')}"`);
-        res.setHeader('X-Content-SHA256', a.sha256);
-        res.send(a.data);
-      },
-    ],
-  },
-  {
-    // POST /api/events/:id/sessions — a post-fault session with its readings; the event moves to testing
+    params: attachmentParams,
+    handler: async ({ m, params }) => {
+      const a = await getEventAttachment(m, params.eventId, params.attachmentId);
+      return fileReply(a.data, a.contentType, {
+        'Content-Disposition': `attachment; filename="${a.name.replace(/"/g, '')}"`,
+        'X-Content-SHA256': a.sha256,
+      });
+    },
+  }),
+  // POST /api/events/:eventId/sessions — a post-fault session with its readings; the event moves to testing
+  route({
     method: 'post',
-    path: '/events/:id/sessions',
+    path: '/events/:eventId/sessions',
     access: ['tester', 'admin'],
-    handlers: [
-      validate({ params: idParams, body: sessionBodySchema }),
-      async (req, res) => void res.status(201).json(await createSession(ctx(req).db, currentUser(res).id, eventId(res), res.locals.body)),
-    ],
-  },
-  {
-    // POST /api/sessions/:id/imports — a readings CSV into a session: all rows or none
+    params: eventParams,
+    body: sessionBodySchema,
+    status: 201,
+    handler: ({ m, clock, user, params, body }) => createSession(m, clock, user.id, params.eventId, body),
+  }),
+  // POST /api/sessions/:sessionId/imports — a readings CSV into a session: all rows or none
+  route({
     method: 'post',
-    path: '/sessions/:id/imports',
+    path: '/sessions/:sessionId/imports',
     access: ['tester', 'admin'],
-    handlers: [
-      ...singleFile(UPLOAD_LIMITS.readingsCsvBytes),
-      validate({ params: idParams }),
-      async (req, res) => void res.json(await importReadingsCsv(ctx(req).db, currentUser(res).id, eventId(res), req.file!)),
-    ],
-  },
-  {
-    // POST /api/sessions/:id/sweeps — a post-fault sweep trace (CSV)
+    upload: UPLOAD_LIMITS.readingsCsvBytes,
+    params: sessionParams,
+    handler: ({ m, clock, user, params, file }) => importReadingsCsv(m, clock, user.id, params.sessionId, file),
+  }),
+  // POST /api/sessions/:sessionId/sweeps — a post-fault sweep trace (CSV)
+  route({
     method: 'post',
-    path: '/sessions/:id/sweeps',
+    path: '/sessions/:sessionId/sweeps',
     access: ['tester', 'admin'],
-    handlers: [
-      ...singleFile(UPLOAD_LIMITS.sweepCsvBytes),
-      validate({ params: idParams, body: sweepUploadFieldsSchema }),
-      async (req, res) => {
-        const parsed = parseSweepUpload(req.file!);
-        res.status(201).json(await addSessionSweep(ctx(req).db, currentUser(res).id, eventId(res), res.locals.body, parsed, req.file!.originalname));
-      },
-    ],
-  },
-  {
-    // GET /api/sweeps/:id — one trace with its points (overlay charts)
+    upload: UPLOAD_LIMITS.sweepCsvBytes,
+    params: sessionParams,
+    body: sweepUploadFieldsSchema,
+    status: 201,
+    handler: ({ m, clock, user, params, body, file }) => addSessionSweep(m, clock, user.id, params.sessionId, body, parseSweepUpload(file), file.originalname),
+  }),
+  // GET /api/sweeps/:sweepId — one trace with its points (overlay charts)
+  route({
     method: 'get',
-    path: '/sweeps/:id',
+    path: '/sweeps/:sweepId',
     access: 'signed-in',
-    handlers: [
-      validate({ params: idParams }),
-      async (req, res) => {
-        const t = await ctx(req).db.getRepository(SweepTrace).findOne({ where: { id: eventId(res) } });
-        if (!t) throw notFound('Sweep trace');
-        res.json({ ...sweepMeta(t), points: t.points });
-      },
-    ],
-  },
+    params: sweepParams,
+    handler: ({ m, params }) => getSweep(m, params.sweepId),
+  }),
 ];

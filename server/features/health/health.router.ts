@@ -1,29 +1,18 @@
-import type { RouteDef } from '../../route-def.js';
-import { ctx } from '../../context.js';
+import { Reply, route, type RouteDef } from '../../route-def.js';
+import { databaseAnswers } from './health.service.js';
 
 export const healthRoutes: RouteDef[] = [
-  {
-    // GET /api/health — liveness with a database ping (503 when the database is unreachable)
+  // GET /api/health — liveness with a database ping (503 when the database is unreachable)
+  route({
     method: 'get',
     path: '/health',
     access: 'public',
-    handlers: [
-      async (req, res) => {
-        const { db, config, mailSinkRunning } = ctx(req);
-        let dbOk = false;
-        try {
-          await db.query('SELECT 1');
-          dbOk = true;
-        } catch {
-          dbOk = false;
-        }
-        res.status(dbOk ? 200 : 503).json({
-          status: dbOk ? 'ok' : 'degraded',
-          db: dbOk ? 'ok' : 'down',
-          demo: config.DEMO === 'on',
-          mailSink: mailSinkRunning,
-        });
-      },
-    ],
-  },
+    handler: async ({ m, ctx }) => {
+      const dbOk = await databaseAnswers(m);
+      return new Reply({
+        status: dbOk ? 200 : 503,
+        json: { status: dbOk ? 'ok' : 'degraded', db: dbOk ? 'ok' : 'down', demo: ctx.config.DEMO === 'on', mailSink: ctx.mailSinkRunning },
+      });
+    },
+  }),
 ];

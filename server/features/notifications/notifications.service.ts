@@ -1,9 +1,8 @@
 import type { Transporter } from 'nodemailer';
 import type { DataSource, EntityManager } from 'typeorm';
+import type { Clock } from '../../common/clock.js';
 import { buildManagerMail } from '../../reports/manager-mail.js';
-import { renderPdf } from '../../reports/pdf.js';
-import { loadReportData } from '../../reports/report-data.service.js';
-import { buildReportDocDefinition } from '../../reports/screening-report.js';
+import { screeningReportPdf } from '../../reports/report.service.js';
 import type { Screening } from '../screenings/screening.entity.js';
 import { Notification } from './notification.entity.js';
 
@@ -27,7 +26,7 @@ export async function siteManagers(m: EntityManager, siteId: number): Promise<{ 
 }
 
 /** Queues the screening's mail to every manager of the unit's site (inside the screening's transaction). */
-export async function queueScreeningMail(m: EntityManager, s: Screening, siteId: number, unitSerial: string): Promise<number> {
+export async function queueScreeningMail(m: EntityManager, clock: Clock, s: Screening, siteId: number, unitSerial: string): Promise<number> {
   const managers = await siteManagers(m, siteId);
   if (!managers.length) return 0;
   await m.getRepository(Notification).insert(
@@ -38,27 +37,42 @@ export async function queueScreeningMail(m: EntityManager, s: Screening, siteId:
       subject: `[Gapsight] ${s.recommendation.toUpperCase()} — ${unitSerial}`.slice(0, 500),
       status: 'queued' as const,
       attempts: 0,
-      nextAttemptAt: new Date(),
+      nextAttemptAt: clock.now(),
+      createdAt: clock.now(),
     })),
   );
   return managers.length;
 }
 
 /** Claims due messages with a lease (SKIP LOCKED: several app servers never send one message twice at once). */
-async function claim(db: DataSource, limit: number): Promise<number[]> {
+async function claim(db: DataSource, clock: Clock, limit: number): Promise<number[]> {
   return db.transaction(async (m) => {
+    const now = clock.now();
     const rows: { id: number }[] = await m.query(
-      "SELECT id FROM notification WHERE status IN ('queued', 'failed') AND nextAttemptAt IS NOT NULL AND nextAttemptAt <= NOW(3) ORDER BY id LIMIT ? FOR UPDATE SKIP LOCKED",
-      [limit],
+      "SELECT id FROM notification WHERE status IN ('queued', 'failed') AND nextAttemptAt IS NOT NULL AND nextAttemptAt <= ? ORDER BY id LIMIT ? FOR UPDATE SKIP LOCKED",
+      [now, limit],
     );
-    if (rows.length) await m.query(`UPDATE notification SET nextAttemptAt = NOW(3) + INTERVAL ${LEASE_SECONDS} SECOND WHERE id IN (?)`, [rows.map((r) => r.id)]);
+    if (rows.length) await m.query('UPDATE notification SET nextAttemptAt = ? WHERE id IN (?)', [new Date(now.getTime() + LEASE_SECONDS * 1000), rows.map((r) => r.id)]);
     return rows.map((r) => Number(r.id));
   });
 }
 
+/** Records a delivered notification (the worker after sending; the demo seed for the mail of its story). */
+export async function recordMailSent(m: EntityManager, clock: Clock, id: number, sent: { subject: string; messageId: string | null; attempts: number }): Promise<void> {
+  await m.getRepository(Notification).update(id, {
+    status: 'sent',
+    subject: sent.subject.slice(0, 500),
+    attempts: sent.attempts,
+    sentAt: clock.now(),
+    messageId: sent.messageId?.slice(0, 255) || null,
+    nextAttemptAt: null,
+    lastError: null,
+  });
+}
+
 /** Sends the due notifications: mail with the PDF report attached; failures are kept with their error and retried. */
-export async function deliverDueNotifications(db: DataSource, mailer: Mailer, appUrl: string, limit = 20): Promise<{ sent: number; failed: number }> {
-  const ids = await claim(db, limit);
+export async function deliverDueNotifications(db: DataSource, clock: Clock, mailer: Mailer, appUrl: string, limit = 20): Promise<{ sent: number; failed: number }> {
+  const ids = await claim(db, clock, limit);
   let sent = 0;
   let failed = 0;
   const built = new Map<number, Promise<{ subject: string; text: string; html: string; pdf: Buffer; filename: string }>>();
@@ -67,10 +81,8 @@ export async function deliverDueNotifications(db: DataSource, mailer: Mailer, ap
       built.set(
         screeningId,
         (async () => {
-          const data = await loadReportData(db.manager, screeningId, appUrl);
-          const mail = buildManagerMail(data);
-          const pdf = await renderPdf(buildReportDocDefinition(data));
-          return { ...mail, pdf, filename: `gapsight-${data.unit.serial}-screening-${screeningId}.pdf` };
+          const { data, pdf, filename } = await screeningReportPdf(db.manager, screeningId, appUrl);
+          return { ...buildManagerMail(data), pdf, filename };
         })(),
       );
     }
@@ -90,11 +102,11 @@ export async function deliverDueNotifications(db: DataSource, mailer: Mailer, ap
         html: mail.html,
         attachments: [{ filename: mail.filename, content: mail.pdf, contentType: 'application/pdf' }],
       });
-      await repo.update(id, { status: 'sent', subject: mail.subject.slice(0, 500), attempts: n.attempts + 1, sentAt: new Date(), messageId: String(info.messageId ?? '').slice(0, 255) || null, nextAttemptAt: null, lastError: null });
+      await recordMailSent(db.manager, clock, id, { subject: mail.subject, messageId: String(info.messageId ?? ''), attempts: n.attempts + 1 });
       sent++;
     } catch (err) {
       const attempts = n.attempts + 1;
-      const retry = attempts < MAX_MAIL_ATTEMPTS ? new Date(Date.now() + 60_000 * 2 ** (attempts - 1)) : null;
+      const retry = attempts < MAX_MAIL_ATTEMPTS ? new Date(clock.now().getTime() + 60_000 * 2 ** (attempts - 1)) : null;
       await repo.update(id, { status: 'failed', attempts, lastError: (err instanceof Error ? err.message : String(err)).slice(0, 2000), nextAttemptAt: retry });
       failed++;
     }
@@ -103,7 +115,7 @@ export async function deliverDueNotifications(db: DataSource, mailer: Mailer, ap
 }
 
 /** Runs delivery every few seconds and on demand; returns the kick and a stop function. */
-export function startMailWorker(db: DataSource, mailer: Mailer, appUrl: () => string, everyMs = 10_000): { kick: () => void; stop: () => Promise<void> } {
+export function startMailWorker(db: DataSource, clock: Clock, mailer: Mailer, appUrl: () => string, everyMs = 10_000): { kick: () => void; stop: () => Promise<void> } {
   let running: Promise<unknown> | null = null;
   let again = false;
   const run = () => {
@@ -111,7 +123,7 @@ export function startMailWorker(db: DataSource, mailer: Mailer, appUrl: () => st
       again = true;
       return;
     }
-    running = deliverDueNotifications(db, mailer, appUrl())
+    running = deliverDueNotifications(db, clock, mailer, appUrl())
       .catch((err) => console.error('Mail delivery failed:', err instanceof Error ? err.message : err))
       .finally(() => {
         running = null;

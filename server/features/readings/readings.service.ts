@@ -3,6 +3,7 @@ import { In } from 'typeorm';
 import { readingSetToRows, rowsToReadingSet, ROW_KEYS, SET_LEVEL_KEYS } from '../../../shared/readings/rows.js';
 import type { ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
 import { audit } from '../../common/audit.js';
+import type { Clock } from '../../common/clock.js';
 import { Reading } from './reading.entity.js';
 import { ReadingSet, type ReadingSetKind } from './reading-set.entity.js';
 
@@ -43,7 +44,7 @@ export function insulationTemperatureC(b: { temperatureC?: number; topOilC?: num
 }
 
 /** Stores one reading set with its readings (inside the caller's transaction) and audits it. */
-export async function insertReadingSet(m: EntityManager, input: NewReadingSet): Promise<ReadingSet> {
+export async function insertReadingSet(m: EntityManager, clock: Clock, input: NewReadingSet): Promise<ReadingSet> {
   const b = input.body;
   const extra: Record<string, unknown> = {};
   for (const [k, v] of Object.entries(b)) {
@@ -72,11 +73,12 @@ export async function insertReadingSet(m: EntityManager, input: NewReadingSet): 
       notes: b.notes ?? null,
       extra: Object.keys(extra).length ? extra : null,
       createdById: input.userId,
+      createdAt: clock.now(),
     }),
   );
   const rows = readingSetToRows(b);
   if (rows.length) await m.insert(Reading, rows.map((r) => ({ ...r, readingSetId: set.id })));
-  await audit(m, {
+  await audit(m, clock, {
     userId: input.userId,
     action: 'create',
     entity: 'reading_set',

@@ -3,8 +3,9 @@ import type { EntityManager } from 'typeorm';
 import { looksLikeCsvText } from '../../../shared/imports/sniff.js';
 import { parseSweepCsv } from '../../../shared/imports/sweep-csv.js';
 import type { SweepMeta } from '../../../shared/schemas/responses/index.js';
-import { AppError } from '../../common/app-error.js';
+import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
+import type { Clock } from '../../common/clock.js';
 import { extensionOf, unsupportedType } from '../../common/upload.js';
 import { SweepTrace } from './sweep-trace.entity.js';
 
@@ -33,6 +34,7 @@ export function parseSweepUpload(file: { originalname: string; buffer: Buffer })
 /** Stores one trace on a reading set (inside the caller's transaction), audited. */
 export async function insertSweepTrace(
   m: EntityManager,
+  clock: Clock,
   readingSetId: number,
   fields: SweepFields,
   parsed: { points: number[][]; minHz: number; maxHz: number },
@@ -58,10 +60,18 @@ export async function insertSweepTrace(
       sha256: createHash('sha256').update(JSON.stringify(parsed.points)).digest('hex'),
       fileName,
       createdById: userId,
+      createdAt: clock.now(),
     }),
   );
-  await audit(m, { userId, action: 'create', entity: 'sweep_trace', entityId: trace.id, after: { readingSetId, label: trace.label, testType: trace.testType, winding: trace.winding, phase: trace.phase, tapPosition: trace.tapPosition, baselineTapPosition: trace.baselineTapPosition, demagnetised: trace.demagnetised, pointCount: trace.pointCount, sha256: trace.sha256, fileName } });
+  await audit(m, clock, { userId, action: 'create', entity: 'sweep_trace', entityId: trace.id, after: { readingSetId, label: trace.label, testType: trace.testType, winding: trace.winding, phase: trace.phase, tapPosition: trace.tapPosition, baselineTapPosition: trace.baselineTapPosition, demagnetised: trace.demagnetised, pointCount: trace.pointCount, sha256: trace.sha256, fileName } });
   return trace;
+}
+
+/** One trace with its points (overlay charts). */
+export async function getSweep(m: EntityManager, sweepId: number) {
+  const t = await m.getRepository(SweepTrace).findOne({ where: { id: sweepId } });
+  if (!t) throw notFound('Sweep trace');
+  return { ...sweepMeta(t), points: t.points };
 }
 
 /** A trace without its points (lists). */

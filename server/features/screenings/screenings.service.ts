@@ -1,14 +1,16 @@
-import type { DataSource } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import { decisionGoesAgainst, proposedFollowUpDueAt, AGAINST_REASON_MIN, type DecisionBody, type findingBodySchema } from '../../../shared/schemas/screening.js';
+import type { GapsightCase } from '../../../shared/schemas/case.js';
+import type { ClosedFollowUp, DecisionAnswer, RecordedFinding, RunScreeningAnswer } from '../../../shared/schemas/responses/index.js';
 import type { GapsightResult } from '../../../shared/schemas/result.js';
 import { screenCase } from '../../../shared/screening/index.js';
 import { AppError, conflict, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
-import type { AppContext } from '../../context.js';
+import type { Clock } from '../../common/clock.js';
 import { loadCriteria } from '../criteria/criteria.service.js';
 import { buildEventCase } from '../events/case-export.service.js';
-import { assertMove, moveEvent } from '../events/events.service.js';
+import { assertMove, moveEvent, refreshUnitLastEvent } from '../events/events.service.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
 import { queueScreeningMail } from '../notifications/notifications.service.js';
 import { Unit } from '../units/unit.entity.js';
@@ -17,137 +19,140 @@ import { Finding } from './finding.entity.js';
 import { FollowUp } from './follow-up.entity.js';
 import { Screening } from './screening.entity.js';
 
+/** Screens a case as given, with the newest published criteria set; nothing is stored. */
+export async function previewScreening(m: EntityManager, c: GapsightCase): Promise<GapsightResult> {
+  const { criteria } = await loadCriteria(m);
+  return screenCase(c, criteria);
+}
+
+/** An engineer runs comparison screenings only; a normal run needs the tester, manager or admin role. */
+export function assertMayRunScreening(roles: readonly string[], comparison: boolean): void {
+  if (comparison || roles.some((r) => r === 'tester' || r === 'manager' || r === 'admin')) return;
+  throw new AppError('forbidden', 'Engineers may run comparison screenings only; a normal screening needs a tester or a manager.', 403);
+}
+
 /**
  * Screens an event from its stored readings. A normal run moves the event to `screened`, records the unit's latest
- * recommendation and queues the managers' mail (sent after the transaction commits); a comparison run, under any
- * criteria version, stores its result and changes nothing else.
+ * recommendation and queues the managers' mail (`mailsQueued`: the caller kicks the worker once committed); a
+ * comparison run, under any criteria version, stores its result and changes nothing else.
  */
-export async function runScreening(c: AppContext, userId: number, eventId: number, body: { criteriaVersion?: number; comparison: boolean }) {
-  const out = await c.db.transaction(async (m) => {
-    const event = await m.getRepository(FaultEvent).findOne({ where: { id: eventId }, lock: { mode: 'pessimistic_write' } });
-    if (!event) throw notFound('Event');
-    if (!body.comparison) assertMove(event, 'screened', 'A screening');
-    const criteria = await loadCriteria(m, body.criteriaVersion);
-    if (!body.comparison && criteria.status !== 'published') {
-      throw new AppError('invalid_input', 'Some fields are invalid.', 400, { criteriaVersion: `version ${criteria.version} is a draft: run it as a comparison` });
-    }
-    const caseDoc = await buildEventCase(m, eventId);
-    const result = screenCase(caseDoc, criteria.criteria);
-    const repo = m.getRepository(Screening);
-    const s = await repo.save(
-      repo.create({
-        eventId,
-        case: caseDoc as unknown as Record<string, unknown>,
-        result: result as unknown as Record<string, unknown>,
-        recommendation: result.recommendation,
-        criteriaVersion: criteria.version,
-        comparison: body.comparison,
-        computedById: userId,
-      }),
-    );
-    await audit(m, {
-      userId,
-      action: 'screen',
-      entity: 'screening',
-      entityId: s.id,
-      after: { eventId, recommendation: result.recommendation, criteriaVersion: criteria.version, comparison: body.comparison, missing: result.missing, unreliable: result.unreliable },
-    });
-    let queued = 0;
-    if (!body.comparison) {
-      await moveEvent(m, eventId, 'screened', userId, 'A screening');
-      const unit = await m.getRepository(Unit).findOneByOrFail({ id: event.unitId });
-      await m.getRepository(Unit).update(unit.id, { lastRecommendation: result.recommendation });
-      queued = await queueScreeningMail(m, s, unit.siteId, unit.serial);
-    }
-    return { id: s.id, result, criteriaVersion: criteria.version, comparison: body.comparison, computedAt: s.computedAt.toISOString(), mailsQueued: queued };
+export async function runScreening(m: EntityManager, clock: Clock, userId: number, eventId: number, body: { criteriaVersion?: number; comparison: boolean }) {
+  const event = await m.getRepository(FaultEvent).findOne({ where: { id: eventId }, lock: { mode: 'pessimistic_write' } });
+  if (!event) throw notFound('Event');
+  if (!body.comparison) assertMove(event, 'screened', 'A screening');
+  const criteria = await loadCriteria(m, body.criteriaVersion);
+  if (!body.comparison && criteria.status !== 'published') {
+    throw new AppError('invalid_input', 'Some fields are invalid.', 400, { criteriaVersion: `version ${criteria.version} is a draft: run it as a comparison` });
+  }
+  const caseDoc = await buildEventCase(m, eventId);
+  const result = screenCase(caseDoc, criteria.criteria);
+  const repo = m.getRepository(Screening);
+  const s = await repo.save(
+    repo.create({
+      eventId,
+      case: caseDoc as unknown as Record<string, unknown>,
+      result: result as unknown as Record<string, unknown>,
+      recommendation: result.recommendation,
+      criteriaVersion: criteria.version,
+      comparison: body.comparison,
+      computedById: userId,
+      computedAt: clock.now(),
+    }),
+  );
+  await audit(m, clock, {
+    userId,
+    action: 'screen',
+    entity: 'screening',
+    entityId: s.id,
+    after: { eventId, recommendation: result.recommendation, criteriaVersion: criteria.version, comparison: body.comparison, missing: result.missing, unreliable: result.unreliable },
   });
-  if (out.mailsQueued) c.kickMail?.();
-  return out;
+  let queued = 0;
+  if (!body.comparison) {
+    await moveEvent(m, clock, eventId, 'screened', userId, 'A screening');
+    const unit = await m.getRepository(Unit).findOneByOrFail({ id: event.unitId });
+    await refreshUnitLastEvent(m, clock, unit.id);
+    queued = await queueScreeningMail(m, clock, s, unit.siteId, unit.serial);
+  }
+  return { id: s.id, result, criteriaVersion: criteria.version, comparison: body.comparison, computedAt: s.computedAt.toISOString(), mailsQueued: queued } satisfies RunScreeningAnswer;
 }
 
 /** The manager's sign-off on the event's newest screening; moves the event to released or held; confirms follow-ups. */
-export async function decide(db: DataSource, managerId: number, screeningId: number, body: DecisionBody) {
-  return db.transaction(async (m) => {
-    const s = await m.getRepository(Screening).findOne({ where: { id: screeningId } });
-    if (!s) throw notFound('Screening');
-    const event = await m.getRepository(FaultEvent).findOne({ where: { id: s.eventId }, lock: { mode: 'pessimistic_write' } });
-    if (!event) throw notFound('Event');
-    if (s.comparison) throw conflict('A comparison screening is not a basis for a decision.');
-    const newest = await m.getRepository(Screening).findOne({ where: { eventId: s.eventId, comparison: false }, order: { computedAt: 'DESC', id: 'DESC' } });
-    if (newest?.id !== s.id) throw conflict(`A newer screening (${newest?.id}) exists: decide on that one.`);
-    if (event.status !== 'screened') throw new AppError('invalid_status', `A decision is not possible while the event is ${event.status}.`, 409);
-    const against = decisionGoesAgainst(s.recommendation, body.outcome);
-    if (against && body.reason.length < AGAINST_REASON_MIN) {
-      throw new AppError('invalid_input', 'Some fields are invalid.', 400, {
-        reason: `going against the ${s.recommendation} recommendation needs a reason of at least ${AGAINST_REASON_MIN} characters`,
-      });
-    }
-    const now = new Date();
-    const decision = await m.getRepository(Decision).save(
-      m.getRepository(Decision).create({
-        screeningId,
-        managerId,
-        outcome: body.outcome,
-        restrictions: body.restrictions ?? null,
-        reason: body.reason,
-        againstRecommendation: against,
-        signedAt: now,
-      }),
-    );
-    await moveEvent(m, event.id, body.outcome === 'hold' ? 'held' : 'released', managerId, 'A decision');
-    const proposed = (s.result as unknown as GapsightResult).followUps ?? [];
-    const tasks = body.followUps ?? (body.outcome === 'hold' ? [] : proposed.map((task) => ({ task, dueAt: proposedFollowUpDueAt(task, now, event.occurredAt) })));
-    const followUps = [];
-    for (const t of tasks) {
-      const f = await m.getRepository(FollowUp).save(m.getRepository(FollowUp).create({ eventId: event.id, task: t.task, dueAt: t.dueAt ? new Date(t.dueAt) : null }));
-      await audit(m, { userId: managerId, action: 'create', entity: 'follow_up', entityId: f.id, after: { eventId: event.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null } });
-      followUps.push({ id: f.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: null, closedById: null, result: null });
-    }
-    const view = {
-      id: decision.id,
+export async function decide(m: EntityManager, clock: Clock, managerId: number, screeningId: number, body: DecisionBody) {
+  const s = await m.getRepository(Screening).findOne({ where: { id: screeningId } });
+  if (!s) throw notFound('Screening');
+  const event = await m.getRepository(FaultEvent).findOne({ where: { id: s.eventId }, lock: { mode: 'pessimistic_write' } });
+  if (!event) throw notFound('Event');
+  if (s.comparison) throw conflict('A comparison screening is not a basis for a decision.');
+  const newest = await m.getRepository(Screening).findOne({ where: { eventId: s.eventId, comparison: false }, order: { computedAt: 'DESC', id: 'DESC' } });
+  if (newest?.id !== s.id) throw conflict(`A newer screening (${newest?.id}) exists: decide on that one.`);
+  if (event.status !== 'screened') throw new AppError('invalid_status', `A decision is not possible while the event is ${event.status}.`, 409);
+  const against = decisionGoesAgainst(s.recommendation, body.outcome);
+  if (against && body.reason.length < AGAINST_REASON_MIN) {
+    throw new AppError('invalid_input', 'Some fields are invalid.', 400, {
+      reason: `going against the ${s.recommendation} recommendation needs a reason of at least ${AGAINST_REASON_MIN} characters`,
+    });
+  }
+  const now = clock.now();
+  const decision = await m.getRepository(Decision).save(
+    m.getRepository(Decision).create({
       screeningId,
       managerId,
-      outcome: decision.outcome,
-      restrictions: decision.restrictions,
-      reason: decision.reason,
+      outcome: body.outcome,
+      restrictions: body.restrictions ?? null,
+      reason: body.reason,
       againstRecommendation: against,
-      signedAt: decision.signedAt.toISOString(),
-    };
-    await audit(m, {
-      userId: managerId,
-      action: 'decide',
-      entity: 'fault_event',
-      entityId: event.id,
-      after: { ...view, recommendation: s.recommendation },
-      highlighted: against,
-      note: against ? `against the ${s.recommendation} recommendation` : undefined,
-    });
-    return { ...view, eventStatus: body.outcome === 'hold' ? 'held' : 'released', followUps };
+      signedAt: now,
+    }),
+  );
+  await moveEvent(m, clock, event.id, body.outcome === 'hold' ? 'held' : 'released', managerId, 'A decision');
+  const proposed = (s.result as unknown as GapsightResult).followUps ?? [];
+  const tasks = body.followUps ?? (body.outcome === 'hold' ? [] : proposed.map((task) => ({ task, dueAt: proposedFollowUpDueAt(task, now, event.occurredAt) })));
+  const followUps = [];
+  for (const t of tasks) {
+    const f = await m.getRepository(FollowUp).save(m.getRepository(FollowUp).create({ eventId: event.id, task: t.task, dueAt: t.dueAt ? new Date(t.dueAt) : null, createdAt: now }));
+    await audit(m, clock, { userId: managerId, action: 'create', entity: 'follow_up', entityId: f.id, after: { eventId: event.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null } });
+    followUps.push({ id: f.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: null, closedById: null, result: null });
+  }
+  const view = {
+    id: decision.id,
+    screeningId,
+    managerId,
+    outcome: decision.outcome,
+    restrictions: decision.restrictions,
+    reason: decision.reason,
+    againstRecommendation: against,
+    signedAt: decision.signedAt.toISOString(),
+  };
+  await audit(m, clock, {
+    userId: managerId,
+    action: 'decide',
+    entity: 'fault_event',
+    entityId: event.id,
+    after: { ...view, recommendation: s.recommendation },
+    highlighted: against,
+    note: against ? `against the ${s.recommendation} recommendation` : undefined,
   });
+  return { ...view, eventStatus: body.outcome === 'hold' ? 'held' : 'released', followUps } satisfies DecisionAnswer;
 }
 
 /** Closes a follow-up with its result (409 when already closed). */
-export async function closeFollowUp(db: DataSource, userId: number, id: number, result: string) {
-  return db.transaction(async (m) => {
-    const f = await m.getRepository(FollowUp).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
-    if (!f) throw notFound('Follow-up');
-    if (f.closedAt) throw conflict('This follow-up is already closed.');
-    const before = { closedAt: null, result: null };
-    f.closedAt = new Date();
-    f.closedById = userId;
-    f.result = result;
-    await m.getRepository(FollowUp).save(f);
-    await audit(m, { userId, action: 'update', entity: 'follow_up', entityId: id, before, after: { closedAt: f.closedAt.toISOString(), result } });
-    return { id: f.id, eventId: f.eventId, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: f.closedAt.toISOString(), closedById: userId, result };
-  });
+export async function closeFollowUp(m: EntityManager, clock: Clock, userId: number, id: number, result: string) {
+  const f = await m.getRepository(FollowUp).findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+  if (!f) throw notFound('Follow-up');
+  if (f.closedAt) throw conflict('This follow-up is already closed.');
+  const before = { closedAt: null, result: null };
+  f.closedAt = clock.now();
+  f.closedById = userId;
+  f.result = result;
+  await m.getRepository(FollowUp).save(f);
+  await audit(m, clock, { userId, action: 'update', entity: 'follow_up', entityId: id, before, after: { closedAt: f.closedAt.toISOString(), result } });
+  return { id: f.id, eventId: f.eventId, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: f.closedAt.toISOString(), closedById: userId, result } satisfies ClosedFollowUp;
 }
 
 /** Records what an inspection found. */
-export async function recordFinding(db: DataSource, userId: number, eventId: number, body: z.infer<typeof findingBodySchema>) {
-  return db.transaction(async (m) => {
-    if (!(await m.getRepository(FaultEvent).exists({ where: { id: eventId } }))) throw notFound('Event');
-    const f = await m.getRepository(Finding).save(m.getRepository(Finding).create({ eventId, classification: body.classification, text: body.text, recordedById: userId }));
-    await audit(m, { userId, action: 'create', entity: 'finding', entityId: f.id, after: { eventId, classification: f.classification, text: f.text } });
-    return { id: f.id, eventId, classification: f.classification, text: f.text, recordedById: userId, recordedAt: f.recordedAt.toISOString() };
-  });
+export async function recordFinding(m: EntityManager, clock: Clock, userId: number, eventId: number, body: z.infer<typeof findingBodySchema>) {
+  if (!(await m.getRepository(FaultEvent).exists({ where: { id: eventId } }))) throw notFound('Event');
+  const f = await m.getRepository(Finding).save(m.getRepository(Finding).create({ eventId, classification: body.classification, text: body.text, recordedById: userId, recordedAt: clock.now() }));
+  await audit(m, clock, { userId, action: 'create', entity: 'finding', entityId: f.id, after: { eventId, classification: f.classification, text: f.text } });
+  return { id: f.id, eventId, classification: f.classification, text: f.text, recordedById: userId, recordedAt: f.recordedAt.toISOString() } satisfies RecordedFinding;
 }

@@ -1,68 +1,53 @@
-import type { RouteDef } from '../../route-def.js';
-import { validate } from '../../common/validate.js';
-import { currentUser } from '../../common/auth.js';
-import { idParams, type IdParams } from '../../common/params.js';
-import { singleFile, UPLOAD_LIMITS } from '../../common/upload.js';
+import { route, type RouteDef } from '../../route-def.js';
+import { unitParams } from '../../common/params.js';
+import { UPLOAD_LIMITS } from '../../common/upload.js';
 import { readingSetBodySchema, unitBodySchema, unitListQuerySchema, unitPatchSchema, unitSweepUploadFieldsSchema } from '../../../shared/schemas/fleet.js';
-import { ctx } from '../../context.js';
 import { parseSweepUpload } from '../readings/sweeps.service.js';
 import { addUnitReadingSet, addUnitSweep, createUnit, getUnit, listUnits, updateUnit } from './units.service.js';
 
 export const unitRoutes: RouteDef[] = [
-  {
-    // GET /api/units — the fleet, paged, filtered and sorted on the server
-    method: 'get',
-    path: '/units',
-    access: 'signed-in',
-    handlers: [validate({ query: unitListQuerySchema }), async (req, res) => void res.json(await listUnits(ctx(req).db, res.locals.query))],
-  },
-  {
-    // GET /api/units/:id — a unit with design, site, reading sets and events
-    method: 'get',
-    path: '/units/:id',
-    access: 'signed-in',
-    handlers: [validate({ params: idParams }), async (req, res) => void res.json(await getUnit(ctx(req).db, (res.locals.params as IdParams).id))],
-  },
-  {
-    // POST /api/units — add a unit (nameplate defaults from its design)
+  // GET /api/units — the fleet, paged, filtered and sorted on the server
+  route({ method: 'get', path: '/units', access: 'signed-in', query: unitListQuerySchema, handler: ({ m, query }) => listUnits(m, query) }),
+  // GET /api/units/:unitId — a unit with design, site, reading sets and events
+  route({ method: 'get', path: '/units/:unitId', access: 'signed-in', params: unitParams, handler: ({ m, params }) => getUnit(m, params.unitId) }),
+  // POST /api/units — add a unit (nameplate defaults from its design)
+  route({
     method: 'post',
     path: '/units',
     access: ['admin'],
-    handlers: [validate({ body: unitBodySchema }), async (req, res) => void res.status(201).json(await createUnit(ctx(req).db, currentUser(res).id, res.locals.body))],
-  },
-  {
-    // PATCH /api/units/:id — change a unit's record
+    body: unitBodySchema,
+    status: 201,
+    handler: ({ m, clock, user, body }) => createUnit(m, clock, user.id, body),
+  }),
+  // PATCH /api/units/:unitId — change a unit's record
+  route({
     method: 'patch',
-    path: '/units/:id',
+    path: '/units/:unitId',
     access: ['admin'],
-    handlers: [
-      validate({ params: idParams, body: unitPatchSchema }),
-      async (req, res) => void res.json(await updateUnit(ctx(req).db, currentUser(res).id, (res.locals.params as IdParams).id, res.locals.body)),
-    ],
-  },
-  {
-    // POST /api/units/:id/reading-sets — a factory, commissioning or routine reading set
+    params: unitParams,
+    body: unitPatchSchema,
+    handler: ({ m, clock, user, params, body }) => updateUnit(m, clock, user.id, params.unitId, body),
+  }),
+  // POST /api/units/:unitId/reading-sets — a factory, commissioning or routine reading set
+  route({
     method: 'post',
-    path: '/units/:id/reading-sets',
+    path: '/units/:unitId/reading-sets',
     access: ['tester', 'admin'],
-    handlers: [
-      validate({ params: idParams, body: readingSetBodySchema }),
-      async (req, res) => void res.status(201).json(await addUnitReadingSet(ctx(req).db, currentUser(res).id, (res.locals.params as IdParams).id, res.locals.body)),
-    ],
-  },
-  {
-    // POST /api/units/:id/sweeps — a baseline sweep trace (CSV) on one of the unit's reading sets
+    params: unitParams,
+    body: readingSetBodySchema,
+    status: 201,
+    handler: ({ m, clock, user, params, body }) => addUnitReadingSet(m, clock, user.id, params.unitId, body),
+  }),
+  // POST /api/units/:unitId/sweeps — a baseline sweep trace (CSV) on one of the unit's reading sets
+  route({
     method: 'post',
-    path: '/units/:id/sweeps',
+    path: '/units/:unitId/sweeps',
     access: ['tester', 'admin'],
-    handlers: [
-      ...singleFile(UPLOAD_LIMITS.sweepCsvBytes),
-      validate({ params: idParams, body: unitSweepUploadFieldsSchema }),
-      async (req, res) => {
-        const fields = res.locals.body as { readingSetId: number; label: string; testType: never };
-        const parsed = parseSweepUpload(req.file!);
-        res.status(201).json(await addUnitSweep(ctx(req).db, currentUser(res).id, (res.locals.params as IdParams).id, fields.readingSetId, res.locals.body, parsed, req.file!.originalname));
-      },
-    ],
-  },
+    upload: UPLOAD_LIMITS.sweepCsvBytes,
+    params: unitParams,
+    body: unitSweepUploadFieldsSchema,
+    status: 201,
+    handler: ({ m, clock, user, params, body, file }) =>
+      addUnitSweep(m, clock, user.id, params.unitId, body.readingSetId, body, parseSweepUpload(file), file.originalname),
+  }),
 ];

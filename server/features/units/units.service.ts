@@ -1,10 +1,11 @@
-import { In, type DataSource } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { ReadingSetBody, unitBodySchema, unitListQuerySchema, unitPatchSchema } from '../../../shared/schemas/fleet.js';
 import type { CreatedReadingSet, ReadingSetConditions, UnitDetail, UnitListPage, UnitView } from '../../../shared/schemas/responses/index.js';
 import { dutyWithPriorFaults } from '../../../shared/screening/duty-history.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
+import type { Clock } from '../../common/clock.js';
 import { Design } from '../designs/design.entity.js';
 import { designView } from '../designs/designs.service.js';
 import { caseFault, caseUnit } from '../events/case-export.service.js';
@@ -52,9 +53,9 @@ const SORT_COLUMNS: Record<string, string> = {
  * The fleet query of one page (exported so a test can EXPLAIN it). Sorting by serial, last event or recommendation
  * reads the unit table alone through its indexes and stops at the page; sorting by site or design name joins them.
  */
-export function unitListQuery(db: DataSource, q: UnitListQuery) {
+export function unitListQuery(m: EntityManager, q: UnitListQuery) {
   const key = q.sort.replace(/^-/, '');
-  const qb = db.getRepository(Unit).createQueryBuilder('u');
+  const qb = m.getRepository(Unit).createQueryBuilder('u');
   if (key === 'site') qb.innerJoin('u.site', 's');
   if (key === 'design') qb.innerJoin('u.design', 'd');
   if (q.siteId) qb.andWhere('u.siteId = :siteId', { siteId: q.siteId });
@@ -70,10 +71,10 @@ export function unitListQuery(db: DataSource, q: UnitListQuery) {
 }
 
 /** One page of the fleet, filtered and sorted on the server. */
-export async function listUnits(db: DataSource, q: UnitListQuery) {
-  const [units, total] = await unitListQuery(db, q).getManyAndCount();
-  const sites = await db.getRepository(Site).findBy({ id: In([...new Set(units.map((u) => u.siteId))]) });
-  const designs = await db.getRepository(Design).findBy({ id: In([...new Set(units.map((u) => u.designId))]) });
+export async function listUnits(m: EntityManager, q: UnitListQuery) {
+  const [units, total] = await unitListQuery(m, q).getManyAndCount();
+  const sites = await m.getRepository(Site).findBy({ id: In([...new Set(units.map((u) => u.siteId))]) });
+  const designs = await m.getRepository(Design).findBy({ id: In([...new Set(units.map((u) => u.designId))]) });
   const site = new Map(sites.map((x) => [x.id, x]));
   const design = new Map(designs.map((x) => [x.id, x]));
   return {
@@ -90,13 +91,13 @@ export async function listUnits(db: DataSource, q: UnitListQuery) {
 }
 
 /** A unit with its design, site, reading sets (with values, sweeps listed) and events, newest first. */
-export async function getUnit(db: DataSource, id: number) {
-  const u = await db.getRepository(Unit).findOne({ where: { id }, relations: { site: true, design: true } });
+export async function getUnit(m: EntityManager, id: number) {
+  const u = await m.getRepository(Unit).findOne({ where: { id }, relations: { site: true, design: true } });
   if (!u) throw notFound('Unit');
-  const sets = await db.getRepository(ReadingSet).find({ where: { unitId: id }, order: { takenAt: 'DESC', id: 'DESC' } });
-  const values = await loadCaseReadingSets(db.manager, sets);
-  const sweeps = sets.length ? await db.getRepository(SweepTrace).find({ where: { readingSetId: In(sets.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
-  const events = await db.getRepository(FaultEvent).find({ where: { unitId: id }, order: { occurredAt: 'DESC', id: 'DESC' } });
+  const sets = await m.getRepository(ReadingSet).find({ where: { unitId: id }, order: { takenAt: 'DESC', id: 'DESC' } });
+  const values = await loadCaseReadingSets(m, sets);
+  const sweeps = sets.length ? await m.getRepository(SweepTrace).find({ where: { readingSetId: In(sets.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
+  const events = await m.getRepository(FaultEvent).find({ where: { unitId: id }, order: { occurredAt: 'DESC', id: 'DESC' } });
   const unitForDuty = caseUnit(u);
   const unitFaults = events.map((e) => ({ id: e.id, ...caseFault(e) }));
   return {
@@ -153,7 +154,7 @@ export function readingSetConditions(s: ReadingSet) {
   } satisfies ReadingSetConditions;
 }
 
-async function checkRefs(m: import('typeorm').EntityManager, siteId?: number, designId?: number) {
+async function checkRefs(m: EntityManager, siteId?: number, designId?: number) {
   const fields: Record<string, string> = {};
   if (siteId !== undefined && !(await m.getRepository(Site).exists({ where: { id: siteId } }))) fields.siteId = `no site with id ${siteId}`;
   const design = designId !== undefined ? await m.getRepository(Design).findOne({ where: { id: designId } }) : null;
@@ -163,64 +164,62 @@ async function checkRefs(m: import('typeorm').EntityManager, siteId?: number, de
 }
 
 /** Creates a unit; nameplate values not given come from its design (audited). */
-export async function createUnit(db: DataSource, userId: number, body: z.infer<typeof unitBodySchema>) {
-  return db.transaction(async (m) => {
-    const design = (await checkRefs(m, body.siteId, body.designId))!;
-    if (await m.getRepository(Unit).exists({ where: { serial: body.serial } })) {
-      throw new AppError('serial_taken', 'A unit with this serial exists.', 409, { serial: 'already in use' });
-    }
-    const repo = m.getRepository(Unit);
-    const u = await repo.save(
-      repo.create({
-        serial: body.serial,
-        position: body.position ?? '',
-        siteId: body.siteId,
-        designId: body.designId,
-        year: body.year ?? null,
-        phases: body.phases ?? design.phases,
-        hvKV: body.hvKV ?? design.hvKV,
-        lvKV: body.lvKV ?? design.lvKV,
-        ratedKVA: body.ratedKVA ?? design.impedanceBaseKVA,
-        impedancePercent: body.impedancePercent ?? design.impedancePercent,
-        systemImpedancePercent: body.systemImpedancePercent ?? 0,
-        conductor: body.conductor ?? design.conductor,
-      }),
-    );
-    await audit(m, { userId, action: 'create', entity: 'unit', entityId: u.id, after: unitView(u) });
-    return unitView(u);
-  });
+export async function createUnit(m: EntityManager, clock: Clock, userId: number, body: z.infer<typeof unitBodySchema>) {
+  const design = (await checkRefs(m, body.siteId, body.designId))!;
+  if (await m.getRepository(Unit).exists({ where: { serial: body.serial } })) {
+    throw new AppError('serial_taken', 'A unit with this serial exists.', 409, { serial: 'already in use' });
+  }
+  const repo = m.getRepository(Unit);
+  const u = await repo.save(
+    repo.create({
+      serial: body.serial,
+      position: body.position ?? '',
+      siteId: body.siteId,
+      designId: body.designId,
+      year: body.year ?? null,
+      phases: body.phases ?? design.phases,
+      hvKV: body.hvKV ?? design.hvKV,
+      lvKV: body.lvKV ?? design.lvKV,
+      ratedKVA: body.ratedKVA ?? design.impedanceBaseKVA,
+      impedancePercent: body.impedancePercent ?? design.impedancePercent,
+      systemImpedancePercent: body.systemImpedancePercent ?? 0,
+      conductor: body.conductor ?? design.conductor,
+      createdAt: clock.now(),
+      updatedAt: clock.now(),
+    }),
+  );
+  await audit(m, clock, { userId, action: 'create', entity: 'unit', entityId: u.id, after: unitView(u) });
+  return unitView(u);
 }
 
 /** Changes a unit (audited with before and after). */
-export async function updateUnit(db: DataSource, userId: number, id: number, patch: z.infer<typeof unitPatchSchema>) {
-  return db.transaction(async (m) => {
-    const u = await m.getRepository(Unit).findOne({ where: { id } });
-    if (!u) throw notFound('Unit');
-    await checkRefs(m, patch.siteId, patch.designId);
-    if (patch.serial !== undefined && patch.serial !== u.serial && (await m.getRepository(Unit).exists({ where: { serial: patch.serial } }))) {
-      throw new AppError('serial_taken', 'A unit with this serial exists.', 409, { serial: 'already in use' });
-    }
-    const before = unitView(u);
-    for (const [k, v] of Object.entries(patch)) if (v !== undefined) (u as unknown as Record<string, unknown>)[k] = v;
-    await m.getRepository(Unit).save(u);
-    await audit(m, { userId, action: 'update', entity: 'unit', entityId: id, before, after: unitView(u) });
-    return unitView(u);
-  });
+export async function updateUnit(m: EntityManager, clock: Clock, userId: number, id: number, patch: z.infer<typeof unitPatchSchema>) {
+  const u = await m.getRepository(Unit).findOne({ where: { id } });
+  if (!u) throw notFound('Unit');
+  await checkRefs(m, patch.siteId, patch.designId);
+  if (patch.serial !== undefined && patch.serial !== u.serial && (await m.getRepository(Unit).exists({ where: { serial: patch.serial } }))) {
+    throw new AppError('serial_taken', 'A unit with this serial exists.', 409, { serial: 'already in use' });
+  }
+  const before = unitView(u);
+  for (const [k, v] of Object.entries(patch)) if (v !== undefined) (u as unknown as Record<string, unknown>)[k] = v;
+  u.updatedAt = clock.now();
+  await m.getRepository(Unit).save(u);
+  await audit(m, clock, { userId, action: 'update', entity: 'unit', entityId: id, before, after: unitView(u) });
+  return unitView(u);
 }
 
 /** Stores a factory, commissioning or routine reading set on a unit. */
-export async function addUnitReadingSet(db: DataSource, userId: number, unitId: number, body: ReadingSetBody) {
-  return db.transaction(async (m) => {
-    if (!(await m.getRepository(Unit).exists({ where: { id: unitId } }))) throw notFound('Unit');
-    const set = await insertReadingSet(m, { unitId, kind: body.kind, body, userId });
-    const values = await loadCaseReadingSets(m, [set]);
-    return { ...readingSetConditions(set), values: values.get(set.id) } satisfies CreatedReadingSet;
-  });
+export async function addUnitReadingSet(m: EntityManager, clock: Clock, userId: number, unitId: number, body: ReadingSetBody) {
+  if (!(await m.getRepository(Unit).exists({ where: { id: unitId } }))) throw notFound('Unit');
+  const set = await insertReadingSet(m, clock, { unitId, kind: body.kind, body, userId });
+  const values = await loadCaseReadingSets(m, [set]);
+  return { ...readingSetConditions(set), values: values.get(set.id) } satisfies CreatedReadingSet;
 }
 
 /** Stores a baseline sweep trace on one of the unit's (non post-fault) reading sets. */
 export async function addUnitSweep(
-  db: DataSource,
+  m: EntityManager,
+  clock: Clock,
   userId: number,
   unitId: number,
   readingSetId: number,
@@ -228,13 +227,11 @@ export async function addUnitSweep(
   parsed: { points: number[][]; minHz: number; maxHz: number },
   fileName: string,
 ) {
-  return db.transaction(async (m) => {
-    if (!(await m.getRepository(Unit).exists({ where: { id: unitId } }))) throw notFound('Unit');
-    const set = await m.getRepository(ReadingSet).findOne({ where: { id: readingSetId } });
-    if (!set || set.unitId !== unitId) throw new AppError('invalid_input', 'Some fields are invalid.', 400, { readingSetId: `no reading set ${readingSetId} on this unit` });
-    if (set.kind === 'post-fault') {
-      throw new AppError('invalid_input', 'Some fields are invalid.', 400, { readingSetId: 'a post-fault session: upload post-fault traces to the session instead' });
-    }
-    return sweepMeta(await insertSweepTrace(m, readingSetId, fields, parsed, fileName, userId));
-  });
+  if (!(await m.getRepository(Unit).exists({ where: { id: unitId } }))) throw notFound('Unit');
+  const set = await m.getRepository(ReadingSet).findOne({ where: { id: readingSetId } });
+  if (!set || set.unitId !== unitId) throw new AppError('invalid_input', 'Some fields are invalid.', 400, { readingSetId: `no reading set ${readingSetId} on this unit` });
+  if (set.kind === 'post-fault') {
+    throw new AppError('invalid_input', 'Some fields are invalid.', 400, { readingSetId: 'a post-fault session: upload post-fault traces to the session instead' });
+  }
+  return sweepMeta(await insertSweepTrace(m, clock, readingSetId, fields, parsed, fileName, userId));
 }

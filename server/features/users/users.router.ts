@@ -1,42 +1,20 @@
-import { z } from 'zod';
-import type { RouteDef } from '../../route-def.js';
-import { validate } from '../../common/validate.js';
-import { currentUser } from '../../common/auth.js';
-import { userCreateSchema, userPatchSchema, type UserCreate, type UserPatch } from '../../../shared/schemas/auth.js';
-import { ctx } from '../../context.js';
+import { route, type RouteDef } from '../../route-def.js';
+import { userParams } from '../../common/params.js';
+import { userCreateSchema, userPatchSchema } from '../../../shared/schemas/auth.js';
 import { createUser, listUsers, updateUser } from './users.service.js';
 
-const idParams = z.object({ id: z.coerce.number().int().positive('not a valid id') });
-
 export const userRoutes: RouteDef[] = [
-  {
-    // GET /api/users — everyone who can sign in (administration)
-    method: 'get',
-    path: '/users',
-    access: ['admin'],
-    handlers: [async (req, res) => void res.json(await listUsers(ctx(req).db))],
-  },
-  {
-    // POST /api/users — create a person with roles and sites
-    method: 'post',
-    path: '/users',
-    access: ['admin'],
-    handlers: [
-      validate({ body: userCreateSchema }),
-      async (req, res) => void res.status(201).json(await createUser(ctx(req).db, currentUser(res).id, res.locals.body as UserCreate)),
-    ],
-  },
-  {
-    // PATCH /api/users/:id — change roles, sites, name; deactivate; reset the password
+  // GET /api/users — everyone who can sign in (administration)
+  route({ method: 'get', path: '/users', access: ['admin'], handler: ({ m }) => listUsers(m) }),
+  // POST /api/users — create a person with roles and sites
+  route({ method: 'post', path: '/users', access: ['admin'], body: userCreateSchema, status: 201, handler: ({ m, clock, user, body }) => createUser(m, clock, user.id, body) }),
+  // PATCH /api/users/:userId — change roles, sites, name; deactivate; reset the password
+  route({
     method: 'patch',
-    path: '/users/:id',
+    path: '/users/:userId',
     access: ['admin'],
-    handlers: [
-      validate({ params: idParams, body: userPatchSchema }),
-      async (req, res) => {
-        const { id } = res.locals.params as { id: number };
-        res.json(await updateUser(ctx(req).db, currentUser(res).id, id, res.locals.body as UserPatch));
-      },
-    ],
-  },
+    params: userParams,
+    body: userPatchSchema,
+    handler: ({ m, clock, user, params, body }) => updateUser(m, clock, user.id, params.userId, body),
+  }),
 ];

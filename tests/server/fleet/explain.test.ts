@@ -71,7 +71,7 @@ describe('EXPLAIN of the fleet list on 5 000 units', () => {
   for (const [name, raw] of Object.entries(cases)) {
     it(`uses indexes: ${name}`, async () => {
       const q = unitListQuerySchema.parse({ ...raw, ...(raw.siteId !== undefined ? { siteId: String(siteId) } : {}), ...(raw.designId !== undefined ? { designId: String(designId) } : {}) });
-      const [sql, params] = unitListQuery(env.db, q).getQueryAndParameters();
+      const [sql, params] = unitListQuery(env.db.manager, q).getQueryAndParameters();
       expectIndexed(await explain(sql, params));
     });
   }
@@ -79,15 +79,15 @@ describe('EXPLAIN of the fleet list on 5 000 units', () => {
 
 describe('EXPLAIN of the event list on 10 000 events', () => {
   it('uses indexes newest first', async () => {
-    const [sql, params] = eventListQuery(env.db, eventListQuerySchema.parse({})).getQueryAndParameters();
+    const [sql, params] = eventListQuery(env.db.manager, eventListQuerySchema.parse({})).getQueryAndParameters();
     expectIndexed(await explain(sql, params));
   });
   it('uses indexes for one status', async () => {
-    const [sql, params] = eventListQuery(env.db, eventListQuerySchema.parse({ status: 'testing' })).getQueryAndParameters();
+    const [sql, params] = eventListQuery(env.db.manager, eventListQuerySchema.parse({ status: 'testing' })).getQueryAndParameters();
     expectIndexed(await explain(sql, params));
   });
   it('uses indexes for one unit', async () => {
-    const [sql, params] = eventListQuery(env.db, eventListQuerySchema.parse({ unitId: String(unitIds[10]) })).getQueryAndParameters();
+    const [sql, params] = eventListQuery(env.db.manager, eventListQuerySchema.parse({ unitId: String(unitIds[10]) })).getQueryAndParameters();
     expectIndexed(await explain(sql, params));
   });
 });

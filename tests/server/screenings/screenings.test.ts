@@ -7,6 +7,7 @@ import { SinkMessage } from '../../../server/mail/sink-message.entity.js';
 import { FaultEvent } from '../../../server/features/events/fault-event.entity.js';
 import { Notification } from '../../../server/features/notifications/notification.entity.js';
 import { deliverDueNotifications } from '../../../server/features/notifications/notifications.service.js';
+import { systemClock } from '../../../server/common/clock.js';
 import { FollowUp } from '../../../server/features/screenings/follow-up.entity.js';
 import { Unit } from '../../../server/features/units/unit.entity.js';
 import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
@@ -202,7 +203,7 @@ describe('follow-ups, findings, report and mail', () => {
     await api().post(`/api/events/${eventId}/screenings`).set(tester).send({}).expect(201);
     // A transport to a closed port fails first: the notification stays, with its error and a later retry time.
     const broken = { transport: createTransport({ ...env.config, SMTP_HOST: undefined }, 1), from: 'gapsight@localhost' };
-    const r1 = await deliverDueNotifications(env.db, broken, 'http://127.0.0.1:8640');
+    const r1 = await deliverDueNotifications(env.db, systemClock, broken, 'http://127.0.0.1:8640');
     expect(r1.failed).toBeGreaterThan(0);
     const failed = await env.db.getRepository(Notification).findOneByOrFail({ eventId, to: managerEmail });
     expect(failed).toMatchObject({ status: 'failed', attempts: 1 });
@@ -210,7 +211,7 @@ describe('follow-ups, findings, report and mail', () => {
     expect(failed.nextAttemptAt!.getTime()).toBeGreaterThan(Date.now());
     await env.db.getRepository(Notification).update({ eventId }, { nextAttemptAt: new Date(Date.now() - 1000) });
     const working = { transport: createTransport({ ...env.config, SMTP_HOST: undefined }, sink.port), from: 'gapsight@localhost' };
-    await deliverDueNotifications(env.db, working, 'http://127.0.0.1:8640');
+    await deliverDueNotifications(env.db, systemClock, working, 'http://127.0.0.1:8640');
     const sent = await env.db.getRepository(Notification).findOneByOrFail({ eventId, to: managerEmail });
     expect(sent).toMatchObject({ status: 'sent', attempts: 2, lastError: null });
     const msg = await env.db.getRepository(SinkMessage).findOneOrFail({ where: { to: managerEmail }, order: { id: 'DESC' } });
