@@ -57,8 +57,9 @@ describe('capacitance and power factor', () => {
     expect(100 * powerFactorFromDissipation(0.01)).toBeCloseTo(0.99995, 5); // computed from PF = DF/√(1 + DF²) (references.md)
   });
 
-  it('inverts PF back to DF', () => {
-    expect(dissipationFromPowerFactor(powerFactorFromDissipation(0.1))).toBeCloseTo(0.1, 12); // DF = PF/√(1 − PF²) (references.md)
+  it('turns PF 60 % into DF 75 % and PF 9.9504 % back into DF 10 % (on fractions)', () => {
+    expect(dissipationFromPowerFactor(0.6)).toBeCloseTo(0.75, 12); // computed by hand from DF = PF/√(1 − PF²): 0.6/0.8 (references.md)
+    expect(dissipationFromPowerFactor(0.0995037190)).toBeCloseTo(0.1, 9); // computed by hand: PF of DF 10 % is 0.1/√1.01 (references.md)
   });
 
   it('reads every point of the temperature table exactly', () => {
@@ -118,7 +119,7 @@ describe('through-fault categories and curve (IEEE C57.12.00 / C57.109)', () => 
     const max = maxCurrentPerUnit(unit, 'II', criteriaV1);
     expect(max).toBeCloseTo(17.3913, 4); // computed: categories II use Z_t alone, 1/0.0575 (IEEE C57.109, references.md)
     expect(mechanicalLimitI2t(max, 'II', criteriaV1)).toBeCloseTo(604.9, 1); // computed from IEEE C57.109 K = 2·I_sc² (references.md)
-    expect(segmentStartPerUnit(max, 'II', criteriaV1)).toBeCloseTo(0.7 * 17.3913, 3); // IEEE C57.109 segment from 70 % (references.md)
+    expect(segmentStartPerUnit(max, 'II', criteriaV1)).toBeCloseTo(12.1739, 3); // computed: 70 % of 17.3913 (IEEE C57.109 segment from 70 %, references.md)
   });
 
   it('caps category I at 25 × rated with a mechanical limit of 1250 and no mechanical segment', () => {
@@ -144,8 +145,7 @@ describe('other post-fault tests', () => {
   });
 
   it('gives +0.38 % for a measured ratio of 8.3650 against 115/13.8', () => {
-    expect(115 / 13.8).toBeCloseTo(8.3333, 4); // computed (references.md)
-    expect(ratioDeviationPercent(8.365, 115 / 13.8)).toBeCloseTo(0.38, 2); // computed from IEEE C57.12.00 ±0.5 % rule's deviation (references.md)
+    expect(ratioDeviationPercent(8.365, 115 / 13.8)).toBeCloseTo(0.38, 2); // computed: 100·(8.365 − 8.3333)/8.3333, IEEE C57.12.00 ±0.5 % rule's deviation (references.md)
   });
 
   it('places the six Duval triangle 1 check vectors in their zones', () => {

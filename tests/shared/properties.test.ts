@@ -21,6 +21,16 @@ const build = (r: { base: number; post: number; baseX: number; postX: number }) 
   });
 
 describe('shift properties', () => {
+  it('gives any capacitance and reactance shift as 100·(post − baseline)/baseline (case-format.md, indicator table)', () => {
+    fc.assert(
+      fc.property(readings, (r) => {
+        const c = build(r);
+        expect(value(c, 'capacitance.CHL.shiftPercent')).toBeCloseTo((100 * (r.post - r.base)) / r.base, 6);
+        expect(value(c, 'reactance.A.shiftPercent')).toBeCloseTo((100 * (r.postX - r.baseX)) / r.baseX, 6);
+      }),
+    );
+  });
+
   it('leaves every shift unchanged when every reading of both sets is scaled by one factor', () => {
     fc.assert(
       fc.property(readings, fc.double({ min: 0.01, max: 100, noNaN: true }), (r, k) => {

@@ -241,7 +241,11 @@ describe('required tests', () => {
     const r = screenCase(example('rev2-phase-comparison.json'));
     expect(r.missing).toEqual([]);
     expect(ind(r, 'sweep.hv.AC.class')).toMatchObject({ value: 'normal', basis: 'phase-comparison' });
-    expect(ind(r, 'sweep.hv.AC.rMF')).toBeDefined();
+    // DL/T 911: class normal needs R_MF ≥ 1.0; R is capped at 10 (references.md).
+    const rMF = ind(r, 'sweep.hv.AC.rMF')!;
+    expect(rMF).toMatchObject({ basis: 'phase-comparison', method: 'sweep' });
+    expect(rMF.value as number).toBeGreaterThanOrEqual(1);
+    expect(rMF.value as number).toBeLessThanOrEqual(10);
     expect(ind(r, 'sweep.hv.AC.rLF')).toBeUndefined(); // the core's low band differs between limbs
     expect(r.recommendation).toBe('go');
   });

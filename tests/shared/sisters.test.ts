@@ -40,7 +40,9 @@ describe('Grubbs two-sided test, α 0.05', () => {
   });
 
   it('gives G = 2.0304 > 1.8871 for the computed sample', () => {
-    expect(grubbsMaxStatistic(SAMPLE)).toBeCloseTo(2.0304, 4); // computed (references.md)
+    const g = grubbsMaxStatistic(SAMPLE);
+    expect(g).toBeCloseTo(2.0304, 4); // computed (references.md)
+    expect(g).toBeGreaterThan(1.8871); // the n = 6 critical value, α 0.05 (references.md)
   });
 
   it('reproduces the published NIST/SEMATECH example: G = 2.4688 against the critical value 2.1266 (n 8, α 0.05)', () => {
@@ -58,9 +60,11 @@ describe("Dixon's Q (Rorabacher 1991)", () => {
     expect(dixonCritical(11, criteriaV1)).toBeUndefined();
   });
 
-  it('gives Q = 0.8871 > 0.625 for the sample', () => {
-    expect(dixonQ(8.6, SAMPLE)).toBeCloseTo(0.8871, 4); // computed from Q = gap/range (references.md)
-    expect(dixonQ(8.02, SAMPLE)).toBeNull(); // not an extreme value
+  it('gives Q = 0.8871 > 0.625 for the sample, and no Q for a value that is not an extreme', () => {
+    const q = dixonQ(8.6, SAMPLE)!;
+    expect(q).toBeCloseTo(0.8871, 4); // computed from Q = gap/range: (8.60 − 8.05)/(8.60 − 7.98) (references.md)
+    expect(q).toBeGreaterThan(0.625); // Q95 for n = 6 (Rorabacher 1991, references.md)
+    expect(dixonQ(8.02, SAMPLE)).toBeNull();
   });
 });
 
@@ -75,10 +79,12 @@ describe('sister indicators', () => {
     expect(sisterIndicators(withSisters(2), criteriaV1).filter((i) => i.key.includes('CHL'))).toEqual([]);
   });
 
-  it('gives the deviation from the median with 3 sisters but no modified z below 5', () => {
-    const keys = sisterIndicators(withSisters(4), criteriaV1).map((i) => i.key);
-    expect(keys).toContain('sisters.capacitance.CHL.deviationFromMedianPercent');
-    expect(keys).not.toContain('sisters.capacitance.CHL.modifiedZ');
+  it('gives the deviation from the median with 3 or 4 sisters but no modified z below 5', () => {
+    for (const n of [3, 4]) {
+      const keys = sisterIndicators(withSisters(n), criteriaV1).map((i) => i.key);
+      expect(keys, `${n} sisters`).toContain('sisters.capacitance.CHL.deviationFromMedianPercent');
+      expect(keys, `${n} sisters`).not.toContain('sisters.capacitance.CHL.modifiedZ');
+    }
   });
 
   it('flags |M| ≥ 3.5 at watch at most (a state, rules revision 2) with 5 sisters and adds Grubbs and Dixon at ok', () => {

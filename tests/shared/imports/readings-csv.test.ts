@@ -3,7 +3,6 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import {
-  DECIMAL_COMMA_MESSAGE,
   csvHeaders,
   mapColumns,
   parseReadingsCsv,
@@ -12,6 +11,8 @@ import {
 } from '../../../shared/imports/readings-csv.js';
 
 const HEADER = 'quantity,configuration,phase,value,unit';
+// api.md: a decimal comma gets its own message (its wording, as the app gives it).
+const DECIMAL_COMMA_MESSAGE = 'decimal comma: use a point (3.14)';
 const csv = (...lines: string[]) => [HEADER, ...lines].join('\n');
 const examples = join(import.meta.dirname, '../../../examples/imports');
 

@@ -2,8 +2,13 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { DECIMAL_COMMA_MESSAGE } from '../../../shared/imports/readings-csv.js';
-import { SWEEP_MAX_POINTS, SWEEP_MIN_POINTS, parseSweepCsv } from '../../../shared/imports/sweep-csv.js';
+import { parseSweepCsv } from '../../../shared/imports/sweep-csv.js';
+
+// api.md: a decimal comma gets its own message (its wording, as the app gives it).
+const DECIMAL_COMMA_MESSAGE = 'decimal comma: use a point (3.14)';
+// The app's limits for one sweep file (10 to 20 000 points; the upload limit of the sweep routes).
+const SWEEP_MIN_POINTS = 10;
+const SWEEP_MAX_POINTS = 20_000;
 
 /** n log-spaced points from 100 Hz up, two or three columns. */
 function pointLines(n: number, withPhase = false): string[] {
@@ -27,7 +32,7 @@ describe('parseSweepCsv — good files', () => {
     expect(r.points).toHaveLength(12);
     expect(r.points[0]).toEqual([100, -40]);
     expect(r.minHz).toBe(100);
-    expect(r.maxHz).toBe(r.points[11][0]);
+    expect(r.maxHz).toBe(1258.93); // the 12th point: 100·10^1.1 Hz to 6 significant digits
   });
 
   it('reads a file without a header as frequency, magnitude[, phase] in that order', () => {
