@@ -98,7 +98,7 @@ describe('relay-record attachments', () => {
     const ev = await logFault(unit.id);
     const res = await api().post(`/api/events/${ev.id}/attachments`).set(protection).attach('file', Buffer.from('%PDF-1.4 not a cfg'), 'fault.cfg');
     expect(res.status).toBe(415);
-    expect(res.body.error.fields.file).toBeDefined();
+    expect(res.body.error.fields.file).toBe('the .cfg file is a PDF document: upload it with a .pdf name');
     const exe = await api().post(`/api/events/${ev.id}/attachments`).set(protection).attach('file', Buffer.from('MZ\x90\x00'), 'relay.exe');
     expect(exe.status).toBe(415);
     expect(await env.db.getRepository(Attachment).count({ where: { ownerType: 'event', ownerId: ev.id } })).toBe(0);

@@ -51,7 +51,7 @@ describe('sites', () => {
     const s = await makeSite(env.db);
     const res = await api().post('/api/sites').set(admin).send({ name: s.name, timeZone: 'UTC' });
     expect(res.status).toBe(409);
-    expect(res.body.error.fields.name).toBeDefined();
+    expect(res.body.error.fields.name).toBe('already in use');
   });
 });
 
@@ -116,7 +116,7 @@ describe('units', () => {
     const b = await makeUnit(env.db);
     const res = await api().patch(`/api/units/${b.id}`).set(admin).send({ serial: a.serial });
     expect(res.status).toBe(409);
-    expect(res.body.error.fields.serial).toBeDefined();
+    expect(res.body.error.fields.serial).toBe('already in use');
   });
 
   it('rejects unknown site and design ids with 400 naming both', async () => {
@@ -174,7 +174,7 @@ describe('POST /api/units/:id/reading-sets', () => {
     });
     const detail = await api().get(`/api/units/${unit.id}`).set(engineer);
     expect(detail.body.readingSets).toHaveLength(1);
-    expect(detail.body.design.reference).toBeDefined();
+    expect(detail.body.design).toMatchObject({ id: unit.designId, reference: expect.stringMatching(/^D-/) }); // the factory's design
   });
 
   it('rejects a post-fault kind, a missing date and a negative capacitance, naming each field, and stores nothing', async () => {

@@ -109,7 +109,7 @@ describe('POST /api/events/:id/screenings', () => {
     const { eventId } = await screenedReadyEvent(unchanged);
     const res = await api().post(`/api/events/${eventId}/screenings`).set(tester).send({ criteriaVersion: 999 });
     expect(res.status).toBe(400);
-    expect(res.body.error.fields.criteriaVersion).toBeDefined();
+    expect(res.body.error.fields.criteriaVersion).toBe('no criteria set version 999');
   });
 });
 
@@ -148,7 +148,7 @@ describe('POST /api/screenings/:id/decision', () => {
     expect(plain.status).toBe(400);
     const noRestrictions = await api().post(`/api/screenings/${s.id}/decision`).set(manager).send({ outcome: 'release-with-restrictions', reason: 'ok' });
     expect(noRestrictions.status).toBe(400);
-    expect(noRestrictions.body.error.fields.restrictions).toBeDefined();
+    expect(noRestrictions.body.error.fields.restrictions).toBe('required for a release with restrictions');
     const ok = await api().post(`/api/screenings/${s.id}/decision`).set(manager).send({ outcome: 'release-with-restrictions', reason: 'Load limited.', restrictions: 'Load ≤ 70 %, reclosing blocked.' });
     expect(ok.status).toBe(201);
     expect(ok.body.againstRecommendation).toBe(false);

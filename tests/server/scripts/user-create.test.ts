@@ -26,7 +26,7 @@ describe('npm run user:create', () => {
     const r = userCreate(['--email', email, '--name', 'Ops Person', '--roles', 'manager,tester', '--all-sites']);
     expect(r.status).toBe(0);
     const password = /Password \(shown once\): (\S+)/.exec(r.stdout)?.[1];
-    expect(password).toBeDefined();
+    expect(password).toMatch(/^[A-Za-z0-9_-]{16}$/); // 12 random bytes in base64url
     const user = await env.db.getRepository(User).findOneByOrFail({ email });
     expect(user).toMatchObject({ roles: ['manager', 'tester'], allSites: true, demo: false, active: true });
     expect(await bcrypt.compare(password!, user.passwordHash)).toBe(true);
