@@ -49,3 +49,30 @@ describe('case export of the seeded recent event', () => {
     expect(result).toEqual(JSON.parse(readFileSync(RESULT_FILE, 'utf8')));
   });
 });
+
+describe('times the seed writes', () => {
+  it('are on the story\'s clock: no seeded row or audit entry is dated after the instant the story was seeded at', async () => {
+    const columns: [string, string[]][] = [
+      ['audit_entry', ['at']],
+      ['user', ['createdAt', 'updatedAt']],
+      ['site', ['createdAt']],
+      ['design', ['createdAt', 'updatedAt']],
+      ['unit', ['createdAt', 'updatedAt']],
+      ['fault_event', ['createdAt', 'updatedAt']],
+      ['reading_set', ['createdAt']],
+      ['sweep_trace', ['createdAt']],
+      ['screening', ['computedAt']],
+      ['decision', ['signedAt']],
+      ['follow_up', ['createdAt', 'closedAt']],
+      ['finding', ['recordedAt']],
+      ['notification', ['createdAt', 'sentAt']],
+    ];
+    for (const [table, cols] of columns) {
+      for (const col of cols) {
+        const [row] = await db.query(`SELECT COUNT(*) AS n, MAX(\`${col}\`) AS latest FROM \`${table}\``);
+        expect(Number(row.n), table).toBeGreaterThan(0);
+        expect(new Date(row.latest).getTime(), `${table}.${col}`).toBeLessThanOrEqual(FIXED_NOW.getTime());
+      }
+    }
+  });
+});
