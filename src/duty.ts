@@ -3,7 +3,8 @@
 // only puts them side by side.
 import type { CurrentIs, FaultType } from '../shared/schemas/case';
 import type { ThroughFault } from '../shared/schemas/result';
-import { BUILT_IN_CRITERIA, criteriaV1, type Criteria } from '../shared/screening/criteria';
+import type { Criteria } from '../shared/screening/criteria';
+import { BUILT_IN_CRITERIA, criteriaV1 } from '../shared/screening/criteria-sets';
 import { aboveDesignMaximum, ratedCurrentA, ratedWindingCurrentA, thermalCurveTimeS, windingCurrentFactor, type WindingCurrent } from '../shared/screening/through-fault';
 
 export { aboveDesignMaximum, ratedWindingCurrentA };

@@ -5,7 +5,8 @@
 // nameplate ratio from the vector group, or — with no reference — the other values typed in the form.
 import { median } from 'simple-statistics';
 import type { GapsightCase, ReadingSet, Unit } from '../shared/schemas/case';
-import { criteriaV2, type Criteria } from '../shared/screening/criteria';
+import type { Criteria } from '../shared/screening/criteria';
+import { criteriaV2 } from '../shared/screening/criteria-sets';
 import { nameplateRatio } from '../shared/screening/ratio';
 import { reactancePercent } from '../shared/screening/reactance';
 import { IMPLAUSIBLE_NOTE, isImplausible, isRatioImplausible, ownReferenceLabel, plausibilityOf } from '../shared/screening/reference';

@@ -1,7 +1,8 @@
 // Bushings (revision 2): C1 shift and C1 power-factor rise per terminal, and whether the HV bushings explain a CH change.
 import type { Bushing, GapsightCase } from '../schemas/case.js';
 import type { Indicator } from '../schemas/result.js';
-import { criteriaV2, type Criteria } from './criteria.js';
+import type { Criteria } from './criteria.js';
+import { criteriaV2 } from './criteria-sets.js';
 import { addNote, describeBands, indicator, levelFromBands } from './levels.js';
 import { pfRise } from './power-factor.js';
 import { ownReferenceLabel, shiftPercent } from './reference.js';

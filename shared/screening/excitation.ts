@@ -1,7 +1,8 @@
 // Excitation current per phase: change against baseline at the same test voltage, and the outer-phase pattern.
 import type { GapsightCase } from '../schemas/case.js';
 import type { Indicator, Level } from '../schemas/result.js';
-import { criteriaV2, type Criteria } from './criteria.js';
+import type { Criteria } from './criteria.js';
+import { criteriaV2 } from './criteria-sets.js';
 import { describeBands, indicator, levelFromBands, roundSignificant } from './levels.js';
 import { ownReferenceLabel, shiftPercent } from './reference.js';
 

@@ -3,7 +3,7 @@ import type { GapsightCase, ReactancePhase, Unit } from '../schemas/case.js';
 import type { Indicator, Level } from '../schemas/result.js';
 import type { Criteria } from './criteria.js';
 import { describeBands, indicator, levelFromBands } from './levels.js';
-import { criteriaV2 } from './criteria.js';
+import { criteriaV2 } from './criteria-sets.js';
 import { baselineOrSisters, IMPLAUSIBLE_NOTE, isImplausible, ownReferenceLabel, shiftIndicator, tapsDiffer, tapText } from './reference.js';
 
 /** Wye-equivalent impedance base in ohms: kV²·1000/kVA. */

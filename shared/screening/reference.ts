@@ -1,7 +1,8 @@
 // References for shift indicators: the unit's own baseline or previous value, or the sisters' median standing in.
 import { median } from 'simple-statistics';
 import type { Indicator, Level, Method } from '../schemas/result.js';
-import { criteriaV2, type Band, type Criteria } from './criteria.js';
+import type { Band, Criteria } from './criteria.js';
+import { criteriaV2 } from './criteria-sets.js';
 import { capLevel, indicator, levelFromBands, roundSignificant } from './levels.js';
 
 export type Reference = {

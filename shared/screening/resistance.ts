@@ -1,7 +1,8 @@
 // Winding resistance corrected to a reference temperature: change against baseline and phase imbalance.
 import type { GapsightCase, ReadingSet } from '../schemas/case.js';
 import type { Indicator } from '../schemas/result.js';
-import { criteriaV2, type Criteria } from './criteria.js';
+import type { Criteria } from './criteria.js';
+import { criteriaV2 } from './criteria-sets.js';
 import { capLevel, describeBands, indicator, levelFromBands } from './levels.js';
 import { ownReferenceLabel, shiftPercent, tapsDiffer, tapText } from './reference.js';
 

@@ -2,7 +2,8 @@
 import { sampleCorrelation } from 'simple-statistics';
 import type { Sweep, SweepPoint } from '../schemas/case.js';
 import type { Indicator, Level } from '../schemas/result.js';
-import { criteriaV2, type Criteria } from './criteria.js';
+import type { Criteria } from './criteria.js';
+import { criteriaV2 } from './criteria-sets.js';
 import { capLevel, indicator, roundSignificant } from './levels.js';
 import { tapsDiffer, tapText } from './reference.js';
 

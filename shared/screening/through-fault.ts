@@ -1,7 +1,8 @@
 // Through-fault duty (IEEE C57.12.00 categories, IEEE C57.109 curves) and the Gapsight cumulative I²t tally.
 import type { CurrentIs, Fault, FaultType, PriorFault, Shot, Unit } from '../schemas/case.js';
 import type { IeeeCategory, Indicator, ThroughFault } from '../schemas/result.js';
-import { criteriaV1, type Criteria } from './criteria.js';
+import type { Criteria } from './criteria.js';
+import { criteriaV1 } from './criteria-sets.js';
 import { indicator, roundSignificant } from './levels.js';
 
 /** IEEE C57.12.00 category by kVA and phases (upper-inclusive bounds; below the lowest bound counts as I). */

@@ -7,15 +7,9 @@ import { capLevel, levelRank, maxLevel, raiseOneStep } from './levels.js';
 import { preFaultGas } from './gas.js';
 import { analyseSweep, compareTraces, phaseComparisons, sweepTapMismatch, sweepWinding } from './sweep.js';
 import { thermalCurveTimeS } from './through-fault.js';
+import { CAUTIONS } from './cautions.js';
 
-/** Cautions text (product brief, "Cautions"), reused by the screens, the PDF and the e-mail. */
-export const CAUTIONS: readonly string[] = [
-  'The recommendation is decision support for qualified staff.',
-  "Re-energising a transformer after a fault is a safety decision governed by the utility's own procedures, local codes and licensed practice; criteria defaults come from published guidance and common practice and must be reviewed by the user's engineers.",
-  "High-voltage tests must follow the test equipment's and the utility's safety rules (isolation, earthing, permits).",
-  'A go cannot rule out deformation that the tests taken cannot see.',
-  'DC tests (winding resistance) leave the core magnetised: take excitation current and sweeps first, or demagnetise before them.',
-];
+export { CAUTIONS };
 
 export const AXIAL_MOVEMENT_NOTE =
   'Capacitance is the only evidence and it is ok: an ok capacitance does not rule out axial movement (add leakage reactance or a sweep)';
