@@ -1,4 +1,5 @@
 import { Reply, route, type RouteDef } from '../../route-def.js';
+import type { HealthAnswer } from '../../../shared/schemas/responses/index.js';
 import { databaseAnswers } from './health.service.js';
 
 export const healthRoutes: RouteDef[] = [
@@ -11,7 +12,7 @@ export const healthRoutes: RouteDef[] = [
       const dbOk = await databaseAnswers(m);
       return new Reply({
         status: dbOk ? 200 : 503,
-        json: { status: dbOk ? 'ok' : 'degraded', db: dbOk ? 'ok' : 'down', demo: ctx.config.DEMO === 'on', mailSink: ctx.mailSinkRunning },
+        json: { status: dbOk ? 'ok' : 'degraded', db: dbOk ? 'ok' : 'down', demo: ctx.config.DEMO === 'on', mailSink: ctx.mailSinkRunning } satisfies HealthAnswer,
       });
     },
   }),
