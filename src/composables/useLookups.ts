@@ -1,14 +1,20 @@
 // Sites and designs for filters and labels: small lists, loaded once per page that needs them.
-import { listDesigns, type DesignListItem } from '../api/designs';
-import { listSites, type Site } from '../api/sites';
-import { useAsync } from './useAsync';
+import { listDesigns } from '../api/designs';
+import { listSites } from '../api/sites';
+import { useRouteResource } from './useRouteResource';
 
 // GET /api/sites as page state.
 export function useSites() {
-  return useAsync<Site[], []>(listSites);
+  return useRouteResource(
+    () => 'sites',
+    (_key, signal) => listSites(signal),
+  );
 }
 
 // GET /api/designs as page state.
 export function useDesigns() {
-  return useAsync<DesignListItem[], []>(listDesigns);
+  return useRouteResource(
+    () => 'designs',
+    (_key, signal) => listDesigns(signal),
+  );
 }

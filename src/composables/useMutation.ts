@@ -30,11 +30,9 @@ export function useMutation<A extends unknown[], R>(fn: (...args: A) => Promise<
   async function run(...args: A): Promise<R | undefined> {
     saving.value = true;
     error.value = null;
+    let result: R;
     try {
-      const result = await fn(...args);
-      const message = typeof options.success === 'function' ? options.success(result) : options.success;
-      if (message) $q.notify({ type: 'positive', message });
-      return result;
+      result = await fn(...args);
     } catch (caught) {
       const e = toApiError(caught);
       error.value = e;
@@ -43,6 +41,9 @@ export function useMutation<A extends unknown[], R>(fn: (...args: A) => Promise<
     } finally {
       saving.value = false;
     }
+    const message = typeof options.success === 'function' ? options.success(result) : options.success;
+    if (message) $q.notify({ type: 'positive', message });
+    return result;
   }
 
   return { saving, error, run, reset: () => (error.value = null) };

@@ -1,10 +1,9 @@
-// The fleet list: one page of units from the server with its filters, sort and paging, and a CSV-export fetch of
-// every page of the same filter (up to a limit).
-import { computed, reactive, ref, shallowRef } from 'vue';
+// The fleet list: one page of units from the server with its filters, sort and paging (loaded through
+// useRouteResource, keyed by the whole query), and a CSV-export fetch of every page of the same filter (up to a limit).
+import { computed, reactive, ref } from 'vue';
 import { listUnits, type UnitListItem, type UnitListQuery, type UnitSort } from '../api/units';
 import type { Recommendation } from '../../shared/schemas/result';
-import { toApiError } from './useAsync';
-import type { ApiError } from '../api/client';
+import { useRouteResource } from './useRouteResource';
 
 export interface UnitFilters {
   q: string;
@@ -18,18 +17,12 @@ export const MAX_PAGE_SIZE = 500;
 /** The CSV export stops after this many rows and says so. */
 export const EXPORT_ROW_LIMIT = 5000;
 
-// State and loaders of the fleet table.
+// State and loaders of the fleet table: a change of filter, sort, page or page size loads that page.
 export function useUnits(initial: Partial<UnitFilters> = {}) {
   const filters = reactive<UnitFilters>({ q: '', siteId: null, designId: null, recommendation: null, ...initial });
   const sort = ref<UnitSort>('serial');
   const page = ref(1);
   const pageSize = ref(25);
-  const items = shallowRef<UnitListItem[]>([]);
-  const total = ref(0);
-  const loading = ref(false);
-  const error = shallowRef<ApiError | null>(null);
-  let calls = 0;
-  let controller: AbortController | null = null;
 
   const filterQuery = computed<UnitListQuery>(() => ({
     q: (filters.q ?? '').trim() || undefined,
@@ -40,27 +33,12 @@ export function useUnits(initial: Partial<UnitFilters> = {}) {
 
   const filtered = computed(() => Object.values(filterQuery.value).some((v) => v !== undefined));
 
-  // Load the current page; an older request still in flight is aborted.
-  async function load(): Promise<void> {
-    const call = ++calls;
-    controller?.abort();
-    controller = new AbortController();
-    loading.value = true;
-    error.value = null;
-    try {
-      const answer = await listUnits({ ...filterQuery.value, sort: sort.value, page: page.value, pageSize: pageSize.value }, controller.signal);
-      if (call !== calls) return;
-      items.value = answer.items;
-      total.value = answer.total;
-    } catch (caught) {
-      if (call !== calls) return;
-      items.value = [];
-      total.value = 0;
-      error.value = toApiError(caught);
-    } finally {
-      if (call === calls) loading.value = false;
-    }
-  }
+  const resource = useRouteResource(
+    () => ({ ...filterQuery.value, sort: sort.value, page: page.value, pageSize: pageSize.value }),
+    (query, signal) => listUnits(query, signal),
+  );
+  const items = computed<UnitListItem[]>(() => resource.data.value?.items ?? []);
+  const total = computed(() => resource.data.value?.total ?? 0);
 
   // Every unit of the current filter and sort, page by page (the export); `truncated` when the limit was reached.
   async function fetchAll(limit = EXPORT_ROW_LIMIT): Promise<{ items: UnitListItem[]; total: number; truncated: boolean }> {
@@ -75,5 +53,5 @@ export function useUnits(initial: Partial<UnitFilters> = {}) {
     return { items: all.slice(0, limit), total, truncated: total > limit };
   }
 
-  return { filters, sort, page, pageSize, items, total, loading, error, filtered, filterQuery, load, fetchAll };
+  return { filters, sort, page, pageSize, items, total, resource, loading: resource.loading, filtered, filterQuery, reload: resource.reload, fetchAll };
 }

@@ -3,6 +3,7 @@
 // unit's case (baseline, previous, sisters), the nameplate ratio from the vector group, or the other values typed.
 import { flushPromises, mount, type VueWrapper } from '@vue/test-utils';
 import { Quasar } from 'quasar';
+import { quasarOptions } from '../../../src/quasar-options';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import EventSessionForm from '../../../src/components/event/EventSessionForm.vue';
 import type { GapsightCase } from '../../../shared/schemas/case';
@@ -35,7 +36,7 @@ function render(props: Record<string, unknown> = {}) {
       referenceState: 'ready',
       ...props,
     },
-    global: { plugins: [Quasar] },
+    global: { plugins: [[Quasar, quasarOptions]] },
     attachTo: document.body,
   });
 }

@@ -2,12 +2,13 @@
 // "no baseline trace to compare with" before anything is uploaded.
 import { mount, type VueWrapper } from '@vue/test-utils';
 import { Quasar, QSelect } from 'quasar';
+import { quasarOptions } from '../../../src/quasar-options';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import EventSweepUpload from '../../../src/components/event/EventSweepUpload.vue';
 import { resetClientState, scriptFetch, settle } from '../helpers';
 
 function render(baselineLabels: string[] | null = ['HV-A-open', 'HV-C-open']) {
-  return mount(EventSweepUpload, { props: { sessionId: 31, baselineLabels }, global: { plugins: [Quasar] }, attachTo: document.body });
+  return mount(EventSweepUpload, { props: { sessionId: 31, baselineLabels }, global: { plugins: [[Quasar, quasarOptions]] }, attachTo: document.body });
 }
 
 async function pick(wrapper: VueWrapper, testId: string, value: string): Promise<void> {
