@@ -5,7 +5,6 @@ import {
   BASIS_LEGEND,
   PALETTE,
   PDF_ATTACHED_LINE,
-  RECOMMENDATION_WORD,
   agreementInWords,
   cautionsOf,
   caveatsInWords,
@@ -15,7 +14,6 @@ import {
   engineRevisionOf,
   faultInWords,
   followUpTimingNote,
-  formatInstant,
   onDutyOnlyPath,
   protectionSummary,
   proposedRestrictions,
@@ -29,6 +27,8 @@ import {
   testsInWords,
   windingCurrentInWords,
 } from './report-text.js';
+import { RECOMMENDATION_WORD } from '../../shared/vocabulary.js';
+import { formatInstant } from '../../shared/format.js';
 
 export interface ManagerMail {
   subject: string;

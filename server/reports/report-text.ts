@@ -20,10 +20,10 @@ import {
   methodWord,
   protectionWord,
 } from '../../shared/vocabulary.js';
-import { formatCoarse, formatDay, formatFigure, formatInstant, formatPerUnit, formatSignificant, ordinal, wholeYears } from '../../shared/format.js';
+import { formatCoarse, formatDay, formatFigure, formatPerUnit, formatSignificant, ordinal, wholeYears } from '../../shared/format.js';
 import type { ScreeningReportData } from './report-data.js';
 
-export { decisiveReason, formatInstant, formatSignificant, indicatorLabel, LEVEL_WORD, methodWord, RECOMMENDATION_WORD };
+export { decisiveReason };
 
 // ---------------------------------------------------------------------------------------------------------------------
 // Words

@@ -6,10 +6,8 @@ import type { Indicator, Level, ThroughFault } from '../../shared/schemas/result
 import type { ScreeningReportData } from './report-data.js';
 import {
   BASIS_LEGEND,
-  LEVEL_WORD,
   PALETTE,
   RECOMMENDATION_LEVEL,
-  RECOMMENDATION_WORD,
   THERMAL_REGION_DUTY,
   basisWords,
   cautionsOf,
@@ -20,13 +18,9 @@ import {
   engineRevisionOf,
   faultInWords,
   followUpTimingNote,
-  formatInstant,
-  formatSignificant,
-  indicatorLabel,
   indicatorValueText,
   itemWords,
   levelColour,
-  methodWord,
   onDutyOnlyPath,
   protectionSummary,
   recommendationHeadWord,
@@ -37,6 +31,8 @@ import {
   unreliableItems,
   windingCurrentInWords,
 } from './report-text.js';
+import { indicatorLabel, LEVEL_WORD, methodWord, RECOMMENDATION_WORD } from '../../shared/vocabulary.js';
+import { formatInstant, formatSignificant } from '../../shared/format.js';
 
 const LEVEL_ORDER: Record<Level, number> = { critical: 0, investigate: 1, watch: 2, ok: 3 };
 
