@@ -209,7 +209,7 @@ describe('sessions, imports and sweeps', () => {
 });
 
 describe('POST /api/screenings/preview', () => {
-  it('answers the engine result for a case body, and 400 naming the bad field of an invalid case', async () => {
+  it('answers the engine result for a case body, and 400 invalid_input naming the bad field of an invalid case', async () => {
     const c = { format: 'gapsight-case/1', unit: { serial: 'X', phases: 3, ratedKVA: 40000, hvKV: 132, lvKV: 33, impedancePercent: 10.5 }, fault: { occurredAt: '2026-11-28T03:12:00Z', type: 'three-phase', side: 'lv', shots: [{ currentKA: 6.3, durationS: 0.12 }] } };
     const ok = await api().post('/api/screenings/preview').set(tester).send(c);
     expect(ok.status).toBe(200);
@@ -219,6 +219,8 @@ describe('POST /api/screenings/preview', () => {
     expect(ok.body).toEqual(JSON.parse(JSON.stringify(screenCase(parsed.value, criteriaV2))));
     const bad = await api().post('/api/screenings/preview').set(tester).send({ ...c, unit: { ...c.unit, ratedKVA: -1 } });
     expect(bad.status).toBe(400);
+    // The common error shape of every route: invalid_input with the field paths named.
+    expect(bad.body.error.code).toBe('invalid_input');
     expect(Object.keys(bad.body.error.fields)).toContain('unit.ratedKVA');
   });
 });
