@@ -66,7 +66,13 @@ export async function serve(db: DataSource, config: Config, opts: ServeOptions =
     }
   }
   const context = { db, clock: systemClock, config, mailSinkRunning: sink !== null, appUrl: config.APP_URL } as import('./context.js').AppContext;
-  const worker = startMailWorker(db, context.clock, { transport: createTransport(config, sink?.port ?? null), from: config.MAIL_FROM }, () => context.appUrl ?? '');
+  const worker = startMailWorker(
+    db,
+    context.clock,
+    { transport: createTransport(config, sink?.port ?? null), from: config.MAIL_FROM },
+    () => context.appUrl ?? '',
+    logger,
+  );
   context.kickMail = worker.kick;
   const app = createApp(context, { staticDir: opts.staticDir, logger, routes: opts.routes });
   const server: Server = await new Promise((resolve, reject) => {

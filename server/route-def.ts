@@ -108,7 +108,7 @@ export function route<
         try {
           fn();
         } catch (err) {
-          console.error('After-commit work failed:', err);
+          req.log.error({ err }, 'after-commit work failed');
         }
       }
     },

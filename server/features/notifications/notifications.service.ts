@@ -5,6 +5,7 @@ import { buildManagerMail } from '../../reports/manager-mail.js';
 import { screeningReportPdf } from '../../reports/report.service.js';
 import type { Screening } from '../screenings/screening.entity.js';
 import { Notification } from './notification.entity.js';
+import type { Logger } from '../../logger.js';
 
 /** Tries per message before it stays `failed`; the wait doubles each time (1, 2, 4, 8, 16 minutes). */
 export const MAX_MAIL_ATTEMPTS = 6;
@@ -115,7 +116,14 @@ export async function deliverDueNotifications(db: DataSource, clock: Clock, mail
 }
 
 /** Runs delivery every few seconds and on demand; returns the kick and a stop function. */
-export function startMailWorker(db: DataSource, clock: Clock, mailer: Mailer, appUrl: () => string, everyMs = 10_000): { kick: () => void; stop: () => Promise<void> } {
+export function startMailWorker(
+  db: DataSource,
+  clock: Clock,
+  mailer: Mailer,
+  appUrl: () => string,
+  log: Pick<Logger, 'error'>,
+  everyMs = 10_000,
+): { kick: () => void; stop: () => Promise<void> } {
   let running: Promise<unknown> | null = null;
   let again = false;
   const run = () => {
@@ -124,7 +132,7 @@ export function startMailWorker(db: DataSource, clock: Clock, mailer: Mailer, ap
       return;
     }
     running = deliverDueNotifications(db, clock, mailer, appUrl())
-      .catch((err) => console.error('Mail delivery failed:', err instanceof Error ? err.message : err))
+      .catch((err: unknown) => log.error({ err }, 'mail delivery failed'))
       .finally(() => {
         running = null;
         if (again && db.isInitialized) {
