@@ -15,9 +15,6 @@ import {
   separatorProblem,
 } from './csv.js';
 
-// Callers that import these from the readings importer get the shared ones.
-export { DECIMAL_COMMA_MESSAGE, isDecimalCommaNumber };
-
 /** Column names of the canonical readings CSV, in the order written by `mapColumns`. */
 export const READINGS_COLUMNS = ['quantity', 'configuration', 'phase', 'value', 'unit'] as const;
 export type ReadingsColumn = (typeof READINGS_COLUMNS)[number];
