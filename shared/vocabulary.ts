@@ -250,7 +250,7 @@ export function indicatorLabel(key: string): string {
     }
     case 'gas':
       if (a === 'duvalZone') return 'Duval triangle 1 zone';
-      if (last === 'risePPM') return `${a === 'C2H2' ? 'Acetylene (C2H2)' : a === 'H2' ? 'Hydrogen (H2)' : a} rise`;
+      if (last === 'risePPM') return `${GAS_LABELS[a as keyof typeof GAS_LABELS] ?? a} rise`;
       break;
     case 'excitation':
       if (a === 'outerPhaseDifferencePercent') return 'Excitation current, outer phases differ';
