@@ -94,7 +94,9 @@ describe('sister indicators', () => {
     expect(m.level).toBe('watch');
     expect(m.basis).toBe('state');
     expect(inds.find((i) => i.key === 'sisters.capacitance.CHL.grubbsG')!.level).toBe('ok');
-    expect(inds.find((i) => i.key === 'sisters.capacitance.CHL.dixonQ')!.note).toBe('Dixon: outlier');
+    const dixon = inds.find((i) => i.key === 'sisters.capacitance.CHL.dixonQ')!;
+    expect(dixon.level).toBe('ok');
+    expect(dixon.note).toBe('Dixon: outlier');
     const dev = inds.find((i) => i.key === 'sisters.capacitance.CHL.deviationFromMedianPercent')!;
     expect(dev.value).toBeCloseTo((100 * (5400 - 5020)) / 5020, 9); // computed: median of 5000…5040 is 5020
   });

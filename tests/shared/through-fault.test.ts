@@ -33,6 +33,9 @@ describe('computeThroughFault', () => {
     expect(tf.cumulativeI2t).toBeCloseTo(23.568, 3);
     expect(tf.cumulativeDutyPercent).toBeCloseTo(12.99, 2);
     expect(tf.shotsAboveSegment).toBe(3);
+    expect(tf.windingCurrentFactor).toBe(1);
+    expect(tf.currentBasis).toBe('line-converted');
+    expect(tf.thermalDurationPercent).toBeNull();
   });
 
   it('gives I²t 24.5 = 12.25 % of K 200 and an allowed time of 4.08 s for 7 pu for 0.5 s (Z_t 8 %, Z_s 2 %)', () => {
