@@ -1,5 +1,6 @@
 import { In, LessThan, Not, type EntityManager } from 'typeorm';
 import { isBaselineSet } from '../../../shared/readings/baseline.js';
+import { loggedFault, toPriorFault } from '../../../shared/screening/duty-history.js';
 import { mergeReadingSets } from '../../../shared/readings/merge.js';
 import { unitToCase } from '../../../shared/readings/unit-case.js';
 import type { Fault, GapsightCase, PriorFault, ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
@@ -31,14 +32,7 @@ export function caseFault(e: FaultEvent): Fault {
 
 /** An earlier event of the unit as a prior fault (its own side, location and current basis). */
 export function casePriorFault(p: FaultEvent): PriorFault {
-  return {
-    occurredAt: p.occurredAt.toISOString(),
-    type: p.type,
-    side: p.side,
-    ...(p.location !== null ? { location: p.location } : {}),
-    ...(p.currentIs !== null ? { currentIs: p.currentIs } : {}),
-    shots: p.shots,
-  };
+  return toPriorFault(loggedFault({ occurredAt: p.occurredAt.toISOString(), type: p.type, side: p.side, location: p.location, currentIs: p.currentIs, shots: p.shots }));
 }
 
 const isReferenceSet = (s: ReadingSet) => isBaselineSet(s);
