@@ -2,6 +2,7 @@
 // Unknown extra fields are allowed everywhere (the contract lets callers add optional fields).
 import { z } from 'zod';
 import { PROTECTIONS } from '../screening/protections.js';
+import { CONDUCTORS, WINDINGS } from './enums.js';
 
 const finite = () => z.number().finite();
 const positive = () => z.number().finite().positive();
@@ -19,8 +20,8 @@ export const currentIsSchema = z.enum(['line', 'winding']);
 export const sweepWindingSchema = z.enum(['hv', 'lv', 'tv']);
 export const sweepPhaseSchema = z.enum(['A', 'B', 'C']);
 export const protectionSchema = z.enum(PROTECTIONS);
-export const windingsSchema = z.enum(['two-winding', 'three-winding', 'auto', 'auto-tertiary']);
-export const conductorSchema = z.enum(['Cu', 'Al']);
+export const windingsSchema = z.enum(WINDINGS);
+export const conductorSchema = z.enum(CONDUCTORS);
 
 export const unitSchema = z.looseObject({
   serial: z.string().min(1),

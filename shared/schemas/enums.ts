@@ -32,3 +32,11 @@ export type FindingClassification = (typeof FINDING_CLASSIFICATIONS)[number];
 /** A queued e-mail's state. */
 export const NOTIFICATION_STATUSES = ['queued', 'sent', 'failed'] as const;
 export type NotificationStatus = (typeof NOTIFICATION_STATUSES)[number];
+
+/** A unit design's windings (case format `unit.windings`). */
+export const WINDINGS = ['two-winding', 'three-winding', 'auto', 'auto-tertiary'] as const;
+export type Windings = (typeof WINDINGS)[number];
+
+/** Winding conductor material (case format `unit.conductor`). */
+export const CONDUCTORS = ['Cu', 'Al'] as const;
+export type Conductor = (typeof CONDUCTORS)[number];
