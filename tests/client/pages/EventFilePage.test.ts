@@ -366,6 +366,6 @@ describe('EventFilePage (/events/:id)', () => {
     const row = wrapper.get('[data-test="audit-row"]').text();
     expect(row).toContain('Dara Whitcombe');
     expect(row).toContain('2026-07-01 05:00 +01:00 Europe/London');
-    expect(row).toContain('create fault event 11');
+    expect(row).toContain('Created fault event 11');
   });
 });
