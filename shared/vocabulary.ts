@@ -110,6 +110,8 @@ export const AUDIT_ACTION_LABELS: Record<string, string> = {
   import: 'Imported',
   screen: 'Screened',
   decide: 'Decided',
+  delete: 'Deleted',
+  'sign-in-lock': 'Locked sign-in of',
 };
 
 /** The engine's indicator methods. */
