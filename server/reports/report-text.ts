@@ -70,7 +70,7 @@ export const basisWords = (i: Indicator): string | null => basisLabel(i);
 
 /** Legend of the basis words, for the PDF and the mail. */
 export const BASIS_LEGEND =
-  'Basis: against own baseline / previous test = a change of this unit (only changes, not low-confidence ones, count as agreement); against sister units = no own baseline (capped at investigate); phase A vs C = one phase against another, no baseline trace (capped at investigate); state = an absolute or nameplate value (informs, watch at most); duty = the through-fault duty. LOW CONFIDENCE = a change judged under a known doubt, named beside it.';
+  'Basis: against own baseline / previous test = a change of this unit (only changes, not low-confidence ones, count as agreement); against sister units = no own baseline (capped at investigate); phase A vs C = one phase against another, no baseline trace (capped at investigate); state (absolute value) = an absolute or nameplate value (informs, watch at most); duty = the through-fault duty. LOW CONFIDENCE = a change judged under a known doubt, named beside it.';
 
 /** An indicator as the corroboration rule reads it: a stored revision-1 indicator (no basis) counted as a change, as the
  * revision-1 verdict that stored it did. */
