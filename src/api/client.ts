@@ -121,21 +121,12 @@ async function errorFromResponse(response: Response): Promise<ApiError> {
   );
 }
 
-// Send one request to the API and return its parsed JSON (undefined for 204); throws ApiError on anything else.
-export async function apiRequest<T>(method: string, path: string, options: RequestOptions = {}): Promise<T> {
-  const { body, query, auth = true, signal } = options;
-  const headers: Record<string, string> = { Accept: 'application/json', ...options.headers };
+// Fetch one API URL with the stored token (unless `auth` is false): the answer when it is 2xx; otherwise an ApiError
+// (status 0 when the server cannot be reached; an abort of our own is passed through as is).
+async function send(method: string, path: string, options: RequestOptions, headers: Record<string, string>, payload?: BodyInit): Promise<Response> {
+  const { query, auth = true, signal } = options;
   const sentToken = auth ? readStoredToken() : null;
   if (sentToken) headers.Authorization = `Bearer ${sentToken}`;
-
-  let payload: BodyInit | undefined;
-  if (body instanceof FormData) {
-    payload = body; // the browser sets the multipart boundary itself
-  } else if (body !== undefined) {
-    headers['Content-Type'] = 'application/json';
-    payload = JSON.stringify(body);
-  }
-
   let response: Response;
   try {
     response = await fetch(buildUrl(path, query), { method, headers, body: payload, signal });
@@ -143,7 +134,6 @@ export async function apiRequest<T>(method: string, path: string, options: Reque
     if (signal?.aborted) throw cause;
     throw new ApiError(0, 'network_error', 'Cannot reach the Gapsight server. Check the connection and try again.');
   }
-
   if (!response.ok) {
     const error = await errorFromResponse(response);
     // Only a token we sent that is still the current one ends the session: a wrong password at sign-in is
@@ -153,7 +143,22 @@ export async function apiRequest<T>(method: string, path: string, options: Reque
     }
     throw error;
   }
+  return response;
+}
 
+// Send one request to the API and return its parsed JSON (undefined for 204); throws ApiError on anything else.
+export async function apiRequest<T>(method: string, path: string, options: RequestOptions = {}): Promise<T> {
+  const { body } = options;
+  const headers: Record<string, string> = { Accept: 'application/json', ...options.headers };
+  let payload: BodyInit | undefined;
+  if (body instanceof FormData) {
+    payload = body; // the browser sets the multipart boundary itself
+  } else if (body !== undefined) {
+    headers['Content-Type'] = 'application/json';
+    payload = JSON.stringify(body);
+  }
+
+  const response = await send(method, path, options, headers, payload);
   if (response.status === 204) return undefined as T;
   const text = await response.text();
   if (!text) return undefined as T;
@@ -189,23 +194,7 @@ export function apiUpload<T>(
 
 // GET a file (an attachment's bytes) with the bearer token; a plain link could not send the token.
 export async function apiDownload(path: string, options: Omit<RequestOptions, 'body'> = {}): Promise<Blob> {
-  const headers: Record<string, string> = { ...options.headers };
-  const sentToken = options.auth === false ? null : readStoredToken();
-  if (sentToken) headers.Authorization = `Bearer ${sentToken}`;
-  let response: Response;
-  try {
-    response = await fetch(buildUrl(path, options.query), { method: 'GET', headers, signal: options.signal });
-  } catch (cause) {
-    if (options.signal?.aborted) throw cause;
-    throw new ApiError(0, 'network_error', 'Cannot reach the Gapsight server. Check the connection and try again.');
-  }
-  if (!response.ok) {
-    const error = await errorFromResponse(response);
-    if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) {
-      unauthorizedHandler(error);
-    }
-    throw error;
-  }
+  const response = await send('GET', path, options, { ...options.headers });
   return response.blob();
 }
 

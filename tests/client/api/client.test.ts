@@ -129,4 +129,25 @@ describe('api client', () => {
     expect(error).toMatchObject({ status: 401, code: 'bad_credentials' });
     expect(handler).not.toHaveBeenCalled();
   });
+
+  it('hands the caller’s AbortSignal to fetch (GET and download), and passes our own abort through instead of a network error', async () => {
+    const seen: (AbortSignal | null | undefined)[] = [];
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async (_input: RequestInfo | URL, init: RequestInit = {}) => {
+        seen.push(init.signal);
+        if (init.signal?.aborted) throw new DOMException('The operation was aborted.', 'AbortError');
+        return new Response('{}', { status: 200, headers: { 'Content-Type': 'application/json' } });
+      }),
+    );
+    const controller = new AbortController();
+    await api.get('/events/11', { signal: controller.signal });
+    await api.download('/events/11/attachments/1', { signal: controller.signal });
+    expect(seen).toEqual([controller.signal, controller.signal]);
+
+    controller.abort();
+    const error = await api.get('/events/11', { signal: controller.signal }).catch((e: unknown) => e);
+    expect(error).not.toBeInstanceOf(ApiError);
+    expect((error as Error).name).toBe('AbortError');
+  });
 });
