@@ -3,7 +3,7 @@ import type { GapsightCase } from '../schemas/case.js';
 import type { Indicator } from '../schemas/result.js';
 import type { Criteria } from './criteria.js';
 import { describeBands, indicator, roundSignificant } from './levels.js';
-import { baselineOrSisters, IMPLAUSIBLE_NOTE, isImplausible, ownReferenceLabel, shiftIndicator } from './reference.js';
+import { baselineOrSisters, IMPLAUSIBLE_NOTE, isImplausible, ownReferenceLabel, shiftIndicator, type Reference } from './reference.js';
 
 /** Consistency of a two-winding set: 100·((GST − GST-guard) − UST)/UST (IEEE C57.152 test terms). */
 export function capacitanceConsistencyPercent(gstPF: number, gstGuardPF: number, ustPF: number): number {
@@ -54,11 +54,12 @@ export function capacitanceIndicators(c: GapsightCase, criteria: Criteria): Capa
       unreliable.push(`capacitance.${cfg}`);
       unreliableNote = `${IMPLAUSIBLE_NOTE}: not judged`;
     }
-    if (baseRef) {
+    // A shift from one reference; an unreliable configuration is shown but not judged.
+    const pushShift = (key: string, reference: Reference) => {
       const ind = shiftIndicator({
-        key: `capacitance.${cfg}.shiftPercent`,
+        key,
         value,
-        reference: baseRef,
+        reference,
         bands: cc.shiftBands,
         method: 'capacitance',
         rule,
@@ -69,23 +70,14 @@ export function capacitanceIndicators(c: GapsightCase, criteria: Criteria): Capa
       });
       if (unreliableNote) ind.level = 'ok';
       indicators.push(ind);
-    }
-    const prev = prevValue;
-    if (prev !== undefined) {
-      const ind = shiftIndicator({
-        key: `capacitance.${cfg}.shiftFromPreviousPercent`,
-        value,
-        reference: { value: prev, label: ownReferenceLabel('previous', c.previous?.takenAt), fromSisters: false },
-        bands: cc.shiftBands,
-        method: 'capacitance',
-        rule,
-        source: cc.shiftSource,
-        location: cfg,
-        criteria,
-        note: unreliableNote,
+    };
+    if (baseRef) pushShift(`capacitance.${cfg}.shiftPercent`, baseRef);
+    if (prevValue !== undefined) {
+      pushShift(`capacitance.${cfg}.shiftFromPreviousPercent`, {
+        value: prevValue,
+        label: ownReferenceLabel('previous', c.previous?.takenAt),
+        fromSisters: false,
       });
-      if (unreliableNote) ind.level = 'ok';
-      indicators.push(ind);
     }
   }
   return { indicators, unreliable };
