@@ -97,21 +97,8 @@ export async function seedScenario(m: EntityManager, clock: FixedClock, users: D
             m,
             clock,
             users.admin,
-            asRoute(designBodySchema, {
-              reference: d.reference,
-              maker: d.maker,
-              windings: d.windings,
-              vectorGroup: d.vectorGroup,
-              phases: d.phases,
-              hvKV: d.hvKV,
-              lvKV: d.lvKV,
-              coolingStages: d.coolingStages,
-              impedancePercent: d.impedancePercent,
-              impedanceBaseKVA: d.impedanceBaseKVA,
-              conductor: d.conductor,
-              requiredCapacitance: d.requiredCapacitance,
-              notes: d.notes,
-            }),
+            // The body schema keeps the design's own fields and drops the demo's (key, tap, nominal readings).
+            asRoute(designBodySchema, d),
           )
         ).id;
   }

@@ -2,8 +2,8 @@ import type { EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { designBodySchema, designPatchSchema } from '../../../shared/schemas/fleet.js';
 import type { DesignDetail, DesignListItem, DesignView } from '../../../shared/schemas/responses/index.js';
-import { AppError, notFound } from '../../common/app-error.js';
-import { audit } from '../../common/audit.js';
+import { notFound } from '../../common/app-error.js';
+import { assertUnique, createAudited, updateAudited, type AuditedKind } from '../../common/audited-row.js';
 import type { Clock } from '../../common/clock.js';
 import { Unit } from '../units/unit.entity.js';
 import { Design } from './design.entity.js';
@@ -47,27 +47,21 @@ export async function getDesign(m: EntityManager, id: number) {
   } satisfies DesignDetail;
 }
 
-async function assertReferenceFree(m: EntityManager, reference: string, exceptId?: number) {
-  const other = await m.getRepository(Design).findOne({ where: { reference } });
-  if (other && other.id !== exceptId) throw new AppError('reference_taken', 'A design with this reference exists.', 409, { reference: 'already in use' });
-}
+const DESIGN: AuditedKind<Design, DesignView> = { target: Design, entity: 'design', label: 'Design', view: designView };
+const REFERENCE_TAKEN = 'A design with this reference exists.';
 
 /** Creates a design family (audited). */
 export async function createDesign(m: EntityManager, clock: Clock, userId: number, body: z.infer<typeof designBodySchema>) {
-  await assertReferenceFree(m, body.reference);
-  const d = await m.getRepository(Design).save(m.getRepository(Design).create({ ...body, tvKV: body.tvKV ?? null, notes: body.notes ?? null, createdAt: clock.now(), updatedAt: clock.now() }));
-  await audit(m, clock, { userId, action: 'create', entity: 'design', entityId: d.id, after: designView(d) });
-  return designView(d);
+  await assertUnique(m, Design, 'reference', body.reference, REFERENCE_TAKEN);
+  return createAudited(m, clock, userId, DESIGN, { ...body, tvKV: body.tvKV ?? null, notes: body.notes ?? null, createdAt: clock.now(), updatedAt: clock.now() });
 }
 
 /** Changes a design (audited with before and after). */
 export async function updateDesign(m: EntityManager, clock: Clock, userId: number, id: number, patch: z.infer<typeof designPatchSchema>) {
-  const d = await m.getRepository(Design).findOne({ where: { id } });
-  if (!d) throw notFound('Design');
-  const before = designView(d);
-  if (patch.reference !== undefined) await assertReferenceFree(m, patch.reference, id);
-  Object.assign(d, patch, { updatedAt: clock.now() });
-  await m.getRepository(Design).save(d);
-  await audit(m, clock, { userId, action: 'update', entity: 'design', entityId: id, before, after: designView(d) });
-  return designView(d);
+  return updateAudited(m, clock, userId, DESIGN, id, {
+    check: async () => {
+      if (patch.reference !== undefined) await assertUnique(m, Design, 'reference', patch.reference, REFERENCE_TAKEN, id);
+    },
+    apply: (d) => Object.assign(d, patch, { updatedAt: clock.now() }),
+  });
 }

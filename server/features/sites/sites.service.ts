@@ -2,8 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { siteBodySchema, sitePatchSchema } from '../../../shared/schemas/fleet.js';
 import type { SiteView } from '../../../shared/schemas/responses/index.js';
-import { AppError, notFound } from '../../common/app-error.js';
-import { audit } from '../../common/audit.js';
+import { assertUnique, createAudited, updateAudited, type AuditedKind } from '../../common/audited-row.js';
 import type { Clock } from '../../common/clock.js';
 import { Site } from './site.entity.js';
 
@@ -14,27 +13,21 @@ export async function listSites(m: EntityManager) {
   return (await m.getRepository(Site).find({ order: { name: 'ASC' } })).map(view);
 }
 
-async function assertNameFree(m: EntityManager, name: string, exceptId?: number) {
-  const other = await m.getRepository(Site).findOne({ where: { name } });
-  if (other && other.id !== exceptId) throw new AppError('name_taken', 'A site with this name exists.', 409, { name: 'already in use' });
-}
+const SITE: AuditedKind<Site, SiteView> = { target: Site, entity: 'site', label: 'Site', view };
+const NAME_TAKEN = 'A site with this name exists.';
 
 /** Creates a site (audited). */
 export async function createSite(m: EntityManager, clock: Clock, userId: number, body: z.infer<typeof siteBodySchema>) {
-  await assertNameFree(m, body.name);
-  const site = await m.getRepository(Site).save(m.getRepository(Site).create({ ...body, createdAt: clock.now() }));
-  await audit(m, clock, { userId, action: 'create', entity: 'site', entityId: site.id, after: view(site) });
-  return view(site);
+  await assertUnique(m, Site, 'name', body.name, NAME_TAKEN);
+  return createAudited(m, clock, userId, SITE, { ...body, createdAt: clock.now() });
 }
 
 /** Changes a site (audited with before and after). */
 export async function updateSite(m: EntityManager, clock: Clock, userId: number, id: number, patch: z.infer<typeof sitePatchSchema>) {
-  const site = await m.getRepository(Site).findOne({ where: { id } });
-  if (!site) throw notFound('Site');
-  const before = view(site);
-  if (patch.name !== undefined) await assertNameFree(m, patch.name, id);
-  Object.assign(site, patch);
-  await m.getRepository(Site).save(site);
-  await audit(m, clock, { userId, action: 'update', entity: 'site', entityId: id, before, after: view(site) });
-  return view(site);
+  return updateAudited(m, clock, userId, SITE, id, {
+    check: async () => {
+      if (patch.name !== undefined) await assertUnique(m, Site, 'name', patch.name, NAME_TAKEN, id);
+    },
+    apply: (site) => Object.assign(site, patch),
+  });
 }

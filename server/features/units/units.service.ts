@@ -4,7 +4,7 @@ import type { ReadingSetBody, unitBodySchema, unitListQuerySchema, unitPatchSche
 import type { CreatedReadingSet, ReadingSetConditions, UnitDetail, UnitListPage, UnitView } from '../../../shared/schemas/responses/index.js';
 import { dutyWithPriorFaults } from '../../../shared/screening/duty-history.js';
 import { AppError, notFound } from '../../common/app-error.js';
-import { audit } from '../../common/audit.js';
+import { assertUnique, createAudited, updateAudited, type AuditedKind } from '../../common/audited-row.js';
 import type { Clock } from '../../common/clock.js';
 import { Design } from '../designs/design.entity.js';
 import { designView } from '../designs/designs.service.js';
@@ -163,49 +163,43 @@ async function checkRefs(m: EntityManager, siteId?: number, designId?: number) {
   return design;
 }
 
+const UNIT: AuditedKind<Unit, UnitView> = { target: Unit, entity: 'unit', label: 'Unit', view: unitView };
+const SERIAL_TAKEN = 'A unit with this serial exists.';
+
 /** Creates a unit; nameplate values not given come from its design (audited). */
 export async function createUnit(m: EntityManager, clock: Clock, userId: number, body: z.infer<typeof unitBodySchema>) {
   const design = (await checkRefs(m, body.siteId, body.designId))!;
-  if (await m.getRepository(Unit).exists({ where: { serial: body.serial } })) {
-    throw new AppError('serial_taken', 'A unit with this serial exists.', 409, { serial: 'already in use' });
-  }
-  const repo = m.getRepository(Unit);
-  const u = await repo.save(
-    repo.create({
-      serial: body.serial,
-      position: body.position ?? '',
-      siteId: body.siteId,
-      designId: body.designId,
-      year: body.year ?? null,
-      phases: body.phases ?? design.phases,
-      hvKV: body.hvKV ?? design.hvKV,
-      lvKV: body.lvKV ?? design.lvKV,
-      ratedKVA: body.ratedKVA ?? design.impedanceBaseKVA,
-      impedancePercent: body.impedancePercent ?? design.impedancePercent,
-      systemImpedancePercent: body.systemImpedancePercent ?? 0,
-      conductor: body.conductor ?? design.conductor,
-      createdAt: clock.now(),
-      updatedAt: clock.now(),
-    }),
-  );
-  await audit(m, clock, { userId, action: 'create', entity: 'unit', entityId: u.id, after: unitView(u) });
-  return unitView(u);
+  await assertUnique(m, Unit, 'serial', body.serial, SERIAL_TAKEN);
+  return createAudited(m, clock, userId, UNIT, {
+    serial: body.serial,
+    position: body.position ?? '',
+    siteId: body.siteId,
+    designId: body.designId,
+    year: body.year ?? null,
+    phases: body.phases ?? design.phases,
+    hvKV: body.hvKV ?? design.hvKV,
+    lvKV: body.lvKV ?? design.lvKV,
+    ratedKVA: body.ratedKVA ?? design.impedanceBaseKVA,
+    impedancePercent: body.impedancePercent ?? design.impedancePercent,
+    systemImpedancePercent: body.systemImpedancePercent ?? 0,
+    conductor: body.conductor ?? design.conductor,
+    createdAt: clock.now(),
+    updatedAt: clock.now(),
+  });
 }
 
 /** Changes a unit (audited with before and after). */
 export async function updateUnit(m: EntityManager, clock: Clock, userId: number, id: number, patch: z.infer<typeof unitPatchSchema>) {
-  const u = await m.getRepository(Unit).findOne({ where: { id } });
-  if (!u) throw notFound('Unit');
-  await checkRefs(m, patch.siteId, patch.designId);
-  if (patch.serial !== undefined && patch.serial !== u.serial && (await m.getRepository(Unit).exists({ where: { serial: patch.serial } }))) {
-    throw new AppError('serial_taken', 'A unit with this serial exists.', 409, { serial: 'already in use' });
-  }
-  const before = unitView(u);
-  for (const [k, v] of Object.entries(patch)) if (v !== undefined) (u as unknown as Record<string, unknown>)[k] = v;
-  u.updatedAt = clock.now();
-  await m.getRepository(Unit).save(u);
-  await audit(m, clock, { userId, action: 'update', entity: 'unit', entityId: id, before, after: unitView(u) });
-  return unitView(u);
+  return updateAudited(m, clock, userId, UNIT, id, {
+    check: async () => {
+      await checkRefs(m, patch.siteId, patch.designId);
+      if (patch.serial !== undefined) await assertUnique(m, Unit, 'serial', patch.serial, SERIAL_TAKEN, id);
+    },
+    apply: (u) => {
+      for (const [k, v] of Object.entries(patch)) if (v !== undefined) (u as unknown as Record<string, unknown>)[k] = v;
+      u.updatedAt = clock.now();
+    },
+  });
 }
 
 /** Stores a factory, commissioning or routine reading set on a unit. */
