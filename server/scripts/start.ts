@@ -33,7 +33,8 @@ async function main(): Promise<void> {
     console.log('Client: up to date (dist/).');
   }
 
-  const { default: db } = await import('../db/data-source.js');
+  const { createDataSource } = await import('../db/create-data-source.js');
+  const db = createDataSource(config);
   await db.initialize();
   const { migrateAndSeedOn } = await import('./prepare.js');
   await migrateAndSeedOn(db, { seed: config.DEMO === 'on', log: (l) => console.log(l) });

@@ -1,5 +1,6 @@
 import { Reply, route, type RouteDef } from '../../route-def.js';
 import type { HealthAnswer } from '../../../shared/schemas/responses/index.js';
+import { requestId } from '../../logger.js';
 import { databaseAnswers } from './health.service.js';
 
 export const healthRoutes: RouteDef[] = [
@@ -8,11 +9,11 @@ export const healthRoutes: RouteDef[] = [
     method: 'get',
     path: '/health',
     access: 'public',
-    handler: async ({ m, ctx }) => {
+    handler: async ({ m, ctx, req }) => {
       const dbOk = await databaseAnswers(m);
       return new Reply({
         status: dbOk ? 200 : 503,
-        json: { status: dbOk ? 'ok' : 'degraded', db: dbOk ? 'ok' : 'down', demo: ctx.config.DEMO === 'on', mailSink: ctx.mailSinkRunning } satisfies HealthAnswer,
+        json: { status: dbOk ? 'ok' : 'degraded', db: dbOk ? 'ok' : 'down', demo: ctx.config.DEMO === 'on', mailSink: ctx.mailSinkRunning, ...(dbOk ? {} : { requestId: requestId(req) }) } satisfies HealthAnswer,
       });
     },
   }),

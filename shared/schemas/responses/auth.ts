@@ -34,5 +34,7 @@ export const healthAnswerSchema = z.strictObject({
   demo: z.boolean(),
   /** The local mail sink runs, so the outbox page has something to show. */
   mailSink: z.boolean(),
+  /** On a 503 only: the request's id, as in every 5xx answer (X-Request-Id). */
+  requestId: z.string().optional(),
 });
 export type HealthAnswer = z.infer<typeof healthAnswerSchema>;

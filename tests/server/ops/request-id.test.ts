@@ -90,6 +90,16 @@ describe('request ids', () => {
     expect(res.body.error).toEqual({ code: 'unavailable', message: 'The test route is unavailable.', requestId: res.headers['x-request-id'] });
   });
 
+  it('are in the body of the 503 health answers while the database is unreachable', async () => {
+    const { createDataSource } = await import('../../../server/db/create-data-source.js');
+    // A data source never connected: every query fails as it does while the database is down.
+    const down = createDataSource({ ...env.config, DB_PORT: 1 });
+    const downApp = createApp({ ...(env.app.locals.ctx as AppContext), db: down });
+    const res = await request(downApp).get('/api/health').set('X-Request-Id', 'health-check-1');
+    expect(res.status).toBe(503);
+    expect(res.body).toMatchObject({ status: 'degraded', db: 'down', requestId: 'health-check-1' });
+  });
+
   it('are not in the body of a 4xx', async () => {
     const res = await request(env.app).get('/api/no-such-route');
     expect(res.body.error.requestId).toBeUndefined();
