@@ -40,3 +40,6 @@ export type Windings = (typeof WINDINGS)[number];
 /** Winding conductor material (case format `unit.conductor`). */
 export const CONDUCTORS = ['Cu', 'Al'] as const;
 export type Conductor = (typeof CONDUCTORS)[number];
+
+/** Sort keys of the fleet list (`GET /api/units?sort=`); a leading `-` sorts descending. */
+export const UNIT_SORTS = ['serial', '-serial', 'site', '-site', 'design', '-design', 'lastEventAt', '-lastEventAt', 'lastRecommendation', '-lastRecommendation'] as const;

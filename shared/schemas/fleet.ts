@@ -15,7 +15,8 @@ import {
   sweepWindingSchema,
   windingsSchema,
 } from './case.js';
-import { EVENT_STATUSES, RECOMMENDATIONS, UNIT_READING_SET_KINDS } from './enums.js';
+import { EVENT_STATUSES, RECOMMENDATIONS, UNIT_READING_SET_KINDS, UNIT_SORTS } from './enums.js';
+export { UNIT_SORTS };
 
 // Request bodies of the fleet, reading and event routes (api.md), shared by server validation and client forms.
 
@@ -79,7 +80,6 @@ export const unitBodySchema = z.object({
 });
 export const unitPatchSchema = unitBodySchema.partial();
 
-export const UNIT_SORTS = ['serial', '-serial', 'site', '-site', 'design', '-design', 'lastEventAt', '-lastEventAt', 'lastRecommendation', '-lastRecommendation'] as const;
 export const unitListQuerySchema = z.object({
   q: z.string().trim().max(60).optional(),
   siteId: z.coerce.number().int().positive().optional(),

@@ -1,6 +1,7 @@
 // The fleet — GET /api/units (paged, sorted, filtered on the server) and GET /api/units/:id (the unit file).
 import type { z } from 'zod';
-import type { ReadingSetBody, UNIT_SORTS, unitListQuerySchema } from '../../shared/schemas/fleet';
+import type { ReadingSetBody, unitListQuerySchema } from '../../shared/schemas/fleet';
+import type { UNIT_SORTS } from '../../shared/schemas/enums';
 import type {
   CreatedReadingSet,
   ReadingSetConditions,
