@@ -11,7 +11,7 @@ import { CAUTIONS } from '../../../shared/screening/verdict.js';
 import { buildManagerMail } from '../../../server/reports/manager-mail.js';
 import { buildReportDocDefinition } from '../../../server/reports/screening-report.js';
 import type { ScreeningReportData } from '../../../server/reports/report-data.js';
-import { recentEventReport } from './report-fixtures.js';
+import { caseReport } from './report-fixtures.js';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
 const casesDir = path.join(root, 'examples/cases');
@@ -31,26 +31,8 @@ function loadCase(file: string): GapsightCase {
 
 /** A stored screening of the case as the engine screens it today. */
 function screened(c: GapsightCase): ScreeningReportData {
-  const base = recentEventReport();
-  return {
-    ...base,
-    screening: { ...base.screening, criteriaVersion: 2 },
-    event: {
-      ...base.event,
-      occurredAt: c.fault?.occurredAt ?? base.event.occurredAt,
-      type: c.fault?.type ?? base.event.type,
-      side: c.fault?.side ?? base.event.side,
-      transformerTripped: c.fault?.transformerTripped ?? true,
-      protectionOperated: c.fault?.protectionOperated ?? [],
-      priorHighDutyCount: 0,
-      priorHighDutySince: null,
-    },
-    unit: { ...base.unit, serial: c.unit.serial },
-    site: { name: 'Millbrook', timeZone: 'Europe/London' },
-    case: c,
-    result: screenCase(c, criteriaV2),
-    criteria: criteriaV2,
-  };
+  const stored = caseReport(c, screenCase(c, criteriaV2));
+  return { ...stored, screening: { ...stored.screening, criteriaVersion: 2 }, criteria: criteriaV2 };
 }
 
 const inService = (c: GapsightCase): GapsightCase => (c.fault ? { ...c, fault: { ...c.fault, transformerTripped: false } } : c);

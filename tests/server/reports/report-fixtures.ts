@@ -86,11 +86,9 @@ export function internalFaultReport(): ScreeningReportData {
   };
 }
 
-/** Any examples/cases/<name>.json with its stored result, dressed as a stored screening at Millbrook. */
-export function exampleCaseReport(name: string): ScreeningReportData {
+/** A case with a result, dressed as a stored screening at Millbrook (the fault's facts taken from the case). */
+export function caseReport(c: GapsightCase, result: GapsightResult): ScreeningReportData {
   const base = recentEventReport();
-  const c = readJson<GapsightCase>(`examples/cases/${name}.json`);
-  const result = readJson<GapsightResult>(`examples/cases/${name}.result.json`);
   return {
     ...base,
     event: {
@@ -108,6 +106,11 @@ export function exampleCaseReport(name: string): ScreeningReportData {
     case: c,
     result,
   };
+}
+
+/** Any examples/cases/<name>.json with its stored result, dressed as a stored screening at Millbrook. */
+export function exampleCaseReport(name: string): ScreeningReportData {
+  return caseReport(readJson<GapsightCase>(`examples/cases/${name}.json`), readJson<GapsightResult>(`examples/cases/${name}.result.json`));
 }
 
 // ---------------------------------------------------------------------------------------------------------------------
