@@ -5,24 +5,11 @@ import { Quasar } from 'quasar';
 import { describe, expect, it } from 'vitest';
 import EventDutyFigures from '../../../src/components/event/EventDutyFigures.vue';
 import type { ThroughFault } from '../../../shared/schemas/result';
+import { screeningResult } from '../pages/fixtures';
 
 // The case-format worked example: 40 MVA, 10.5 %, category IV, 6.3 kA on the LV side (9.0023 × rated line).
 const highDuty: ThroughFault = {
-  category: 'IV',
-  ratedCurrentA: 699.819,
-  currentPerUnit: 9.0023,
-  maxCurrentPerUnit: 9.5238,
-  forceRatioPercent: 89.35,
-  segmentStartPerUnit: 4.7619,
-  highDuty: true,
-  i2t: 15.803,
-  thermalLimitI2t: 1250,
-  mechanicalLimitI2t: 181.41,
-  eventDutyPercent: 8.71,
-  beyondCurve: false,
-  cumulativeI2t: 23.568,
-  cumulativeDutyPercent: 12.99,
-  shotsAboveSegment: 3,
+  ...screeningResult().throughFault!,
   windingCurrentFactor: 1,
   currentBasis: 'line-converted',
   thermalDurationPercent: null,

@@ -51,6 +51,34 @@ export function unitItem(overrides: Partial<UnitListItem> = {}): UnitListItem {
   };
 }
 
+type ReadingSet = UnitDetail['readingSets'][number];
+
+/** A reading set of unit 3 as the API gives it: tap 9b, entered by user 7, no other conditions unless given. */
+function readingSet(set: Pick<ReadingSet, 'id' | 'kind' | 'takenAt' | 'createdAt' | 'values'> & Partial<ReadingSet>): ReadingSet {
+  return {
+    unitId: 3,
+    eventId: null,
+    isReference: false,
+    temperatureC: null,
+    topOilC: null,
+    bottomOilC: null,
+    ambientC: null,
+    humidityPercent: null,
+    tapPosition: '9b',
+    instrument: null,
+    instrumentSerial: null,
+    testKV: null,
+    testFrequencyHz: null,
+    hoursDeenergised: null,
+    demagnetised: null,
+    windingTemperatureC: null,
+    notes: null,
+    createdById: 7,
+    sweeps: [],
+    ...set,
+  };
+}
+
 export function unitDetail(overrides: Partial<UnitDetail> = {}): UnitDetail {
   const { siteName: _s, siteTimeZone: _t, designReference: _d, ...unit } = unitItem();
   return {
@@ -58,54 +86,21 @@ export function unitDetail(overrides: Partial<UnitDetail> = {}): UnitDetail {
     site: { id: 1, name: 'Harrow Cross', timeZone: 'Europe/London' },
     design: design40,
     readingSets: [
-      {
+      readingSet({
         id: 21,
-        unitId: 3,
         kind: 'routine',
-        eventId: null,
-        isReference: false,
         takenAt: '2024-06-20T09:00:00.000Z',
         temperatureC: 24,
-        topOilC: null,
-        bottomOilC: null,
-        ambientC: null,
-        humidityPercent: null,
-        tapPosition: '9b',
         instrument: 'Invented CP-100',
         instrumentSerial: 'S-118',
-        testKV: null,
-        testFrequencyHz: null,
-        hoursDeenergised: null,
-        demagnetised: null,
-        windingTemperatureC: null,
-        notes: null,
-        createdById: 7,
         createdAt: '2024-06-20T12:00:00.000Z',
         values: { takenAt: '2024-06-20', capacitancePF: { CH: 3124, CL: 9881, CHL: 5222 } },
-        sweeps: [],
-      },
-      {
+      }),
+      readingSet({
         id: 20,
-        unitId: 3,
         kind: 'factory',
-        eventId: null,
-        isReference: false,
         takenAt: '2019-05-02T08:00:00.000Z',
         temperatureC: 28,
-        topOilC: null,
-        bottomOilC: null,
-        ambientC: null,
-        humidityPercent: null,
-        tapPosition: '9b',
-        instrument: null,
-        instrumentSerial: null,
-        testKV: null,
-        testFrequencyHz: null,
-        hoursDeenergised: null,
-        demagnetised: null,
-        windingTemperatureC: null,
-        notes: null,
-        createdById: 7,
         createdAt: '2019-05-02T12:00:00.000Z',
         values: {
           takenAt: '2019-05-02',
@@ -113,8 +108,7 @@ export function unitDetail(overrides: Partial<UnitDetail> = {}): UnitDetail {
           dissipationPercent: { CH: 0.28, CL: 0.31, CHL: 0.25 },
           reactance: { A: { percent: 11.62 }, B: { percent: 11.58 }, C: { percent: 11.66 } },
         },
-        sweeps: [],
-      },
+      }),
     ],
     events: [
       {
@@ -205,32 +199,21 @@ export function eventDetail(overrides: Partial<EventDetail> = {}): EventDetail {
     unit,
     throughFault: u.events[0].throughFault,
     sessions: [
-      {
+      readingSet({
         id: 31,
-        unitId: 3,
         kind: 'post-fault',
         eventId: 11,
-        isReference: false,
         takenAt: '2026-07-02T08:30:00.000Z',
         temperatureC: 31,
         topOilC: 33,
         bottomOilC: 29,
         ambientC: 18,
         humidityPercent: 60,
-        tapPosition: '9b',
         instrument: 'Invented CP-100',
         instrumentSerial: 'S-118',
-        testKV: null,
-        testFrequencyHz: null,
-        hoursDeenergised: null,
-        demagnetised: null,
-        windingTemperatureC: null,
-        notes: null,
-        createdById: 7,
         createdAt: '2026-07-02T09:00:00.000Z',
         values: { takenAt: '2026-07-02', capacitancePF: { CH: 3131, CL: 9990, CHL: 5405 }, dissipationPercent: { CH: 0.3 } },
-        sweeps: [],
-      },
+      }),
     ],
     screenings: [],
     decision: null,

@@ -7,6 +7,7 @@ import { parseCase } from '../../../shared/schemas/case.js';
 import { criteriaV2, screenCase } from '../../../shared/screening/index.js';
 import { apiForFile } from '../../helpers/api-file.js';
 import { makeUnit } from '../../helpers/factories.js';
+import { sweepCsv } from '../../helpers/sweep-csv.js';
 
 const file = apiForFile(['protection', 'tester']);
 const { api, as } = file;
@@ -19,15 +20,6 @@ async function logFault(unitId: number, over: Record<string, unknown> = {}) {
     .send({ unitId, occurredAt: '2026-11-28T03:12:00Z', type: 'three-phase', side: 'lv', shots: [{ currentKA: 6.3, durationS: 0.12 }, { currentKA: 6.1, durationS: 0.08 }], protectionOperated: ['overcurrent'], ...over });
   expect(res.status).toBe(201);
   return res.body as { id: number; status: string; throughFault: Record<string, number | boolean | string> };
-}
-
-function sweepCsv(shift = 0): string {
-  const lines = ['frequencyHz,magnitudeDb'];
-  for (let i = 0; i < 60; i++) {
-    const f = 20 * Math.pow(10, (i * 4.7) / 59);
-    lines.push(`${f.toFixed(3)},${(-40 - 10 * Math.sin(i / 5) + (f < 100000 ? shift : 0)).toFixed(3)}`);
-  }
-  return lines.join('\n') + '\n';
 }
 
 describe('POST /api/events', () => {

@@ -7,6 +7,7 @@ import { SweepTrace } from '../../../server/features/readings/sweep-trace.entity
 import { parseCase } from '../../../shared/schemas/case.js';
 import { apiForFile } from '../../helpers/api-file.js';
 import { makeUnit } from '../../helpers/factories.js';
+import { sweepCsv } from '../../helpers/sweep-csv.js';
 
 // Rules revision 2 fields through the API: stored, exported in the event's case, bad values named (400, nothing written).
 // Invented demo values of a 40 MVA 132/33 kV YNd1 unit (Kestrel Valley Power style), not check values.
@@ -30,15 +31,6 @@ async function exportCase(eventId: number) {
   const parsed = parseCase(res.body);
   expect(parsed.ok, JSON.stringify(parsed.ok ? '' : parsed.errors)).toBe(true);
   return res.body;
-}
-
-function sweepCsv(shift = 0): string {
-  const lines = ['frequencyHz,magnitudeDb'];
-  for (let i = 0; i < 60; i++) {
-    const f = 20 * Math.pow(10, (i * 4.7) / 59);
-    lines.push(`${f.toFixed(3)},${(-40 - 10 * Math.sin(i / 5) + (f < 100000 ? shift : 0)).toFixed(3)}`);
-  }
-  return lines.join('\n') + '\n';
 }
 
 const setsOf = (unitId: number) => file.env.db.getRepository(ReadingSet).find({ where: { unitId }, order: { takenAt: 'ASC', id: 'ASC' } });

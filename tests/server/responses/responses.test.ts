@@ -29,6 +29,7 @@ import {
 } from '../../../shared/schemas/responses/index.js';
 import { bearer, createTestUser, openTestEnv, TEST_PASSWORD, type TestEnv } from '../../helpers/db.js';
 import { makeDesign, makeSite, makeUnit } from '../../helpers/factories.js';
+import { sweepCsv } from '../../helpers/sweep-csv.js';
 
 let env: TestEnv;
 let tester: { Authorization: string };
@@ -50,15 +51,6 @@ function expectAnswer<S extends z.ZodType>(schema: S, body: unknown): z.infer<S>
   const parsed = schema.safeParse(body);
   expect(parsed.error?.issues ?? []).toEqual([]);
   return parsed.data as z.infer<S>;
-}
-
-function sweepCsv(shift = 0): string {
-  const lines = ['frequencyHz,magnitudeDb'];
-  for (let i = 0; i < 60; i++) {
-    const f = 20 * Math.pow(10, (i * 4.7) / 59);
-    lines.push(`${f.toFixed(3)},${(-40 - 10 * Math.sin(i / 5) + (f < 100000 ? shift : 0)).toFixed(3)}`);
-  }
-  return lines.join('\n') + '\n';
 }
 
 // Invented demo values: a 40 MVA 132/33 kV unit with a factory set, a fault, one post-fault session, a screening,
