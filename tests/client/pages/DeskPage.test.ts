@@ -2,41 +2,16 @@ import { enableAutoUnmount } from '@vue/test-utils';
 import { afterEach, describe, expect, it } from 'vitest';
 import type { EventListItem } from '../../../src/api/events';
 import { healthy, makeUser, mountApp, resetClientState, scriptFetch, storeToken } from '../helpers';
+import { eventListItem } from './fixtures';
 
 enableAutoUnmount(afterEach);
 
-function listItem(overrides: Partial<EventListItem> = {}): EventListItem {
-  return {
-    id: 11,
-    unitId: 3,
-    occurredAt: '2026-07-01T03:12:00.000Z',
-    type: 'three-phase',
-    faultedPhases: 'ABC',
-    side: 'lv',
-    location: null,
-    currentIs: null,
-    shots: [{ currentKA: 6.3, durationS: 0.12 }],
-    transformerTripped: true,
-    protectionOperated: ['overcurrent'],
-    notes: null,
-    status: 'testing',
-    createdById: 5,
-    createdAt: '2026-07-01T04:00:00.000Z',
-    unitSerial: 'KVP-HX-T2',
-    siteId: 1,
-    siteName: 'Harrow Cross',
-    siteTimeZone: 'Europe/London',
-    recommendation: null,
-    ...overrides,
-  };
-}
-
 // Events by status, answered by GET /api/events?status=… (the query decides the page).
 const EVENTS: Record<string, EventListItem[]> = {
-  logged: [listItem({ id: 14, status: 'logged', unitSerial: 'KVP-QL-T1', siteName: 'Quarry Lane', occurredAt: '2026-07-04T22:05:00.000Z' })],
-  testing: [listItem()],
-  screened: [listItem({ id: 12, status: 'screened', unitSerial: 'KVP-MB-T3', siteName: 'Millbrook', recommendation: 'no-go' })],
-  released: [listItem({ id: 4, status: 'released', occurredAt: '2024-02-11T18:40:00.000Z', recommendation: 'conditional' })],
+  logged: [eventListItem({ id: 14, status: 'logged', unitSerial: 'KVP-QL-T1', siteName: 'Quarry Lane', occurredAt: '2026-07-04T22:05:00.000Z' })],
+  testing: [eventListItem()],
+  screened: [eventListItem({ id: 12, status: 'screened', unitSerial: 'KVP-MB-T3', siteName: 'Millbrook', recommendation: 'no-go' })],
+  released: [eventListItem({ id: 4, status: 'released', occurredAt: '2024-02-11T18:40:00.000Z', recommendation: 'conditional' })],
   held: [],
 };
 

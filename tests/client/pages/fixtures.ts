@@ -1,5 +1,5 @@
 // Invented Kestrel Valley records shaped like the API's answers, for the page tests.
-import type { EventDetail, StoredScreening } from '../../../src/api/events';
+import type { EventDetail, EventListItem, StoredScreening } from '../../../src/api/events';
 import type { GapsightResult } from '../../../shared/schemas/result';
 import type { UnitDetail, UnitListItem } from '../../../src/api/units';
 import type { Design } from '../../../src/api/designs';
@@ -174,28 +174,46 @@ export function unitDetail(overrides: Partial<UnitDetail> = {}): UnitDetail {
   };
 }
 
+/** Event 11 on unit 3 as stored: the fields the event list and the event file share. */
+const event11 = {
+  id: 11,
+  unitId: 3,
+  occurredAt: '2026-07-01T03:12:00.000Z',
+  type: 'three-phase',
+  faultedPhases: 'ABC',
+  side: 'lv',
+  location: null,
+  currentIs: null,
+  shots: [
+    { currentKA: 6.3, durationS: 0.12 },
+    { currentKA: 6.1, durationS: 0.08 },
+  ],
+  transformerTripped: true,
+  protectionOperated: ['overcurrent'],
+  notes: 'Cable fault on the 33 kV feeder 4.',
+  status: 'testing',
+  createdById: 5,
+  createdAt: '2026-07-01T04:00:00.000Z',
+} satisfies Partial<EventListItem & EventDetail>;
+
+/** Event 11 as a row of the event list (desk), at Harrow Cross, not screened yet. */
+export function eventListItem(overrides: Partial<EventListItem> = {}): EventListItem {
+  return {
+    ...event11,
+    unitSerial: 'KVP-HX-T2',
+    siteId: 1,
+    siteName: 'Harrow Cross',
+    siteTimeZone: 'Europe/London',
+    recommendation: null,
+    ...overrides,
+  };
+}
+
 export function eventDetail(overrides: Partial<EventDetail> = {}): EventDetail {
   const u = unitDetail();
   const { readingSets: _r, events: _e, ...unit } = u;
   return {
-    id: 11,
-    unitId: 3,
-    occurredAt: '2026-07-01T03:12:00.000Z',
-    type: 'three-phase',
-    faultedPhases: 'ABC',
-    side: 'lv',
-    location: null,
-    currentIs: null,
-    shots: [
-      { currentKA: 6.3, durationS: 0.12 },
-      { currentKA: 6.1, durationS: 0.08 },
-    ],
-    transformerTripped: true,
-    protectionOperated: ['overcurrent'],
-    notes: 'Cable fault on the 33 kV feeder 4.',
-    status: 'testing',
-    createdById: 5,
-    createdAt: '2026-07-01T04:00:00.000Z',
+    ...event11,
     unit,
     throughFault: u.events[0].throughFault,
     sessions: [
