@@ -51,6 +51,19 @@ export function unitItem(overrides: Partial<UnitListItem> = {}): UnitListItem {
   };
 }
 
+/** The case-format worked example's fault on unit 3 (40 MVA, 10.5 %, 6.3 kA on the LV side): category IV, high duty. */
+const workedExampleLevel = {
+  category: 'IV',
+  ratedCurrentA: 699.819,
+  currentPerUnit: 9.0023,
+  maxCurrentPerUnit: 9.5238,
+  forceRatioPercent: 89.35,
+  segmentStartPerUnit: 4.7619,
+  highDuty: true,
+  thermalLimitI2t: 1250,
+  mechanicalLimitI2t: 181.41,
+} as const;
+
 type ReadingSet = UnitDetail['readingSets'][number];
 
 /** A reading set of unit 3 as the API gives it: tap 9b, entered by user 7, no other conditions unless given. */
@@ -123,16 +136,8 @@ export function unitDetail(overrides: Partial<UnitDetail> = {}): UnitDetail {
         protectionOperated: ['overcurrent'],
         shots: [{ currentKA: 6.3, durationS: 0.12 }],
         throughFault: {
-          category: 'IV',
-          ratedCurrentA: 699.819,
-          currentPerUnit: 9.0023,
-          maxCurrentPerUnit: 9.5238,
-          forceRatioPercent: 89.35,
-          segmentStartPerUnit: 4.7619,
-          highDuty: true,
+          ...workedExampleLevel,
           i2t: 9.725,
-          thermalLimitI2t: 1250,
-          mechanicalLimitI2t: 181.41,
           eventDutyPercent: 5.36,
           beyondCurve: false,
           cumulativeI2t: 9.725,
@@ -272,16 +277,8 @@ export function screeningResult(overrides: Partial<GapsightResult> = {}): Gapsig
     ],
     cautions: ['The recommendation is decision support for qualified staff.'],
     throughFault: {
-      category: 'IV',
-      ratedCurrentA: 699.819,
-      currentPerUnit: 9.0023,
-      maxCurrentPerUnit: 9.5238,
-      forceRatioPercent: 89.35,
-      segmentStartPerUnit: 4.7619,
-      highDuty: true,
+      ...workedExampleLevel,
       i2t: 15.803,
-      thermalLimitI2t: 1250,
-      mechanicalLimitI2t: 181.41,
       eventDutyPercent: 8.71,
       beyondCurve: false,
       cumulativeI2t: 23.568,
