@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { currentIsSchema, faultSideSchema, faultTypeSchema, protectionSchema, readingSetSchema, shotSchema } from '../case.js';
 import { DECISION_OUTCOMES, EVENT_STATUSES, FINDING_CLASSIFICATIONS, NOTIFICATION_STATUSES, RECOMMENDATIONS } from '../enums.js';
 import { resultSchema, throughFaultSchema } from '../result.js';
-import { isoDateTime, rowId } from './common.js';
+import { isoDateTime, pageOf, rowId } from './common.js';
 import { designViewSchema, readingSetConditionsSchema, readingSetViewSchema, siteViewSchema, unitViewSchema } from './fleet.js';
 
 // Answers of the event routes (the event file and what hangs on it) and of the screening follow-on routes.
@@ -44,12 +44,7 @@ export const eventListItemSchema = eventViewSchema.extend({
 export type EventListItem = z.infer<typeof eventListItemSchema>;
 
 /** GET /api/events — one page of events. */
-export const eventListPageSchema = z.strictObject({
-  items: z.array(eventListItemSchema),
-  total: z.number().int().nonnegative(),
-  page: z.number().int().positive(),
-  pageSize: z.number().int().positive(),
-});
+export const eventListPageSchema = pageOf(eventListItemSchema);
 export type EventListPage = z.infer<typeof eventListPageSchema>;
 
 /** A stored screening run with its result document. */

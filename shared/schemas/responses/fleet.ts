@@ -14,7 +14,7 @@ import {
 } from '../case.js';
 import { EVENT_STATUSES, READING_SET_KINDS, RECOMMENDATIONS } from '../enums.js';
 import { throughFaultSchema } from '../result.js';
-import { isoDateTime, rowId } from './common.js';
+import { isoDateTime, pageOf, rowId } from './common.js';
 
 // Answers of the site, design and unit routes (and the reading sets and sweep traces they list). Strict objects: a key
 // the server adds or drops fails the response tests. Case-format documents inside them (`values`) stay open.
@@ -101,12 +101,7 @@ export const unitListItemSchema = unitViewSchema.extend({
 export type UnitListItem = z.infer<typeof unitListItemSchema>;
 
 /** GET /api/units — one page of the fleet. */
-export const unitListPageSchema = z.strictObject({
-  items: z.array(unitListItemSchema),
-  total: z.number().int().nonnegative(),
-  page: z.number().int().positive(),
-  pageSize: z.number().int().positive(),
-});
+export const unitListPageSchema = pageOf(unitListItemSchema);
 export type UnitListPage = z.infer<typeof unitListPageSchema>;
 
 /** A sweep trace without its points (POST /api/units/:id/sweeps, POST /api/sessions/:id/sweeps, and in lists). */
