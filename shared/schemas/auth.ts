@@ -21,10 +21,14 @@ export const userCreateSchema = z.object({
 });
 export type UserCreate = z.infer<typeof userCreateSchema>;
 
+/** POST /api/users: the person without a password; the server makes a one-time password and answers it once. */
+export const userCreateBodySchema = userCreateSchema.omit({ password: true });
+export type UserCreateBody = z.infer<typeof userCreateBodySchema>;
+
+/** PATCH /api/users/:id: name, roles, sites, active. A new password only through reset-password. */
 export const userPatchSchema = z
   .object({
-    name: z.string().trim().min(1).max(120),
-    password: passwordSchema,
+    name: z.string().trim().min(1, 'required').max(120),
     roles: z.array(roleSchema).min(1, 'at least one role'),
     siteIds: z.array(z.number().int().positive()),
     allSites: z.boolean(),

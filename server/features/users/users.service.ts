@@ -1,12 +1,14 @@
 import bcrypt from 'bcryptjs';
+import { randomBytes } from 'node:crypto';
 import { In, type EntityManager } from 'typeorm';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
-import type { UserCreate, UserDto, UserPatch } from '../../../shared/schemas/auth.js';
+import type { UserCreate, UserCreateBody, UserDto, UserPatch } from '../../../shared/schemas/auth.js';
+import type { PersonView, PersonWithPassword } from '../../../shared/schemas/responses/admin.js';
 import { Site } from '../sites/site.entity.js';
 import { User } from './user.entity.js';
-import { toUserDto } from './user.mapper.js';
+import { toPersonView, toUserDto } from './user.mapper.js';
 
 export const BCRYPT_COST = 10;
 
@@ -18,10 +20,30 @@ async function sitesByIds(m: EntityManager, ids: number[]): Promise<Site[]> {
   return sites;
 }
 
-/** Lists every user, by name. */
-export async function listUsers(m: EntityManager): Promise<UserDto[]> {
+/** Lists every person, by name, with any sign-in lock still running. */
+export async function listUsers(m: EntityManager, clock: Clock): Promise<PersonView[]> {
   const users = await m.getRepository(User).find({ relations: { sites: true }, order: { name: 'ASC' } });
-  return users.map(toUserDto);
+  const now = clock.now();
+  return users.map((u) => toPersonView(u, now));
+}
+
+/** A one-time password: 12 random bytes, 16 characters of base64url. */
+function newOneTimePassword(): string {
+  return randomBytes(12).toString('base64url');
+}
+
+/** POST /api/users: creates the person with a one-time password, answered this once (only its hash is stored). */
+export async function createPerson(m: EntityManager, clock: Clock, actorId: number, input: UserCreateBody): Promise<PersonWithPassword> {
+  const oneTimePassword = newOneTimePassword();
+  const dto = await createUser(m, clock, actorId, { ...input, password: oneTimePassword });
+  const user = await loadUser(m, dto.id);
+  return { ...toPersonView(user, clock.now()), oneTimePassword };
+}
+
+async function loadUser(m: EntityManager, id: number): Promise<User> {
+  const user = await m.getRepository(User).findOne({ where: { id }, relations: { sites: true } });
+  if (!user) throw notFound('User');
+  return user;
 }
 
 /** Creates a user (audited); the e-mail must be new. */
@@ -48,28 +70,73 @@ export async function createUser(m: EntityManager, clock: Clock, actorId: number
   return dto;
 }
 
-/** Changes a user (roles, sites, name, password, active), audited with before and after. */
-export async function updateUser(m: EntityManager, clock: Clock, actorId: number, id: number, patch: UserPatch): Promise<UserDto> {
-  const repo = m.getRepository(User);
-  const user = await repo.findOne({ where: { id }, relations: { sites: true } });
-  if (!user) throw notFound('User');
-  const before = toUserDto(user);
-  if (patch.active === false && id === actorId) {
-    throw new AppError('invalid_input', 'You cannot deactivate your own account.', 400, { active: 'not for your own account' });
+/**
+ * Changes a person (name, roles, sites, active), audited with before and after. Nobody removes their own admin role or
+ * deactivates themself (409): the actor is an active administrator, so one always remains. The active administrators
+ * are locked and counted too, so two administrators demoting each other at once cannot leave none.
+ */
+export async function updateUser(m: EntityManager, clock: Clock, actorId: number, id: number, patch: UserPatch): Promise<PersonView> {
+  const user = await loadUser(m, id);
+  const now = clock.now();
+  const before = toPersonView(user, now);
+  if (id === actorId && patch.active === false) {
+    throw new AppError('own_account', 'You cannot deactivate your own account: another administrator must do it.', 409, { active: 'not for your own account' });
   }
+  if (id === actorId && patch.roles !== undefined && user.roles.includes('admin') && !patch.roles.includes('admin')) {
+    throw new AppError('own_admin_role', 'You cannot remove the administrator role from yourself: another administrator must do it.', 409, {
+      roles: 'you cannot remove your own administrator role',
+    });
+  }
+  const wasAdmin = user.active && user.roles.includes('admin');
   if (patch.name !== undefined) user.name = patch.name;
   if (patch.roles !== undefined) user.roles = [...new Set(patch.roles)];
   if (patch.allSites !== undefined) user.allSites = patch.allSites;
   if (patch.active !== undefined) user.active = patch.active;
   if (patch.siteIds !== undefined) user.sites = await sitesByIds(m, patch.siteIds);
-  if (patch.password !== undefined) {
-    user.passwordHash = await bcrypt.hash(patch.password, BCRYPT_COST);
-    user.failedSignIns = 0;
-    user.lockedUntil = null;
+  if (wasAdmin && !(user.active && user.roles.includes('admin')) && (await otherActiveAdmins(m, id)) === 0) {
+    throw new AppError('last_admin', 'This is the last active administrator: give another person the administrator role first.', 409, {
+      [patch.active === false ? 'active' : 'roles']: 'the last active administrator',
+    });
   }
-  user.updatedAt = clock.now();
-  await repo.save(user);
-  const after = toUserDto(user);
-  await audit(m, clock, { userId: actorId, action: 'update', entity: 'user', entityId: id, before, after, note: patch.password ? 'password reset' : undefined });
+  user.updatedAt = now;
+  await m.getRepository(User).save(user);
+  const after = toPersonView(user, now);
+  await audit(m, clock, { userId: actorId, action: 'update', entity: 'user', entityId: id, before, after });
+  return after;
+}
+
+/** Active administrators other than this person, their rows locked until the request's transaction ends. */
+async function otherActiveAdmins(m: EntityManager, id: number): Promise<number> {
+  const rows: { id: number }[] = await m.query("SELECT id FROM `user` WHERE active = 1 AND JSON_CONTAINS(roles, '\"admin\"') AND id <> ? FOR UPDATE", [id]);
+  return rows.length;
+}
+
+/** POST /api/users/:id/reset-password: a new one-time password (answered once, stored hashed); clears a sign-in lock. */
+export async function resetPassword(m: EntityManager, clock: Clock, actorId: number, id: number): Promise<PersonWithPassword> {
+  const user = await loadUser(m, id);
+  const now = clock.now();
+  const before = toPersonView(user, now);
+  const oneTimePassword = newOneTimePassword();
+  user.passwordHash = await bcrypt.hash(oneTimePassword, BCRYPT_COST);
+  user.failedSignIns = 0;
+  user.lockedUntil = null;
+  user.updatedAt = now;
+  await m.getRepository(User).save(user);
+  const after = toPersonView(user, now);
+  await audit(m, clock, { userId: actorId, action: 'update', entity: 'user', entityId: id, before, after, note: 'password reset: one-time password issued' });
+  return { ...after, oneTimePassword };
+}
+
+/** POST /api/users/:id/unlock: ends a sign-in lock and clears the failure count (audited). */
+export async function unlockUser(m: EntityManager, clock: Clock, actorId: number, id: number): Promise<PersonView> {
+  const user = await loadUser(m, id);
+  const now = clock.now();
+  const before = { ...toPersonView(user, now), failedSignIns: user.failedSignIns };
+  user.failedSignIns = 0;
+  user.lockedUntil = null;
+  user.updatedAt = now;
+  await m.getRepository(User).save(user);
+  const after = toPersonView(user, now);
+  await audit(m, clock, { userId: actorId, action: 'update', entity: 'user', entityId: id, before, after: { ...after, failedSignIns: 0 }, note: 'sign-in unlocked' });
   return after;
 }

@@ -4,4 +4,5 @@ export * from './fleet.js';
 export * from './events.js';
 export * from './screenings.js';
 export * from './auth.js';
+export * from './admin.js';
 export * from './outbox.js';

@@ -1,0 +1,16 @@
+import { z } from 'zod';
+import { userViewSchema } from './auth.js';
+import { isoDateTime } from './common.js';
+
+// Answers of the administration routes for people (GET/POST/PATCH /api/users, reset-password, unlock).
+
+/** A person as the administration shows them: the user and, while sign-in is locked, until when. */
+export const personViewSchema = userViewSchema.extend({
+  /** End of the sign-in lock after too many failures; null when sign-in is not locked now. */
+  lockedUntil: isoDateTime.nullable(),
+});
+export type PersonView = z.infer<typeof personViewSchema>;
+
+/** POST /api/users and POST /api/users/:id/reset-password: the person and their one-time password, answered this once. */
+export const personWithPasswordSchema = personViewSchema.extend({ oneTimePassword: z.string().min(10) });
+export type PersonWithPassword = z.infer<typeof personWithPasswordSchema>;
