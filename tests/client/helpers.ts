@@ -110,3 +110,17 @@ export async function settle(): Promise<void> {
     await new Promise((resolve) => setTimeout(resolve, 0));
   }
 }
+
+/** Stubs the browser's save-a-file steps: the blobs handed to object URLs, and the link clicks (with their file name). */
+export function captureDownloads() {
+  const blobs: Blob[] = [];
+  vi.spyOn(URL, 'createObjectURL').mockImplementation((blob) => {
+    blobs.push(blob as Blob);
+    return 'blob:download';
+  });
+  vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
+  const clicked = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(() => undefined);
+  /** The file name of the n-th clicked download link. */
+  const fileName = (n = 0) => (clicked.mock.contexts[n] as HTMLAnchorElement).download;
+  return { blobs, fileName };
+}

@@ -2,7 +2,7 @@ import { enableAutoUnmount, type VueWrapper } from '@vue/test-utils';
 import { beforeAll, afterEach, describe, expect, it, vi } from 'vitest';
 import type { Role } from '../../../src/api/auth';
 import type { EventDetail } from '../../../src/api/events';
-import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type ScriptedResponse } from '../helpers';
+import { captureDownloads, healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type ScriptedResponse } from '../helpers';
 import { eventDetail, unitDetail } from './fixtures';
 
 enableAutoUnmount(afterEach);
@@ -339,20 +339,14 @@ describe('EventFilePage (/events/:id)', () => {
   it('downloads the case file as JSON from GET /api/events/:id/case', async () => {
     const caseDoc = { format: 'gapsight-case/1', unit: { serial: 'KVP-HX-T2' } };
     signedInAs(['engineer'], eventDetail(), { 'GET /api/events/11/case': { body: caseDoc } });
-    const blobs: Blob[] = [];
-    vi.spyOn(URL, 'createObjectURL').mockImplementation((blob) => {
-      blobs.push(blob as Blob);
-      return 'blob:case';
-    });
-    vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
-    const clicked = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(() => undefined);
+    const { blobs, fileName } = captureDownloads();
     const { wrapper } = await mountApp('/events/11');
 
     await wrapper.get('[data-test="case-file"]').trigger('click');
     await vi.waitFor(() => expect(blobs).toHaveLength(1));
 
     expect(JSON.parse(await blobs[0].text())).toEqual(caseDoc);
-    expect((clicked.mock.contexts[0] as HTMLAnchorElement).download).toBe('gapsight-case-event-11.json');
+    expect(fileName()).toBe('gapsight-case-event-11.json');
   });
 
   it('keeps the audit trail (who, when, what) in an expansion item', async () => {

@@ -4,7 +4,7 @@ import { enableAutoUnmount } from '@vue/test-utils';
 import { beforeAll, afterEach, describe, expect, it, vi } from 'vitest';
 import type { Role } from '../../../src/api/auth';
 import type { EventDetail } from '../../../src/api/events';
-import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken } from '../helpers';
+import { captureDownloads, healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken } from '../helpers';
 import { eventDetail, screenedEvent, screeningResult, storedScreening } from './fixtures';
 
 enableAutoUnmount(afterEach);
@@ -206,13 +206,7 @@ describe('EventFilePage — screening panel', () => {
     const { requests } = signedInAs(['manager'], screenedEvent(), {
       'GET /api/screenings/61/report.pdf': { body: '%PDF-1.7' },
     });
-    const blobs: Blob[] = [];
-    vi.spyOn(URL, 'createObjectURL').mockImplementation((blob) => {
-      blobs.push(blob as Blob);
-      return 'blob:report';
-    });
-    vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
-    const clicked = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(() => undefined);
+    const { blobs, fileName } = captureDownloads();
     const { wrapper } = await mountApp('/events/11');
 
     await wrapper.get('[data-test="report-pdf"]').trigger('click');
@@ -220,7 +214,7 @@ describe('EventFilePage — screening panel', () => {
 
     const get = requests.find((r) => r.url === '/api/screenings/61/report.pdf')!;
     expect(get.headers.authorization).toBe('Bearer valid');
-    expect((clicked.mock.contexts[0] as HTMLAnchorElement).download).toBe('gapsight-screening-61.pdf');
+    expect(fileName()).toBe('gapsight-screening-61.pdf');
   });
 
   it('keeps the empty state when only comparison runs exist, and lists them', async () => {

@@ -1,7 +1,7 @@
 import { enableAutoUnmount } from '@vue/test-utils';
 import Papa from 'papaparse';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest } from '../helpers';
+import { captureDownloads, healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest } from '../helpers';
 import { unitItem } from './fixtures';
 
 enableAutoUnmount(afterEach);
@@ -120,13 +120,7 @@ describe('UnitListPage (/units)', () => {
       const size = Number(q.get('pageSize'));
       return { items: many.slice((page - 1) * size, page * size), total: many.length };
     });
-    const blobs: Blob[] = [];
-    vi.spyOn(URL, 'createObjectURL').mockImplementation((blob) => {
-      blobs.push(blob as Blob);
-      return 'blob:fleet';
-    });
-    vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => undefined);
-    vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(() => undefined);
+    const { blobs } = captureDownloads();
     const { wrapper } = await mountApp('/units?recommendation=conditional');
 
     await wrapper.get('[data-test="export-csv"]').trigger('click');
