@@ -10,6 +10,7 @@ import { designRoutes } from './features/designs/designs.router.js';
 import { unitRoutes } from './features/units/units.router.js';
 import { eventRoutes } from './features/events/events.router.js';
 import { screeningRoutes } from './features/screenings/screenings.router.js';
+import { followUpRoutes } from './features/follow-ups/follow-ups.router.js';
 
 /** Every API route with who may call it; the router is built from this table and the role-matrix test reads it. */
 export const routeTable: RouteDef[] = [
@@ -21,6 +22,7 @@ export const routeTable: RouteDef[] = [
   ...unitRoutes,
   ...eventRoutes,
   ...screeningRoutes,
+  ...followUpRoutes,
   ...outboxRoutes,
 ];
 

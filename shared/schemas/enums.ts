@@ -43,3 +43,11 @@ export type Conductor = (typeof CONDUCTORS)[number];
 
 /** Sort keys of the fleet list (`GET /api/units?sort=`); a leading `-` sorts descending. */
 export const UNIT_SORTS = ['serial', '-serial', 'site', '-site', 'design', '-design', 'lastEventAt', '-lastEventAt', 'lastRecommendation', '-lastRecommendation'] as const;
+
+/** Sort keys of the event list (`GET /api/events?sort=`); a leading `-` sorts descending. */
+export const EVENT_SORTS = ['-occurredAt', 'occurredAt', 'serial', '-serial', 'status', '-status'] as const;
+export type EventSort = (typeof EVENT_SORTS)[number];
+
+/** Follow-up buckets of `GET /api/follow-ups?due=`: past due, due within the next 7 days, every open one. */
+export const FOLLOW_UP_DUE = ['overdue', 'week', 'open'] as const;
+export type FollowUpDue = (typeof FOLLOW_UP_DUE)[number];

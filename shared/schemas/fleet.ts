@@ -15,7 +15,8 @@ import {
   sweepWindingSchema,
   windingsSchema,
 } from './case.js';
-import { EVENT_STATUSES, RECOMMENDATIONS, UNIT_READING_SET_KINDS, UNIT_SORTS } from './enums.js';
+import { parseDateOrInstant } from '../lists.js';
+import { EVENT_SORTS, EVENT_STATUSES, FOLLOW_UP_DUE, RECOMMENDATIONS, UNIT_READING_SET_KINDS, UNIT_SORTS } from './enums.js';
 export { UNIT_SORTS };
 
 // Request bodies of the fleet, reading and event routes (api.md), shared by server validation and client forms.
@@ -187,14 +188,67 @@ export const eventBodySchema = z.object({
 });
 export type EventBody = z.infer<typeof eventBodySchema>;
 
-export const eventListQuerySchema = z.object({
-  status: z.enum(EVENT_STATUSES).optional(),
-  unitId: z.coerce.number().int().positive().optional(),
+/** A query parameter of one or several values (`status=logged,testing` or `status=logged&status=testing`). */
+function oneOrSeveral<T extends string>(values: readonly T[], what: string) {
+  return z.preprocess(
+    (v) => (v === undefined || v === '' ? undefined : (Array.isArray(v) ? v : [v]).flatMap((s) => String(s).split(',')).map((s) => s.trim()).filter(Boolean)),
+    z
+      .array(z.string())
+      .superRefine((list, ctx) => {
+        const bad = list.filter((s) => !(values as readonly string[]).includes(s));
+        if (bad.length) ctx.addIssue({ code: 'custom', message: `unknown ${what} ${bad.map((b) => `"${b.slice(0, 30)}"`).join(', ')}: one or several of ${values.join(', ')}` });
+      })
+      .transform((list) => [...new Set(list)] as T[])
+      .optional(),
+  );
+}
+
+/** An ISO date (a whole day, UTC) or an instant; `to` keeps the whole of its day. */
+function dateOrInstant(endOfDay: boolean) {
+  return z
+    .string()
+    .trim()
+    .transform((s, ctx) => {
+      const d = parseDateOrInstant(s, endOfDay);
+      if (!d) {
+        ctx.addIssue({ code: 'custom', message: 'an ISO date (2026-07-01) or date-time (2026-07-01T03:12:00Z)' });
+        return z.NEVER;
+      }
+      return d;
+    })
+    .optional();
+}
+
+export const eventListQuerySchema = z
+  .object({
+    /** Part of a unit serial. */
+    q: z.string().trim().max(60).optional(),
+    status: oneOrSeveral(EVENT_STATUSES, 'status'),
+    type: oneOrSeveral(faultTypeSchema.options, 'fault type'),
+    unitId: z.coerce.number().int().positive().optional(),
+    siteId: z.coerce.number().int().positive().optional(),
+    /** Fault time from (inclusive) and to (inclusive; a date keeps its whole day). */
+    from: dateOrInstant(false),
+    to: dateOrInstant(true),
+    /** Only events without a relay record attached. */
+    withoutAttachments: z.enum(['true', 'false'], { message: 'true or false' }).transform((v) => v === 'true').optional(),
+    sort: z.enum(EVENT_SORTS).default('-occurredAt'),
+    page: z.coerce.number().int().min(1).default(1),
+    pageSize: z.coerce.number().int().min(1).max(500).default(50),
+  })
+  .superRefine((q, ctx) => {
+    if (q.from && q.to && q.from.getTime() > q.to.getTime()) ctx.addIssue({ code: 'custom', path: ['to'], message: 'before from' });
+  });
+export type EventListQuery = z.infer<typeof eventListQuerySchema>;
+
+/** GET /api/follow-ups: the open follow-ups of a due bucket, across events, optionally of one site. */
+export const followUpListQuerySchema = z.object({
+  due: z.enum(FOLLOW_UP_DUE, { message: `one of ${FOLLOW_UP_DUE.join(', ')}` }).default('open'),
   siteId: z.coerce.number().int().positive().optional(),
-  sort: z.enum(['occurredAt', '-occurredAt']).default('-occurredAt'),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(50),
 });
+export type FollowUpListQuery = z.infer<typeof followUpListQuerySchema>;
 
 export const sweepUploadFieldsSchema = z.object({
   label: z.string().trim().min(1, 'required').max(60),

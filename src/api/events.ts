@@ -1,8 +1,9 @@
 // Fault events and what hangs on them: log a fault, the event file, relay records, sessions, readings CSV imports,
 // sweeps and the case document.
 import type { z } from 'zod';
-import type { GapsightCase } from '../../shared/schemas/case';
-import type { eventBodySchema, eventListQuerySchema, preFaultGasSchema, sessionBodySchema, sweepUploadFieldsSchema } from '../../shared/schemas/fleet';
+import type { FaultType, GapsightCase } from '../../shared/schemas/case';
+import type { EventSort, EventStatus } from '../../shared/schemas/enums';
+import type { eventBodySchema, preFaultGasSchema, sessionBodySchema, sweepUploadFieldsSchema } from '../../shared/schemas/fleet';
 import type {
   AttachmentView,
   AuditRow,
@@ -53,16 +54,33 @@ export type PreFaultGasBody = z.input<typeof preFaultGasSchema>;
 export type SessionBody = z.input<typeof sessionBodySchema>;
 /** Multipart fields of a sweep upload (sent as text). */
 export type SweepUploadFields = z.input<typeof sweepUploadFieldsSchema>;
-export type EventListQuery = Partial<z.output<typeof eventListQuerySchema>>;
+/** GET /api/events's query as the client sends it: several statuses or fault types go comma-separated. */
+export interface EventListQuery {
+  /** Part of a unit serial. */
+  q?: string;
+  status?: EventStatus | EventStatus[];
+  type?: FaultType | FaultType[];
+  unitId?: number;
+  siteId?: number;
+  /** ISO date or instant; `to` keeps the whole of a date's day. */
+  from?: string;
+  to?: string;
+  withoutAttachments?: boolean;
+  sort?: EventSort;
+  page?: number;
+  pageSize?: number;
+}
 
 // POST /api/events — log a fault; the answer carries its through-fault duty.
 export function createEvent(body: EventBody): Promise<CreatedEvent> {
   return api.post<CreatedEvent>('/events', body);
 }
 
-// GET /api/events — events newest first, by status, unit or site.
+// GET /api/events — one page of events: by unit serial, site, unit, statuses, fault types, dates, relay records; sorted.
 export function listEvents(query: EventListQuery = {}, signal?: AbortSignal): Promise<EventListPage> {
-  return api.get('/events', { query: { ...query }, signal });
+  const { status, type, ...rest } = query;
+  const list = (v: string | string[] | undefined) => (Array.isArray(v) ? v.join(',') : v);
+  return api.get('/events', { query: { ...rest, status: list(status), type: list(type) }, signal });
 }
 
 // GET /api/events/:id — the event file.

@@ -50,19 +50,36 @@ export async function eventThroughFault(m: EntityManager, e: FaultEvent, unit: U
   return dutyWithPriorFaults(caseUnit(unit), caseFault(e), prior.map((p) => ({ id: p.id, ...casePriorFault(p) })), e.id);
 }
 
-/** The event-list query of one page (exported so a test can EXPLAIN it): the event table alone, through its indexes. */
+const EVENT_SORT_COLUMNS: Record<string, string> = { occurredAt: 'e.occurredAt', serial: 'u.serial', status: 'e.status' };
+
+/**
+ * The event-list query of one page (exported so a test can EXPLAIN it): the event table through its indexes, the unit
+ * table only when sorting by serial; unit, site and serial filters are subqueries on the unit table's indexes.
+ */
 export function eventListQuery(m: EntityManager, q: z.infer<typeof eventListQuerySchema>) {
   const qb = m.getRepository(FaultEvent).createQueryBuilder('e');
-  if (q.status) qb.andWhere('e.status = :status', { status: q.status });
+  const key = q.sort.replace(/^-/, '');
+  const dir = q.sort.startsWith('-') ? 'DESC' : 'ASC';
+  if (key === 'serial') qb.innerJoin('e.unit', 'u');
+  if (q.status?.length) qb.andWhere('e.status IN (:...statuses)', { statuses: q.status });
+  if (q.type?.length) qb.andWhere('e.type IN (:...types)', { types: q.type });
   if (q.unitId) qb.andWhere('e.unitId = :unitId', { unitId: q.unitId });
   if (q.siteId) qb.andWhere('e.unitId IN (SELECT su.id FROM unit su WHERE su.siteId = :siteId)', { siteId: q.siteId });
-  const dir = q.sort.startsWith('-') ? 'DESC' : 'ASC';
-  qb.orderBy('e.occurredAt', dir).addOrderBy('e.id', dir);
+  if (q.q) qb.andWhere('e.unitId IN (SELECT qu.id FROM unit qu WHERE qu.serial LIKE :serial)', { serial: `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+  if (q.from) qb.andWhere('e.occurredAt >= :from', { from: q.from });
+  if (q.to) qb.andWhere('e.occurredAt <= :to', { to: q.to });
+  if (q.withoutAttachments !== undefined) {
+    qb.andWhere(`${q.withoutAttachments ? 'NOT ' : ''}EXISTS (SELECT 1 FROM attachment a WHERE a.ownerType = 'event' AND a.ownerId = e.id)`);
+  }
+  qb.orderBy(EVENT_SORT_COLUMNS[key], dir);
+  // Within one serial or status, newest first; by time, the id breaks ties the same way.
+  if (key === 'occurredAt') qb.addOrderBy('e.id', dir);
+  else qb.addOrderBy('e.occurredAt', 'DESC').addOrderBy('e.id', 'DESC');
   qb.offset((q.page - 1) * q.pageSize).limit(q.pageSize);
   return qb;
 }
 
-/** One page of events, newest first by default, filtered by status, unit or site; each with its unit, site and newest recommendation. */
+/** One page of events, newest first by default, filtered (unit serial, site, unit, statuses, fault types, dates, relay records) and sorted; each with its unit, site and newest recommendation. */
 export async function listEvents(m: EntityManager, q: z.infer<typeof eventListQuerySchema>) {
   const [events, total] = await eventListQuery(m, q).getManyAndCount();
   const units = events.length ? await m.getRepository(Unit).find({ where: { id: In([...new Set(events.map((e) => e.unitId))]) }, relations: { site: true } }) : [];

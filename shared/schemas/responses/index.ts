@@ -6,3 +6,4 @@ export * from './screenings.js';
 export * from './auth.js';
 export * from './admin.js';
 export * from './outbox.js';
+export * from './followups.js';

@@ -90,4 +90,20 @@ describe('EXPLAIN of the event list on 10 000 events', () => {
     const [sql, params] = eventListQuery(env.db.manager, eventListQuerySchema.parse({ unitId: String(unitIds[10]) })).getQueryAndParameters();
     expectIndexed(await explain(sql, params));
   });
+  const cases: Record<string, Record<string, string>> = {
+    'part of a serial': { q: 'BIG-' },
+    'several statuses, one fault type': { status: 'logged,testing', type: 'three-phase' },
+    'a date range, oldest first': { from: '2020-01-10', to: '2020-01-20', sort: 'occurredAt' },
+    'without relay records': { withoutAttachments: 'true' },
+    'by serial': { sort: 'serial' },
+    'by status, descending': { sort: '-status' },
+    'one site, by serial': { siteId: '', sort: '-serial' },
+  };
+  for (const [name, raw] of Object.entries(cases)) {
+    it(`uses indexes: ${name}`, async () => {
+      const q = eventListQuerySchema.parse({ ...raw, ...(raw.siteId !== undefined ? { siteId: String(siteId) } : {}) });
+      const [sql, params] = eventListQuery(env.db.manager, q).getQueryAndParameters();
+      expectIndexed(await explain(sql, params));
+    });
+  }
 });

@@ -49,8 +49,8 @@ const MAIN_FLOW: ReadonlyArray<readonly [string, Who]> = [
 
 // api.md, "Routes added with rules revision 2 and the administration work". Partly future work: a row missing from the
 // route table is not a failure. In the table today: GET/POST /users, PATCH /users/:id, POST /users/:id/reset-password,
-// POST /users/:id/unlock, GET /events/:id/attachments/:attachmentId, GET /sweeps/:id (and GET /events, also a main-flow
-// row).
+// POST /users/:id/unlock, GET /events/:id/attachments/:attachmentId, GET /sweeps/:id, GET /follow-ups (and GET /events, also a
+// main-flow row).
 const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['GET /users', ['admin']],
   ['POST /users', ['admin']],
