@@ -139,6 +139,23 @@ const readingSections = {
   windingTemperatureC: finite.min(-60, 'must be -60 or more (°C)').max(250, 'must be 250 or less (°C: check the unit)').optional(),
 };
 
+/** The reading sections a session correction may replace (each stored as reading rows). */
+export const SESSION_READING_SECTIONS = [
+  'capacitancePF',
+  'capacitanceModes',
+  'dissipationPercent',
+  'reactance',
+  'excitationCurrentMA',
+  'excitationKV',
+  'windingResistanceOhm',
+  'resistanceTemperatureC',
+  'turnsRatio',
+  'dissolvedGasPPM',
+  'dissipationByFrequency',
+  'bushings',
+] as const;
+export type SessionReadingSection = (typeof SESSION_READING_SECTIONS)[number];
+
 /** Both spellings of the hours de-energised may be given only when they agree. */
 function sameHours(body: { hoursDeEnergised?: number; hoursDeenergised?: number }, ctx: z.RefinementCtx) {
   if (body.hoursDeEnergised !== undefined && body.hoursDeenergised !== undefined && body.hoursDeEnergised !== body.hoursDeenergised) {
@@ -171,22 +188,96 @@ export const sessionBodySchema = readingSetSchema
   .superRefine(sameHours);
 export type SessionBody = z.infer<typeof sessionBodySchema>;
 
-export const eventBodySchema = z.object({
-  unitId: idSchema,
+/** Session conditions a correction may clear (null); `takenAt` is always kept. */
+const clearable = <T extends z.ZodType>(t: T) => t.nullable().optional();
+
+/**
+ * PATCH /api/sessions/:sessionId — a correction of a session's conditions and readings: only the fields named change
+ * (no defaults); a reading section named replaces that section (null or {} removes it); conditions may be cleared with
+ * null. Checked as on create.
+ */
+export const sessionPatchSchema = z
+  .strictObject({
+    takenAt: isoDateTime.optional(),
+    temperatureC: clearable(readingSetSchema.shape.temperatureC.unwrap()),
+    tapPosition: clearable(z.union([z.string().trim().min(1).max(20, 'at most 20 characters'), finite])),
+    topOilC: clearable(sessionConditions.topOilC.unwrap()),
+    bottomOilC: clearable(sessionConditions.bottomOilC.unwrap()),
+    ambientC: clearable(sessionConditions.ambientC.unwrap()),
+    humidityPercent: clearable(sessionConditions.humidityPercent.unwrap()),
+    instrument: clearable(sessionConditions.instrument.unwrap()),
+    instrumentSerial: clearable(sessionConditions.instrumentSerial.unwrap()),
+    testKV: clearable(sessionConditions.testKV.unwrap()),
+    testFrequencyHz: clearable(sessionConditions.testFrequencyHz.unwrap()),
+    hoursDeenergised: clearable(sessionConditions.hoursDeenergised.unwrap()),
+    hoursDeEnergised: clearable(readingSections.hoursDeEnergised.unwrap()),
+    demagnetised: clearable(readingSections.demagnetised.unwrap()),
+    windingTemperatureC: clearable(readingSections.windingTemperatureC.unwrap()),
+    notes: clearable(sessionConditions.notes.unwrap()),
+    capacitancePF: clearable(readingSections.capacitancePF.unwrap()),
+    capacitanceModes: clearable(readingSections.capacitanceModes.unwrap()),
+    dissipationPercent: clearable(readingSections.dissipationPercent.unwrap()),
+    reactance: clearable(readingSections.reactance.unwrap()),
+    excitationCurrentMA: clearable(readingSections.excitationCurrentMA.unwrap()),
+    excitationKV: clearable(readingSections.excitationKV.unwrap()),
+    windingResistanceOhm: clearable(readingSections.windingResistanceOhm.unwrap()),
+    resistanceTemperatureC: clearable(readingSections.resistanceTemperatureC.unwrap()),
+    turnsRatio: clearable(readingSections.turnsRatio.unwrap()),
+    dissolvedGasPPM: clearable(readingSections.dissolvedGasPPM.unwrap()),
+    dissipationByFrequency: clearable(readingSections.dissipationByFrequency.unwrap()),
+    bushings: clearable(readingSections.bushings.unwrap()),
+  })
+  .superRefine((body, ctx) => sameHours({ hoursDeEnergised: body.hoursDeEnergised ?? undefined, hoursDeenergised: body.hoursDeenergised ?? undefined }, ctx));
+export type SessionPatch = z.infer<typeof sessionPatchSchema>;
+
+/** A fault's facts as protection logs them (no defaults here: the correction schema below reuses them). */
+const eventFacts = {
   occurredAt: isoDateTime,
   type: faultTypeSchema,
   side: faultSideSchema,
   /** Side the fault was on (rules revision 2; default: `side`, where the current was measured). */
-  location: faultSideSchema.optional(),
+  location: faultSideSchema,
   /** What the shots' currents are (rules revision 2): `line` (default) or `winding`. */
-  currentIs: currentIsSchema.optional(),
-  faultedPhases: z.string().trim().regex(/^[ABCN]{1,4}$/, 'phases like A, BC or ABC').optional(),
+  currentIs: currentIsSchema,
+  faultedPhases: z.string().trim().regex(/^[ABCN]{1,4}$/, 'phases like A, BC or ABC'),
   shots: z.array(shotSchema.pick({ currentKA: true, durationS: true }).extend({ currentKA: finite.positive().max(500, 'above 500 kA: check the unit'), durationS: finite.positive().max(60, 'above 60 s: check the unit') })).min(1, 'at least one shot'),
-  transformerTripped: z.boolean().default(true),
-  protectionOperated: z.array(protectionSchema).default([]),
-  notes: z.string().max(5000).optional(),
+  transformerTripped: z.boolean(),
+  protectionOperated: z.array(protectionSchema),
+  notes: z.string().max(5000),
+};
+
+export const eventBodySchema = z.object({
+  unitId: idSchema,
+  occurredAt: eventFacts.occurredAt,
+  type: eventFacts.type,
+  side: eventFacts.side,
+  location: eventFacts.location.optional(),
+  currentIs: eventFacts.currentIs.optional(),
+  faultedPhases: eventFacts.faultedPhases.optional(),
+  shots: eventFacts.shots,
+  transformerTripped: eventFacts.transformerTripped.default(true),
+  protectionOperated: eventFacts.protectionOperated.default([]),
+  notes: eventFacts.notes.optional(),
 });
 export type EventBody = z.infer<typeof eventBodySchema>;
+
+/**
+ * PATCH /api/events/:eventId — a correction of a logged fault: only the fields named change (no defaults), checked as on
+ * create; the optional facts may be cleared with null. The unit is not a fact that can be corrected.
+ */
+export const eventPatchSchema = z.strictObject({
+  occurredAt: eventFacts.occurredAt.optional(),
+  type: eventFacts.type.optional(),
+  side: eventFacts.side.optional(),
+  location: eventFacts.location.nullable().optional(),
+  currentIs: eventFacts.currentIs.nullable().optional(),
+  faultedPhases: eventFacts.faultedPhases.nullable().optional(),
+  shots: eventFacts.shots.optional(),
+  transformerTripped: eventFacts.transformerTripped.optional(),
+  protectionOperated: eventFacts.protectionOperated.optional(),
+  notes: eventFacts.notes.nullable().optional(),
+});
+export type EventPatch = z.infer<typeof eventPatchSchema>;
 
 /** A query parameter of one or several values (`status=logged,testing` or `status=logged&status=testing`). */
 function oneOrSeveral<T extends string>(values: readonly T[], what: string) {

@@ -44,6 +44,14 @@ export const decisionBodySchema = z
   });
 export type DecisionBody = z.infer<typeof decisionBodySchema>;
 
+/** POST /api/events/:eventId/energised — when the released unit was re-energised. */
+export const energisedBodySchema = z.object({
+  at: z.string().min(1, 'required').refine((s) => !Number.isNaN(Date.parse(s)), { message: 'not an ISO 8601 date-time' }),
+});
+
+/** POST /api/events/:eventId/restrictions/lift — why the restrictions no longer apply. */
+export const liftRestrictionsBodySchema = z.object({ reason: z.string().trim().min(1, 'required').max(5000) });
+
 export const followUpCloseSchema = z.object({ result: z.string().trim().min(1, 'required').max(5000) });
 
 export const findingBodySchema = z.object({
@@ -73,4 +81,16 @@ export function proposedFollowUpDueAt(task: string, from: Date, eventAt?: Date):
   const hours = FOLLOW_UP_DUE_HOURS[task];
   const start = eventAt && COUNTED_FROM_EVENT.has(task) ? eventAt : from;
   return typeof hours === 'number' ? new Date(start.getTime() + hours * HOUR).toISOString() : null;
+}
+
+/**
+ * The new due date of a follow-up when the unit is re-energised at `energisedAt`: a task whose due date was counted from
+ * `from` (the decision, or an earlier re-energising) by the rule above is counted again from `energisedAt`. Tasks counted
+ * from the event, without a due date, or with a date the manager set keep theirs (null: unchanged).
+ */
+export function recountedFollowUpDueAt(task: string, dueAt: string | null, from: Date, energisedAt: Date, eventAt: Date): string | null {
+  if (dueAt === null || COUNTED_FROM_EVENT.has(task)) return null;
+  const counted = proposedFollowUpDueAt(task, from, eventAt);
+  if (counted === null || new Date(counted).getTime() !== new Date(dueAt).getTime()) return null;
+  return proposedFollowUpDueAt(task, energisedAt, eventAt);
 }

@@ -127,7 +127,7 @@ export async function getEvent(m: EntityManager, id: number) {
     order: { at: 'ASC', id: 'ASC' },
     take: 500,
   });
-  const userIds = [...new Set([e.createdById, ...sessions.map((s) => s.createdById), ...screenings.map((s) => s.computedById), ...decisions.map((d) => d.managerId), ...followUps.map((f) => f.closedById), ...findings.map((f) => f.recordedById), ...auditRows.map((a) => a.userId)].filter((x): x is number => typeof x === 'number'))];
+  const userIds = [...new Set([e.createdById, ...sessions.map((s) => s.createdById), ...screenings.map((s) => s.computedById), ...decisions.map((d) => d.managerId), ...decisions.map((d) => d.restrictionsLiftedById), ...followUps.map((f) => f.closedById), ...findings.map((f) => f.recordedById), ...auditRows.map((a) => a.userId)].filter((x): x is number => typeof x === 'number'))];
   const users = userIds.length ? await m.getRepository(User).find({ where: { id: In(userIds) } }) : [];
   const people = Object.fromEntries(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
   return {
@@ -173,5 +173,10 @@ export async function getEvent(m: EntityManager, id: number) {
     })),
     audit: auditRows.map((a) => ({ id: a.id, at: a.at.toISOString(), userId: a.userId, action: a.action, entity: a.entity, entityId: a.entityId, before: a.before, after: a.after, highlighted: a.highlighted, note: a.note })),
     people,
+    energisedAt: e.energisedAt?.toISOString() ?? null,
+    activeRestrictions: decisions[0]?.outcome === 'release-with-restrictions' && !decisions[0].restrictionsLiftedAt ? decisions[0].restrictions : null,
+    restrictionsLifted: decisions[0]?.restrictionsLiftedAt
+      ? { at: decisions[0].restrictionsLiftedAt.toISOString(), byId: decisions[0].restrictionsLiftedById, reason: decisions[0].restrictionsLiftReason ?? '' }
+      : null,
   } satisfies EventDetail;
 }

@@ -1,13 +1,13 @@
 import { fileReply, route, type RouteDef } from '../../route-def.js';
 import { attachmentParams, eventParams, sessionParams, sweepParams } from '../../common/params.js';
 import { UPLOAD_LIMITS } from '../../common/upload.js';
-import { eventBodySchema, eventListQuerySchema, sessionBodySchema, sweepUploadFieldsSchema } from '../../../shared/schemas/fleet.js';
+import { eventBodySchema, eventListQuerySchema, eventPatchSchema, sessionBodySchema, sessionPatchSchema, sweepUploadFieldsSchema } from '../../../shared/schemas/fleet.js';
 import { addEventAttachment, getEventAttachment } from '../attachments/attachments.service.js';
 import { getSweep, parseSweepUpload } from '../readings/sweeps.service.js';
 import { buildEventCase } from './case-export.service.js';
-import { logEvent } from './events.service.js';
+import { correctEvent, logEvent } from './events.service.js';
 import { getEvent, listEvents } from './events.query.js';
-import { addSessionSweep, createSession, importReadingsCsv } from './sessions.service.js';
+import { addSessionSweep, correctSession, createSession, importReadingsCsv } from './sessions.service.js';
 
 export const eventRoutes: RouteDef[] = [
   // POST /api/events — log a fault event; answers its through-fault duty
@@ -34,6 +34,15 @@ export const eventRoutes: RouteDef[] = [
     access: 'signed-in',
     params: eventParams,
     handler: ({ m, params }) => getEvent(m, params.eventId),
+  }),
+  // PATCH /api/events/:eventId — correct a logged fault's facts before a decision (409 after); answers the recomputed duty
+  route({
+    method: 'patch',
+    path: '/events/:eventId',
+    access: ['protection', 'admin'],
+    params: eventParams,
+    body: eventPatchSchema,
+    handler: ({ m, clock, user, params, body }) => correctEvent(m, clock, user.id, params.eventId, body),
   }),
   // GET /api/events/:eventId/case — the event as a gapsight-case/1 document
   route({
@@ -76,6 +85,15 @@ export const eventRoutes: RouteDef[] = [
     body: sessionBodySchema,
     status: 201,
     handler: ({ m, clock, user, params, body }) => createSession(m, clock, user.id, params.eventId, body),
+  }),
+  // PATCH /api/sessions/:sessionId — correct a session's conditions and readings before its screening is decided
+  route({
+    method: 'patch',
+    path: '/sessions/:sessionId',
+    access: ['tester', 'admin'],
+    params: sessionParams,
+    body: sessionPatchSchema,
+    handler: ({ m, clock, user, params, body }) => correctSession(m, clock, user.id, params.sessionId, body),
   }),
   // POST /api/sessions/:sessionId/imports — a readings CSV into a session: all rows or none
   route({

@@ -1,10 +1,13 @@
 import type { EntityManager } from 'typeorm';
-import type { EventBody } from '../../../shared/schemas/fleet.js';
-import type { CreatedEvent } from '../../../shared/schemas/responses/index.js';
+import { In } from 'typeorm';
+import type { EventBody, EventPatch } from '../../../shared/schemas/fleet.js';
+import type { CorrectedEvent, CreatedEvent } from '../../../shared/schemas/responses/index.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
+import { Decision } from '../screenings/decision.entity.js';
 import { Screening } from '../screenings/screening.entity.js';
+import { buildEventCase } from './case-export.service.js';
 import { Unit } from '../units/unit.entity.js';
 import { eventThroughFault, eventView } from './events.query.js';
 import { FaultEvent, type EventStatus } from './fault-event.entity.js';
@@ -111,4 +114,78 @@ export function eventAuditView(e: FaultEvent): Record<string, unknown> {
     notes: e.notes,
     status: e.status,
   };
+}
+
+/** A decision exists on one of the event's screenings (its inputs are then never changed). */
+export async function eventHasDecision(m: EntityManager, eventId: number, screenedSince?: Date): Promise<boolean> {
+  const screenings = await m.getRepository(Screening).find({ where: { eventId }, select: { id: true, computedAt: true } });
+  const used = screenedSince ? screenings.filter((s) => s.computedAt.getTime() >= screenedSince.getTime()) : screenings;
+  return used.length > 0 && (await m.getRepository(Decision).exists({ where: { screeningId: In(used.map((s) => s.id)) } }));
+}
+
+/** 409 once the event is released or held, or a screening of it (one that used `since`'s data, when given) is decided. */
+export async function assertCorrectable(m: EntityManager, event: FaultEvent, what: string, since?: Date): Promise<void> {
+  if (event.status === 'released' || event.status === 'held' || (await eventHasDecision(m, event.id, since))) {
+    throw new AppError('invalid_status', `${what}: the screening that used it is decided (the event is ${event.status}).`, 409);
+  }
+}
+
+/** The case the event's screening is computed from, as text (to tell whether a correction made a screening stale). */
+export async function caseText(m: EntityManager, eventId: number): Promise<string> {
+  return JSON.stringify(await buildEventCase(m, eventId));
+}
+
+/**
+ * A screened event whose case changed needs a new screening: it moves back to testing. Answers whether it did and
+ * the note the answer carries.
+ */
+export async function staleScreening(m: EntityManager, clock: Clock, eventId: number, caseBefore: string, userId: number, what: string) {
+  const event = await m.getRepository(FaultEvent).findOneByOrFail({ id: eventId });
+  if (event.status !== 'screened' || (await caseText(m, eventId)) === caseBefore) return { screeningStale: false, note: null, status: event.status };
+  await moveEvent(m, clock, eventId, 'testing', userId, `${what}: the screening used the earlier values`);
+  return { screeningStale: true, note: 'The screening used the earlier values: the event is back in testing and needs a new screening.', status: 'testing' as const };
+}
+
+const PATCH_FIELDS = ['occurredAt', 'type', 'side', 'location', 'currentIs', 'faultedPhases', 'shots', 'transformerTripped', 'protectionOperated', 'notes'] as const;
+
+/**
+ * Corrects a logged fault's facts before a decision (PATCH /api/events/:eventId): only the fields named change; audited
+ * with the changed fields before and after. Answers the event with its recomputed duty.
+ */
+export async function correctEvent(m: EntityManager, clock: Clock, userId: number, eventId: number, patch: EventPatch) {
+  const repo = m.getRepository(FaultEvent);
+  const event = await repo.findOne({ where: { id: eventId }, lock: { mode: 'pessimistic_write' } });
+  if (!event) throw notFound('Event');
+  await assertCorrectable(m, event, 'The fault cannot be corrected');
+  const caseBefore = await caseText(m, eventId);
+  const oldView = eventAuditView(event);
+  const changes: Partial<FaultEvent> = {};
+  for (const key of PATCH_FIELDS) {
+    const v = patch[key];
+    if (v === undefined) continue;
+    if (key === 'occurredAt') changes.occurredAt = new Date(v as string);
+    else if (key === 'shots') changes.shots = (v as EventPatch['shots'])!.map((s) => ({ currentKA: s.currentKA, durationS: s.durationS }));
+    else (changes as Record<string, unknown>)[key] = v;
+  }
+  Object.assign(event, changes);
+  const newView = eventAuditView(event);
+  const before: Record<string, unknown> = {};
+  const after: Record<string, unknown> = {};
+  for (const key of PATCH_FIELDS) {
+    if (JSON.stringify(oldView[key]) !== JSON.stringify(newView[key])) {
+      before[key] = oldView[key];
+      after[key] = newView[key];
+    }
+  }
+  let stale: { screeningStale: boolean; note: string | null } = { screeningStale: false, note: null };
+  if (Object.keys(after).length) {
+    await repo.update(event.id, { ...changes, updatedAt: clock.now() });
+    await audit(m, clock, { userId, action: 'update', entity: 'fault_event', entityId: event.id, before, after, note: 'Fault corrected' });
+    if ('occurredAt' in after) await refreshUnitLastEvent(m, clock, event.unitId);
+    const moved = await staleScreening(m, clock, event.id, caseBefore, userId, 'A correction of the fault');
+    stale = { screeningStale: moved.screeningStale, note: moved.note };
+  }
+  const fresh = await repo.findOneByOrFail({ id: event.id });
+  const unit = await m.getRepository(Unit).findOneOrFail({ where: { id: fresh.unitId }, relations: { design: true } });
+  return { ...eventView(fresh), throughFault: await eventThroughFault(m, fresh, unit), ...stale } satisfies CorrectedEvent;
 }

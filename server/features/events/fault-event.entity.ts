@@ -57,6 +57,10 @@ export class FaultEvent {
   @Column({ type: 'varchar', length: 12, default: 'logged' })
   status!: EventStatus;
 
+  /** When a released unit was actually re-energised (null: not recorded); follow-ups count from it. */
+  @Column({ type: 'datetime', precision: 3, nullable: true })
+  energisedAt!: Date | null;
+
   @Column({ type: 'int', unsigned: true, nullable: true })
   createdById!: number | null;
 

@@ -34,4 +34,14 @@ export class Decision {
 
   @Column({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   signedAt!: Date;
+
+  /** When the restrictions were lifted (null: active while the outcome is release-with-restrictions), by whom, why. */
+  @Column({ type: 'datetime', precision: 3, nullable: true })
+  restrictionsLiftedAt!: Date | null;
+
+  @Column({ type: 'int', unsigned: true, nullable: true })
+  restrictionsLiftedById!: number | null;
+
+  @Column({ type: 'text', nullable: true })
+  restrictionsLiftReason!: string | null;
 }

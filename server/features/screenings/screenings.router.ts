@@ -1,9 +1,9 @@
 import { fileReply, route, type RouteDef } from '../../route-def.js';
 import { caseSchema } from '../../../shared/schemas/case.js';
-import { decisionBodySchema, findingBodySchema, followUpCloseSchema, screeningRunBodySchema } from '../../../shared/schemas/screening.js';
+import { decisionBodySchema, energisedBodySchema, findingBodySchema, followUpCloseSchema, liftRestrictionsBodySchema, screeningRunBodySchema } from '../../../shared/schemas/screening.js';
 import { eventParams, followUpParams, screeningParams } from '../../common/params.js';
 import { screeningReportPdf } from '../../reports/report.service.js';
-import { assertMayRunScreening, closeFollowUp, decide, previewScreening, recordFinding, runScreening } from './screenings.service.js';
+import { assertMayRunScreening, closeFollowUp, decide, liftRestrictions, previewScreening, recordEnergised, recordFinding, runScreening } from './screenings.service.js';
 
 export const screeningRoutes: RouteDef[] = [
   // POST /api/screenings/preview — screen a gapsight-case/1 body; nothing is stored
@@ -69,5 +69,23 @@ export const screeningRoutes: RouteDef[] = [
     body: findingBodySchema,
     status: 201,
     handler: ({ m, clock, user, params, body }) => recordFinding(m, clock, user.id, params.eventId, body),
+  }),
+  // POST /api/events/:eventId/energised — when the released unit was re-energised; follow-ups count from it
+  route({
+    method: 'post',
+    path: '/events/:eventId/energised',
+    access: ['manager', 'admin'],
+    params: eventParams,
+    body: energisedBodySchema,
+    handler: ({ m, clock, user, params, body }) => recordEnergised(m, clock, user.id, params.eventId, body.at),
+  }),
+  // POST /api/events/:eventId/restrictions/lift — the restrictions of a release with restrictions no longer apply
+  route({
+    method: 'post',
+    path: '/events/:eventId/restrictions/lift',
+    access: ['manager', 'admin'],
+    params: eventParams,
+    body: liftRestrictionsBodySchema,
+    handler: ({ m, clock, user, params, body }) => liftRestrictions(m, clock, user.id, params.eventId, body.reason),
   }),
 ];

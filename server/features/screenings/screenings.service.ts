@@ -1,8 +1,8 @@
-import type { EntityManager } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import type { z } from 'zod';
-import { decisionGoesAgainst, proposedFollowUpDueAt, AGAINST_REASON_MIN, type DecisionBody, type findingBodySchema } from '../../../shared/schemas/screening.js';
+import { decisionGoesAgainst, proposedFollowUpDueAt, recountedFollowUpDueAt, AGAINST_REASON_MIN, type DecisionBody, type findingBodySchema } from '../../../shared/schemas/screening.js';
 import type { GapsightCase } from '../../../shared/schemas/case.js';
-import type { ClosedFollowUp, DecisionAnswer, RecordedFinding, RunScreeningAnswer } from '../../../shared/schemas/responses/index.js';
+import type { ClosedFollowUp, DecisionAnswer, EnergisedAnswer, LiftedRestrictions, RecordedFinding, RunScreeningAnswer } from '../../../shared/schemas/responses/index.js';
 import type { GapsightResult } from '../../../shared/schemas/result.js';
 import { screenCase } from '../../../shared/screening/index.js';
 import { AppError, conflict, notFound } from '../../common/app-error.js';
@@ -155,4 +155,93 @@ export async function recordFinding(m: EntityManager, clock: Clock, userId: numb
   const f = await m.getRepository(Finding).save(m.getRepository(Finding).create({ eventId, classification: body.classification, text: body.text, recordedById: userId, recordedAt: clock.now() }));
   await audit(m, clock, { userId, action: 'create', entity: 'finding', entityId: f.id, after: { eventId, classification: f.classification, text: f.text } });
   return { id: f.id, eventId, classification: f.classification, text: f.text, recordedById: userId, recordedAt: f.recordedAt.toISOString() } satisfies RecordedFinding;
+}
+
+/** The event's newest decision (a released or held event has exactly one in force: the newest). */
+async function newestDecision(m: EntityManager, eventId: number): Promise<Decision | null> {
+  const screenings = await m.getRepository(Screening).find({ where: { eventId }, select: { id: true } });
+  if (!screenings.length) return null;
+  return m.getRepository(Decision).findOne({ where: { screeningId: In(screenings.map((s) => s.id)) }, order: { signedAt: 'DESC', id: 'DESC' } });
+}
+
+const followUpView = (f: FollowUp) => ({ id: f.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: f.closedAt?.toISOString() ?? null, closedById: f.closedById, result: f.result });
+
+/**
+ * Records when a released unit was re-energised (POST /api/events/:eventId/energised): not before the decision, not in
+ * the future (409 naming `at`). Open follow-ups whose due date was counted from the decision (or from an earlier
+ * re-energising) are counted again from `at`; each change audited.
+ */
+export async function recordEnergised(m: EntityManager, clock: Clock, userId: number, eventId: number, atText: string) {
+  const event = await m.getRepository(FaultEvent).findOne({ where: { id: eventId }, lock: { mode: 'pessimistic_write' } });
+  if (!event) throw notFound('Event');
+  if (event.status !== 'released') throw new AppError('invalid_status', `Re-energising is recorded for a released unit; the event is ${event.status}.`, 409);
+  const decision = await newestDecision(m, eventId);
+  if (!decision) throw new AppError('invalid_status', 'The event has no decision.', 409);
+  const at = new Date(atText);
+  if (at.getTime() < decision.signedAt.getTime()) {
+    throw new AppError('invalid_time', 'Some fields are invalid.', 409, { at: `before the decision (${decision.signedAt.toISOString()})` });
+  }
+  if (at.getTime() > clock.now().getTime()) throw new AppError('invalid_time', 'Some fields are invalid.', 409, { at: 'in the future' });
+  const from = event.energisedAt ?? decision.signedAt;
+  const before = event.energisedAt?.toISOString() ?? null;
+  await m.getRepository(FaultEvent).update(event.id, { energisedAt: at, updatedAt: clock.now() });
+  await audit(m, clock, { userId, action: 'update', entity: 'fault_event', entityId: event.id, before: { energisedAt: before }, after: { energisedAt: at.toISOString() }, note: 'Re-energised' });
+  const followUps = await m.getRepository(FollowUp).find({ where: { eventId }, order: { dueAt: 'ASC', id: 'ASC' } });
+  for (const f of followUps) {
+    if (f.closedAt) continue;
+    const due = recountedFollowUpDueAt(f.task, f.dueAt?.toISOString() ?? null, from, at, event.occurredAt);
+    if (due === null || due === f.dueAt?.toISOString()) continue;
+    const old = f.dueAt?.toISOString() ?? null;
+    f.dueAt = new Date(due);
+    await m.getRepository(FollowUp).update(f.id, { dueAt: f.dueAt });
+    await audit(m, clock, { userId, action: 'update', entity: 'follow_up', entityId: f.id, before: { dueAt: old }, after: { dueAt: due }, note: 'Counted from re-energising' });
+  }
+  followUps.sort((a, b) => (a.dueAt?.getTime() ?? Infinity) - (b.dueAt?.getTime() ?? Infinity) || a.id - b.id);
+  return { eventId, energisedAt: at.toISOString(), followUps: followUps.map(followUpView) } satisfies EnergisedAnswer;
+}
+
+/** Lifts the restrictions of a release-with-restrictions decision (409 when there are none active); audited. */
+export async function liftRestrictions(m: EntityManager, clock: Clock, userId: number, eventId: number, reason: string) {
+  const event = await m.getRepository(FaultEvent).findOne({ where: { id: eventId }, lock: { mode: 'pessimistic_write' } });
+  if (!event) throw notFound('Event');
+  const decision = await newestDecision(m, eventId);
+  if (!decision || decision.outcome !== 'release-with-restrictions' || decision.restrictionsLiftedAt) {
+    throw new AppError('invalid_status', 'The event has no active restrictions to lift.', 409);
+  }
+  const now = clock.now();
+  await m.getRepository(Decision).update(decision.id, { restrictionsLiftedAt: now, restrictionsLiftedById: userId, restrictionsLiftReason: reason });
+  await audit(m, clock, {
+    userId,
+    action: 'update',
+    entity: 'fault_event',
+    entityId: event.id,
+    before: { restrictions: decision.restrictions, restrictionsLiftedAt: null },
+    after: { restrictionsLiftedAt: now.toISOString(), reason },
+    note: 'Restrictions lifted',
+  });
+  return { eventId, decisionId: decision.id, restrictions: decision.restrictions ?? '', liftedAt: now.toISOString(), liftedById: userId, reason } satisfies LiftedRestrictions;
+}
+
+/** Restrictions not yet lifted, per unit (release-with-restrictions decisions; several joined, newest first). */
+export async function activeRestrictionsByUnit(m: EntityManager, unitIds: number[]): Promise<Map<number, string>> {
+  const out = new Map<number, string>();
+  if (!unitIds.length) return out;
+  const rows = await m
+    .getRepository(Decision)
+    .createQueryBuilder('d')
+    .innerJoin(Screening, 's', 's.id = d.screeningId')
+    .innerJoin(FaultEvent, 'e', 'e.id = s.eventId')
+    .select(['e.unitId AS unitId', 'd.restrictions AS restrictions'])
+    .where('d.outcome = :outcome', { outcome: 'release-with-restrictions' })
+    .andWhere('d.restrictionsLiftedAt IS NULL')
+    .andWhere('e.unitId IN (:...unitIds)', { unitIds })
+    .orderBy('d.signedAt', 'DESC')
+    .addOrderBy('d.id', 'DESC')
+    .getRawMany<{ unitId: number; restrictions: string | null }>();
+  for (const r of rows) {
+    if (!r.restrictions) continue;
+    const id = Number(r.unitId);
+    out.set(id, out.has(id) ? `${out.get(id)}; ${r.restrictions}` : r.restrictions);
+  }
+  return out;
 }

@@ -12,6 +12,7 @@ import { caseFault, caseUnit } from '../events/case-export.service.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
 import { insertReadingSet, loadCaseReadingSets } from '../readings/readings.service.js';
+import { activeRestrictionsByUnit } from '../screenings/screenings.service.js';
 import { SweepTrace } from '../readings/sweep-trace.entity.js';
 import { insertSweepTrace, sweepMeta, type SweepFields } from '../readings/sweeps.service.js';
 import { Site } from '../sites/site.entity.js';
@@ -77,12 +78,14 @@ export async function listUnits(m: EntityManager, q: UnitListQuery) {
   const designs = await m.getRepository(Design).findBy({ id: In([...new Set(units.map((u) => u.designId))]) });
   const site = new Map(sites.map((x) => [x.id, x]));
   const design = new Map(designs.map((x) => [x.id, x]));
+  const restrictions = await activeRestrictionsByUnit(m, units.map((u) => u.id));
   return {
     items: units.map((u) => ({
       ...unitView(u),
       siteName: site.get(u.siteId)?.name ?? '',
       siteTimeZone: site.get(u.siteId)?.timeZone ?? 'UTC',
       designReference: design.get(u.designId)?.reference ?? '',
+      activeRestrictions: restrictions.get(u.id) ?? null,
     })),
     total,
     page: q.page,
@@ -123,6 +126,7 @@ export async function getUnit(m: EntityManager, id: number) {
       // The unit's earlier faults counted, by the same rule as the event file.
       throughFault: dutyWithPriorFaults(unitForDuty, caseFault(e), unitFaults, e.id),
     })),
+    activeRestrictions: (await activeRestrictionsByUnit(m, [u.id])).get(u.id) ?? null,
   } satisfies UnitDetail;
 }
 

@@ -33,6 +33,13 @@ export type EventView = z.infer<typeof eventViewSchema>;
 export const createdEventSchema = eventViewSchema.extend({ throughFault: throughFaultSchema.nullable() });
 export type CreatedEvent = z.infer<typeof createdEventSchema>;
 
+/** PATCH /api/events/:id — the corrected event with its recomputed duty; a screened event whose case changed is back in testing. */
+export const correctedEventSchema = createdEventSchema.extend({
+  screeningStale: z.boolean(),
+  note: z.string().nullable(),
+});
+export type CorrectedEvent = z.infer<typeof correctedEventSchema>;
+
 /** GET /api/events (each item): the event with its unit, site and newest recommendation. */
 export const eventListItemSchema = eventViewSchema.extend({
   unitSerial: z.string(),
@@ -156,6 +163,11 @@ export const eventDetailSchema = eventViewSchema.extend({
   audit: z.array(auditRowSchema),
   /** Everybody the file names, by id. */
   people: z.record(z.string(), personSchema),
+  /** When the released unit was re-energised (null: not recorded). */
+  energisedAt: isoDateTime.nullable(),
+  /** The decision's restrictions while not lifted (null: none or lifted), and the lifting (null: not lifted). */
+  activeRestrictions: z.string().nullable(),
+  restrictionsLifted: z.strictObject({ at: isoDateTime, byId: rowId.nullable(), reason: z.string() }).nullable(),
 });
 export type EventDetail = z.infer<typeof eventDetailSchema>;
 
@@ -166,6 +178,15 @@ export const createdSessionSchema = readingSetConditionsSchema.extend({
   preFaultGas: readingSetConditionsSchema.extend({ values: readingSetSchema.optional() }).optional(),
 });
 export type CreatedSession = z.infer<typeof createdSessionSchema>;
+
+/** PATCH /api/sessions/:id — the corrected session; a screened event whose case changed is back in testing. */
+export const correctedSessionSchema = readingSetConditionsSchema.extend({
+  values: readingSetSchema.optional(),
+  eventStatus: z.enum(EVENT_STATUSES),
+  screeningStale: z.boolean(),
+  note: z.string().nullable(),
+});
+export type CorrectedSession = z.infer<typeof correctedSessionSchema>;
 
 /** POST /api/sessions/:id/imports — the rows stored. */
 export const importAnswerSchema = z.strictObject({

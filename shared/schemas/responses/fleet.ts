@@ -97,6 +97,8 @@ export const unitListItemSchema = unitViewSchema.extend({
   siteName: z.string(),
   siteTimeZone: z.string(),
   designReference: z.string(),
+  /** Restrictions of release-with-restrictions decisions on the unit not yet lifted (null: none). */
+  activeRestrictions: z.string().nullable(),
 });
 export type UnitListItem = z.infer<typeof unitListItemSchema>;
 
@@ -185,5 +187,7 @@ export const unitDetailSchema = unitViewSchema.extend({
   design: designViewSchema,
   readingSets: z.array(readingSetViewSchema),
   events: z.array(unitEventSummarySchema),
+  /** Restrictions of release-with-restrictions decisions on the unit not yet lifted (null: none). */
+  activeRestrictions: z.string().nullable(),
 });
 export type UnitDetail = z.infer<typeof unitDetailSchema>;

@@ -30,3 +30,22 @@ export type ClosedFollowUp = z.infer<typeof closedFollowUpSchema>;
 /** POST /api/events/:id/findings — the recorded finding. */
 export const recordedFindingSchema = findingViewSchema.extend({ eventId: rowId });
 export type RecordedFinding = z.infer<typeof recordedFindingSchema>;
+
+/** POST /api/events/:id/energised — when the unit was re-energised and the follow-ups as now due. */
+export const energisedAnswerSchema = z.strictObject({
+  eventId: rowId,
+  energisedAt: isoDateTime,
+  followUps: z.array(followUpViewSchema),
+});
+export type EnergisedAnswer = z.infer<typeof energisedAnswerSchema>;
+
+/** POST /api/events/:id/restrictions/lift — the decision whose restrictions were lifted. */
+export const liftedRestrictionsSchema = z.strictObject({
+  eventId: rowId,
+  decisionId: rowId,
+  restrictions: z.string(),
+  liftedAt: isoDateTime,
+  liftedById: rowId,
+  reason: z.string(),
+});
+export type LiftedRestrictions = z.infer<typeof liftedRestrictionsSchema>;

@@ -47,6 +47,7 @@ export function unitItem(overrides: Partial<UnitListItem> = {}): UnitListItem {
     siteName: 'Harrow Cross',
     siteTimeZone: 'Europe/London',
     designReference: 'KV-40-132',
+    activeRestrictions: null,
     ...overrides,
   };
 }
@@ -216,7 +217,7 @@ export function eventListItem(overrides: Partial<EventListItem> = {}): EventList
 
 export function eventDetail(overrides: Partial<EventDetail> = {}): EventDetail {
   const u = unitDetail();
-  const { readingSets: _r, events: _e, ...unit } = u;
+  const { readingSets: _r, events: _e, activeRestrictions: _a, ...unit } = u;
   return {
     ...event11,
     unit,
@@ -254,6 +255,9 @@ export function eventDetail(overrides: Partial<EventDetail> = {}): EventDetail {
       '5': { id: 5, name: 'Dara Whitcombe', email: 'd.whitcombe@kestrel-valley.example' },
       '7': { id: 7, name: 'Ruth Okafor', email: 'r.okafor@kestrel-valley.example' },
     },
+    energisedAt: null,
+    activeRestrictions: null,
+    restrictionsLifted: null,
     ...overrides,
   };
 }

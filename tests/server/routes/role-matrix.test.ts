@@ -49,8 +49,8 @@ const MAIN_FLOW: ReadonlyArray<readonly [string, Who]> = [
 
 // api.md, "Routes added with rules revision 2 and the administration work". Partly future work: a row missing from the
 // route table is not a failure. In the table today: GET/POST /users, PATCH /users/:id, POST /users/:id/reset-password,
-// POST /users/:id/unlock, GET /events/:id/attachments/:attachmentId, GET /sweeps/:id, GET /follow-ups (and GET /events, also a
-// main-flow row).
+// POST /users/:id/unlock, GET /events/:id/attachments/:attachmentId, GET /sweeps/:id, GET /follow-ups, POST /units/import,
+// GET /units/export (and GET /events, also a main-flow row).
 const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['GET /users', ['admin']],
   ['POST /users', ['admin']],
@@ -65,6 +65,8 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['PATCH /events/:id', ['protection']],
   ['PATCH /sessions/:id', ['tester']],
   ['POST /events/:id/energised', ['manager']],
+  // Not an api.md row: lifting the active restrictions of a release with restrictions.
+  ['POST /events/:id/restrictions/lift', ['manager']],
   ['GET /follow-ups', 'signed in'],
   ['GET /criteria', 'signed in'],
   ['GET /criteria/:version', 'signed in'],
