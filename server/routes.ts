@@ -8,6 +8,7 @@ import { userRoutes } from './features/users/users.router.js';
 import { siteRoutes } from './features/sites/sites.router.js';
 import { designRoutes } from './features/designs/designs.router.js';
 import { unitRoutes } from './features/units/units.router.js';
+import { unitIoRoutes } from './features/units/units-io.router.js';
 import { eventRoutes } from './features/events/events.router.js';
 import { screeningRoutes } from './features/screenings/screenings.router.js';
 import { followUpRoutes } from './features/follow-ups/follow-ups.router.js';
@@ -19,6 +20,7 @@ export const routeTable: RouteDef[] = [
   ...userRoutes,
   ...siteRoutes,
   ...designRoutes,
+  ...unitIoRoutes,
   ...unitRoutes,
   ...eventRoutes,
   ...screeningRoutes,

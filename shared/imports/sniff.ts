@@ -154,3 +154,64 @@ export function detectRelayRecord(fileName: string, bytes: Uint8Array): RelayRec
   }
   return { error: `${what} cannot be checked` };
 }
+
+// ---- Spreadsheets (units import) ------------------------------------------------------------------------------------
+
+export type SpreadsheetCheck = { kind: 'xlsx' | 'csv' } | { error: string; tooLarge?: boolean };
+
+// Compound File Binary header (the old .xls format): D0 CF 11 E0 A1 B1 1A E1.
+const CFB_SIGNATURE = [0xd0, 0xcf, 0x11, 0xe0, 0xa1, 0xb1, 0x1a, 0xe1];
+
+/** The names and total uncompressed size of a ZIP archive's entries, from its central directory (null: not readable). */
+export function zipEntries(bytes: Uint8Array): { names: string[]; uncompressedBytes: number } | null {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  // End of central directory record: signature 0x06054b50, within the last 22 + 65535 bytes (APPNOTE.TXT §4.3.16).
+  let end = -1;
+  for (let i = bytes.length - 22; i >= Math.max(0, bytes.length - 22 - 0xffff); i -= 1) {
+    if (view.getUint32(i, true) === 0x06054b50) {
+      end = i;
+      break;
+    }
+  }
+  if (end < 0) return null;
+  const count = view.getUint16(end + 10, true);
+  let at = view.getUint32(end + 16, true);
+  const names: string[] = [];
+  let total = 0;
+  for (let k = 0; k < count; k += 1) {
+    if (at + 46 > bytes.length || view.getUint32(at, true) !== 0x02014b50) return null;
+    const size = view.getUint32(at + 24, true);
+    // 0xFFFFFFFF: the size is in a ZIP64 extra field (over 4 GiB): far beyond any sheet we take.
+    total += size === 0xffffffff ? Number.MAX_SAFE_INTEGER / 2 : size;
+    const nameLength = view.getUint16(at + 28, true);
+    const extra = view.getUint16(at + 30, true);
+    const comment = view.getUint16(at + 32, true);
+    names.push(new TextDecoder().decode(bytes.subarray(at + 46, at + 46 + nameLength)));
+    at += 46 + nameLength + extra + comment;
+  }
+  return { names, uncompressedBytes: total };
+}
+
+/**
+ * Whether an upload is an Excel workbook (.xlsx: a ZIP holding xl/workbook.xml, unpacking to at most
+ * `maxUncompressedBytes`) or CSV text (UTF-8, a separator on the first line), judged by its bytes, not its name.
+ */
+export function detectSpreadsheet(bytes: Uint8Array, maxUncompressedBytes: number): SpreadsheetCheck {
+  if (bytes.length === 0) return { error: 'the file is empty' };
+  if (startsWith(bytes, CFB_SIGNATURE)) return { error: 'the file is an old Excel 97-2003 workbook (.xls): save it as .xlsx or CSV' };
+  if (startsWith(bytes, PDF_SIGNATURE)) return { error: 'the file is a PDF document, not a spreadsheet: use .xlsx or CSV' };
+  if (startsWith(bytes, ZIP_SIGNATURES[0])) {
+    const zip = zipEntries(bytes);
+    if (zip === null) return { error: 'the file starts like a ZIP archive but cannot be read: save it again as .xlsx' };
+    if (!zip.names.includes('xl/workbook.xml')) {
+      const ods = zip.names.includes('content.xml') && zip.names.includes('mimetype');
+      return { error: ods ? 'the file is an OpenDocument spreadsheet: save it as .xlsx or CSV' : 'the file is a ZIP archive but not an Excel workbook (.xlsx)' };
+    }
+    if (zip.uncompressedBytes > maxUncompressedBytes) {
+      return { error: `the workbook unpacks to more than ${Math.round(maxUncompressedBytes / 1024 / 1024)} MB`, tooLarge: true };
+    }
+    return { kind: 'xlsx' };
+  }
+  if (looksLikeCsvText(bytes)) return { kind: 'csv' };
+  return { error: 'the file is neither an Excel workbook (.xlsx) nor CSV text in UTF-8 with a separator on its first line' };
+}

@@ -1,0 +1,133 @@
+import ExcelJS from 'exceljs';
+import { In, type EntityManager } from 'typeorm';
+import { detectSpreadsheet } from '../../../shared/imports/sniff.js';
+import {
+  columnHeaders,
+  csvSheetRows,
+  locateUnitSheet,
+  readUnitRows,
+  refKey,
+  sheetSerials,
+  type SheetRow,
+  type UnitSheetMapping,
+} from '../../../shared/imports/units-sheet.js';
+import type { UnitImportAnswer, UnitImportPreview } from '../../../shared/schemas/responses/units-io.js';
+import { AppError, badRequest } from '../../common/app-error.js';
+import type { Clock } from '../../common/clock.js';
+import { UPLOAD_LIMITS, unsupportedType } from '../../common/upload.js';
+import { Design } from '../designs/design.entity.js';
+import { Site } from '../sites/site.entity.js';
+import { Unit } from './unit.entity.js';
+import { createUnit } from './units.service.js';
+
+// Fleet onboarding: one unit a row of an .xlsx or CSV file, every row checked before anything is saved, then each unit
+// created by the same service as POST /api/units (so each gets its own audited create), all in the request's transaction.
+
+/** Columns read from a worksheet (a sheet formatted far to the right is cut here). */
+const MAX_COLUMNS = 200;
+/** Rows shown in a dry run's preview. */
+const PREVIEW_ROWS = 50;
+
+type CellValue = ExcelJS.CellValue;
+
+/** A cell's value as the text a person sees in it (a formula's result, rich text joined, a date as YYYY-MM-DD). */
+function cellText(value: CellValue): string {
+  if (value === null || value === undefined) return '';
+  if (typeof value === 'string') return value;
+  if (typeof value === 'number') return String(value);
+  if (typeof value === 'boolean') return value ? 'true' : 'false';
+  if (value instanceof Date) return value.toISOString().slice(0, 10);
+  if ('richText' in value) return value.richText.map((t) => t.text).join('');
+  if ('formula' in value || 'sharedFormula' in value) return cellText((value.result ?? null) as CellValue);
+  if ('hyperlink' in value) return typeof value.text === 'string' ? value.text : cellText(value.text as CellValue);
+  if ('error' in value) return String(value.error);
+  return '';
+}
+
+/** The worksheet of an .xlsx as rows of cell texts; a merged cell reads as its master cell's value. */
+async function workbookRows(bytes: Buffer): Promise<{ sheet: string; rows: SheetRow[] }> {
+  const wb = new ExcelJS.Workbook();
+  try {
+    await wb.xlsx.load(bytes as unknown as ArrayBuffer);
+  } catch (err) {
+    throw new AppError('invalid_file', 'The workbook cannot be read.', 400, { file: `the workbook cannot be read (${(err as Error).message})` });
+  }
+  // A sheet named "Units" if there is one, else the first.
+  const ws = wb.worksheets.find((w) => w.name.trim().toLowerCase() === 'units') ?? wb.worksheets[0];
+  if (!ws) throw new AppError('invalid_file', 'The workbook has no worksheet.', 400, { file: 'the workbook has no worksheet' });
+  const columns = Math.min(ws.columnCount, MAX_COLUMNS);
+  const rows: SheetRow[] = [];
+  ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
+    const cells: string[] = [];
+    for (let c = 1; c <= columns; c += 1) {
+      const cell = row.getCell(c);
+      cells.push(cellText((cell.isMerged ? cell.master : cell).value));
+    }
+    rows.push({ row: rowNumber, cells });
+  });
+  return { sheet: ws.name, rows };
+}
+
+/** An upload read as sheet rows: .xlsx or CSV judged by the bytes (415 otherwise; 413 for a workbook that unpacks too large). */
+export async function readUnitsFile(file: { buffer: Buffer }): Promise<{ sheet: string | null; rows: SheetRow[]; fields: Record<string, string> }> {
+  const check = detectSpreadsheet(new Uint8Array(file.buffer), UPLOAD_LIMITS.unitSheetUnpackedBytes);
+  if ('error' in check) {
+    if (check.tooLarge) throw new AppError('file_too_large', 'The workbook is too large.', 413, { file: check.error });
+    throw unsupportedType(`A units import is an .xlsx workbook or a CSV file: ${check.error}.`);
+  }
+  if (check.kind === 'xlsx') return { ...(await workbookRows(file.buffer)), fields: {} };
+  return { sheet: null, ...csvSheetRows(file.buffer.toString('utf8')) };
+}
+
+async function serialsTaken(m: EntityManager, serials: string[]): Promise<Set<string>> {
+  const taken = new Set<string>();
+  for (let i = 0; i < serials.length; i += 1000) {
+    const found = await m.getRepository(Unit).find({ select: { id: true, serial: true }, where: { serial: In(serials.slice(i, i + 1000)) } });
+    for (const u of found) taken.add(refKey(u.serial));
+  }
+  return taken;
+}
+
+/**
+ * POST /api/units/import: every row checked (sites by name, designs by reference, serials new) and every problem
+ * listed (400, nothing saved); with `dryRun` the mapping and rows are answered instead and nothing is saved.
+ */
+export async function importUnits(
+  m: EntityManager,
+  clock: Clock,
+  userId: number,
+  file: { buffer: Buffer },
+  opts: { mapping?: UnitSheetMapping; dryRun?: boolean },
+): Promise<UnitImportAnswer | UnitImportPreview> {
+  const read = await readUnitsFile(file);
+  const located = locateUnitSheet(read.rows, opts.mapping);
+  const sites = await m.getRepository(Site).find({ select: { id: true, name: true } });
+  const designs = await m.getRepository(Design).find({ select: { id: true, reference: true } });
+  const result = readUnitRows(located, {
+    sites: new Map(sites.map((s) => [refKey(s.name), s.id])),
+    designs: new Map(designs.map((d) => [refKey(d.reference), d.id])),
+    takenSerials: await serialsTaken(m, sheetSerials(located)),
+  });
+  const fields = { ...read.fields, ...result.fields };
+  if (opts.dryRun) {
+    return {
+      dryRun: true,
+      imported: 0,
+      sheet: read.sheet,
+      headerRow: located.headerRow,
+      headers: located.headers,
+      columns: columnHeaders(located),
+      total: result.rows.length,
+      good: result.rows.filter((r) => r.body !== null).length,
+      rows: result.rows.slice(0, PREVIEW_ROWS).map((r) => ({ row: r.row, ok: r.body !== null && !fields[`row ${r.row}`], cells: r.cells })),
+      fields,
+    } satisfies UnitImportPreview;
+  }
+  if (Object.keys(fields).length > 0) throw new AppError('invalid_file', 'The file has errors; nothing was imported.', 400, fields);
+  const rows: UnitImportAnswer['rows'] = [];
+  for (const r of result.rows) {
+    if (r.body === null) throw badRequest('A row has no unit.', { [`row ${r.row}`]: 'not read' });
+    rows.push({ row: r.row, ...(await createUnit(m, clock, userId, r.body)) });
+  }
+  return { imported: rows.length, rows } satisfies UnitImportAnswer;
+}

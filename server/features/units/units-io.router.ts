@@ -1,0 +1,37 @@
+import { fileReply, Reply, route, type RouteDef } from '../../route-def.js';
+import { UPLOAD_LIMITS } from '../../common/upload.js';
+import { unitExportQuerySchema, unitImportFieldsSchema } from '../../../shared/schemas/units-io.js';
+import { exportUnits } from './units-export.service.js';
+import { importUnits } from './units-import.service.js';
+
+// Fleet spreadsheets. Registered before the unit routes, so `export` and `import` are never read as a unit id.
+export const unitIoRoutes: RouteDef[] = [
+  // GET /api/units/export?format=xlsx|csv&… — the fleet table as filtered, as a file
+  route({
+    method: 'get',
+    path: '/units/export',
+    access: 'signed-in',
+    query: unitExportQuerySchema,
+    handler: async ({ m, clock, query }) => {
+      const out = await exportUnits(m, clock, query);
+      return fileReply(out.data, out.contentType, {
+        'Content-Disposition': `attachment; filename="${out.fileName}"`,
+        'X-Total-Count': String(out.total),
+        'X-Exported-Count': String(out.written),
+      });
+    },
+  }),
+  // POST /api/units/import — units from an .xlsx or CSV file (one a row): all or none; dryRun=true checks only
+  route({
+    method: 'post',
+    path: '/units/import',
+    access: ['admin'],
+    upload: UPLOAD_LIMITS.unitSheetBytes,
+    body: unitImportFieldsSchema,
+    status: 201,
+    handler: async ({ m, clock, user, body, file }) => {
+      const answer = await importUnits(m, clock, user.id, file, { mapping: body.mapping, dryRun: body.dryRun });
+      return 'dryRun' in answer ? new Reply({ status: 200, json: answer }) : answer;
+    },
+  }),
+];

@@ -1,0 +1,35 @@
+import { z } from 'zod';
+import { UNIT_SHEET_FIELDS } from '../../imports/units-sheet-fields.js';
+import { unitViewSchema } from './fleet.js';
+
+// Answers of POST /api/units/import (strict objects, like every answer schema).
+
+const perField = <T extends z.ZodType>(value: T) => z.strictObject(Object.fromEntries(UNIT_SHEET_FIELDS.map((f) => [f, value])) as Record<(typeof UNIT_SHEET_FIELDS)[number], T>);
+
+/** POST /api/units/import — the units created, each with the sheet row it came from. */
+export const unitImportAnswerSchema = z.strictObject({
+  imported: z.number().int().nonnegative(),
+  rows: z.array(unitViewSchema.extend({ row: z.number().int().positive() })),
+});
+export type UnitImportAnswer = z.infer<typeof unitImportAnswerSchema>;
+
+/** POST /api/units/import with dryRun=true — how the sheet was read, the first rows mapped, every problem; nothing saved. */
+export const unitImportPreviewSchema = z.strictObject({
+  dryRun: z.literal(true),
+  imported: z.literal(0),
+  /** .xlsx: the worksheet read; CSV: null. */
+  sheet: z.string().nullable(),
+  /** The row holding the header (0: the sheet is empty). */
+  headerRow: z.number().int().nonnegative(),
+  headers: z.array(z.string()),
+  /** Our field → the file's header used for it (null: none). */
+  columns: perField(z.string().nullable()),
+  /** Data rows in the file, and how many of them are good. */
+  total: z.number().int().nonnegative(),
+  good: z.number().int().nonnegative(),
+  /** The first rows with their texts per field. */
+  rows: z.array(z.strictObject({ row: z.number().int().positive(), ok: z.boolean(), cells: perField(z.string()) })),
+  /** Every problem, as a 400 of the real import would name it (empty: the import would go through). */
+  fields: z.record(z.string(), z.string()),
+});
+export type UnitImportPreview = z.infer<typeof unitImportPreviewSchema>;

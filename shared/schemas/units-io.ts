@@ -1,0 +1,50 @@
+import { z } from 'zod';
+import { UNIT_SHEET_FIELDS, type UnitSheetField } from '../imports/units-sheet-fields.js';
+import { unitListQuerySchema } from './fleet.js';
+
+// Inputs of the fleet spreadsheet routes: GET /api/units/export and POST /api/units/import.
+
+type UnitSheetMapping = Partial<Record<UnitSheetField, string>>;
+
+/** GET /api/units/export — the fleet list's filters and sort (no paging) and the file format. */
+export const unitExportQuerySchema = unitListQuerySchema.omit({ page: true, pageSize: true }).extend({
+  format: z.enum(['xlsx', 'csv'], { message: 'xlsx or csv' }).default('xlsx'),
+});
+
+/**
+ * POST /api/units/import — the multipart fields beside `file`: `mapping`, JSON `{ ourField: theirHeader }` ('' leaves a
+ * field empty), and `dryRun` (`true`: check and map every row, save nothing).
+ */
+export const unitImportFieldsSchema = z.object({
+  mapping: z
+    .string()
+    .max(4000)
+    .optional()
+    .transform((text, ctx): UnitSheetMapping | undefined => {
+      if (text === undefined || text.trim() === '') return undefined;
+      let value: unknown;
+      try {
+        value = JSON.parse(text);
+      } catch {
+        ctx.addIssue({ code: 'custom', message: 'not JSON: give {"ourField": "their header", …}' });
+        return z.NEVER;
+      }
+      if (typeof value !== 'object' || value === null || Array.isArray(value)) {
+        ctx.addIssue({ code: 'custom', message: 'a JSON object {"ourField": "their header", …}' });
+        return z.NEVER;
+      }
+      const out: UnitSheetMapping = {};
+      for (const [key, header] of Object.entries(value)) {
+        if (!(UNIT_SHEET_FIELDS as readonly string[]).includes(key)) {
+          ctx.addIssue({ code: 'custom', path: [key], message: `not a unit field (${UNIT_SHEET_FIELDS.join(', ')})` });
+        } else if (typeof header !== 'string' || header.length > 200) {
+          ctx.addIssue({ code: 'custom', path: [key], message: 'a header name of at most 200 characters' });
+        } else out[key as UnitSheetField] = header;
+      }
+      return out;
+    }),
+  dryRun: z
+    .enum(['true', 'false'], { message: 'true or false' })
+    .transform((v) => v === 'true')
+    .optional(),
+});
