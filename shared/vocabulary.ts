@@ -4,12 +4,14 @@
 import type { CurrentIs, FaultType } from './schemas/case.js';
 import type { Basis, Indicator, Level, Method } from './schemas/result.js';
 import type {
+  Conductor,
   DecisionOutcome,
   EventStatus,
   FindingClassification,
   NotificationStatus,
   ReadingSetKind,
   Recommendation,
+  Windings,
 } from './schemas/enums.js';
 import type { ProtectionCode } from './screening/protections.js';
 import type { CurrentBasis } from './screening/through-fault.js';
@@ -300,3 +302,14 @@ export function indicatorUnit(key: string): string {
 export function rulesText(s: { criteriaVersion: number; result?: { engineRevision?: number } | null }): string {
   return `criteria set ${s.criteriaVersion} · rules revision ${s.result?.engineRevision ?? 1}`;
 }
+
+/** A design family's windings type. */
+export const WINDINGS_LABELS: Record<Windings, string> = {
+  'two-winding': 'Two-winding',
+  'three-winding': 'Three-winding',
+  auto: 'Autotransformer',
+  'auto-tertiary': 'Autotransformer with tertiary',
+};
+
+/** Winding conductor material. */
+export const CONDUCTOR_LABELS: Record<Conductor, string> = { Cu: 'Copper (Cu)', Al: 'Aluminium (Al)' };

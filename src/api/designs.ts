@@ -16,3 +16,16 @@ export function listDesigns(signal?: AbortSignal): Promise<DesignListItem[]> {
 export function getDesign(id: number): Promise<DesignDetail> {
   return api.get<DesignDetail>(`/designs/${id}`);
 }
+
+/** POST/PATCH /api/designs bodies (the server's zod schemas' input). */
+export type DesignBody = import('zod').input<typeof import('../../shared/schemas/fleet').designBodySchema>;
+
+// POST /api/designs — add a design family (admin).
+export function createDesign(body: DesignBody): Promise<Design> {
+  return api.post<Design>('/designs', body);
+}
+
+// PATCH /api/designs/:id — change a design family (admin).
+export function updateDesign(id: number, patch: Partial<DesignBody>): Promise<Design> {
+  return api.patch<Design>(`/designs/${id}`, patch);
+}

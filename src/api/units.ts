@@ -44,3 +44,16 @@ export function createUnitReadingSet(unitId: number, body: ReadingSetBody): Prom
 export function getUnit(id: number, signal?: AbortSignal): Promise<UnitDetail> {
   return api.get<UnitDetail>(`/units/${id}`, { signal });
 }
+
+/** POST/PATCH /api/units bodies (the server's zod schemas' input). */
+export type UnitBody = import('zod').input<typeof import('../../shared/schemas/fleet').unitBodySchema>;
+
+// POST /api/units — add a unit; nameplate values left out come from its design (admin).
+export function createUnit(body: UnitBody): Promise<Unit> {
+  return api.post<Unit>('/units', body);
+}
+
+// PATCH /api/units/:id — change a unit's record (admin).
+export function updateUnit(id: number, patch: Partial<UnitBody>): Promise<Unit> {
+  return api.patch<Unit>(`/units/${id}`, patch);
+}

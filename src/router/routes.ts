@@ -71,6 +71,20 @@ export const routes: RouteRecordRaw[] = [
         meta: { title: 'Event file' },
       },
       {
+        // Administration (admin): people, sites, design families and units, one tab each.
+        path: 'admin',
+        name: 'admin',
+        component: () => import('../pages/admin/AdminPage.vue'),
+        redirect: { name: 'admin-people' },
+        meta: { title: 'Administration', roles: ['admin'], nav: { label: 'Administration', icon: 'admin_panel_settings' } },
+        children: [
+          { path: 'people', name: 'admin-people', component: () => import('../pages/admin/AdminPeoplePage.vue'), meta: { title: 'People · Administration' } },
+          { path: 'sites', name: 'admin-sites', component: () => import('../pages/admin/AdminSitesPage.vue'), meta: { title: 'Sites · Administration' } },
+          { path: 'designs', name: 'admin-designs', component: () => import('../pages/admin/AdminDesignsPage.vue'), meta: { title: 'Design families · Administration' } },
+          { path: 'units', name: 'admin-units', component: () => import('../pages/admin/AdminUnitsPage.vue'), meta: { title: 'Units · Administration' } },
+        ],
+      },
+      {
         path: 'dev/outbox',
         name: 'outbox',
         component: () => import('../pages/OutboxPage.vue'),
