@@ -1,5 +1,5 @@
 // Time windows of the work lists (events, follow-ups): due buckets, days overdue, date filters. Pure functions of "now".
-import { validZone, wallClock } from './format.js';
+import { validZone, wallClock, zoneOffsetMinutes } from './format.js';
 import type { FollowUpDue } from './schemas/enums.js';
 
 export const DAY_MS = 86_400_000;
@@ -44,4 +44,20 @@ export function parseDateOrInstant(text: string, endOfDay = false): Date | null 
   if (!/^\d{4}-\d{2}-\d{2}T/.test(text)) return null;
   const t = Date.parse(text);
   return Number.isNaN(t) ? null : new Date(t);
+}
+
+/**
+ * The first instant of a calendar day in a time zone (`endOfDay`: its last millisecond), for date filters typed as days
+ * on a person's own calendar; null when the text is no date.
+ */
+export function zoneDayBound(date: string, timeZone: string, endOfDay = false): Date | null {
+  const d = DATE_ONLY.exec(date);
+  if (!d || !parseDateOrInstant(date)) return null;
+  const zone = validZone(timeZone);
+  const [y, m, day] = [Number(d[1]), Number(d[2]), Number(d[3]) + (endOfDay ? 1 : 0)];
+  const wall = Date.UTC(y, m - 1, day);
+  // The zone's offset at the guess, then again at the instant found (a day that starts at a clock change).
+  let at = wall - zoneOffsetMinutes(new Date(wall), zone) * 60_000;
+  at = wall - zoneOffsetMinutes(new Date(at), zone) * 60_000;
+  return new Date(endOfDay ? at - 1 : at);
 }

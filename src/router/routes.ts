@@ -58,6 +58,12 @@ export const routes: RouteRecordRaw[] = [
         meta: { title: 'Unit file' },
       },
       {
+        path: 'events',
+        name: 'events',
+        component: () => import('../pages/EventListPage.vue'),
+        meta: { title: 'Events', nav: { label: 'Events', icon: 'view_list' } },
+      },
+      {
         path: 'events/new',
         name: 'event-new',
         component: () => import('../pages/EventNewPage.vue'),

@@ -72,11 +72,12 @@ describe('buildNavItems', () => {
     expect(items.filter((item) => item.exact).map((item) => item.name)).toEqual(['desk']);
   });
 
-  it('gives every user of the real table the desk and the fleet', () => {
+  it('gives every user of the real table the desk, the fleet and the events', () => {
     const items = buildNavItems(routes, { hasRole: holding(), mailSink: false });
     expect(items.map((item) => [item.name, item.label])).toEqual([
       ['desk', 'Desk'],
       ['units', 'Fleet'],
+      ['events', 'Events'],
     ]);
     expect(items.filter((item) => item.exact).map((item) => item.name)).toEqual(['desk']);
   });

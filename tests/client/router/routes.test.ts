@@ -55,6 +55,13 @@ describe('route table', () => {
     expect(byName.get('event-file')?.props).toBe(true);
   });
 
+  it('has the events list at /events in everybody’s drawer', () => {
+    const events = pages.find((record) => record.name === 'events');
+    expect(events?.path).toBe('events');
+    expect(events?.meta?.roles).toBeUndefined();
+    expect(events?.meta?.nav?.label).toBe('Events');
+  });
+
   it('has the outbox at /dev/outbox for admin and manager, in the drawer only while the mail sink runs', () => {
     const outbox = pages.find((record) => record.name === 'outbox');
     expect(outbox?.path).toBe('dev/outbox');
