@@ -19,7 +19,7 @@ export const eventRoutes: RouteDef[] = [
     status: 201,
     handler: ({ m, clock, user, body }) => logEvent(m, clock, user.id, body),
   }),
-  // GET /api/events — events, newest first, by status, unit or site
+  // GET /api/events — one page of events: by unit serial, site, unit, statuses, fault types, dates, relay records; sorted
   route({
     method: 'get',
     path: '/events',
