@@ -299,6 +299,7 @@ export const FLEET_EXPORT_COLUMNS = [
   'lastEventLocal',
   'lastEventStatus',
   'lastRecommendation',
+  'activeRestrictions',
 ] as const;
 
 export type SheetCell = string | number | null;
@@ -323,6 +324,7 @@ export function fleetExportRows(items: readonly UnitListItem[]): SheetCell[][] {
     u.lastEventAt ? formatInstant(u.lastEventAt, u.siteTimeZone, false) : null,
     u.lastEventStatus,
     u.lastRecommendation,
+    u.activeRestrictions,
   ]);
 }
 

@@ -1,5 +1,4 @@
 import { enableAutoUnmount } from '@vue/test-utils';
-import Papa from 'papaparse';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { captureDownloads, healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest } from '../helpers';
 import { unitItem } from './fixtures';
@@ -112,26 +111,52 @@ describe('UnitListPage (/units)', () => {
     expect(filtered.wrapper.get('[data-test="fleet-empty"]').text()).toContain('Clear the filters');
   });
 
-  it('exports every page of the current filter as CSV, 500 units a request', async () => {
-    const many = Array.from({ length: 620 }, (_, k) => unitItem({ id: k + 1, serial: `S-${k}` }));
-    const { requests } = signedInWithFleet((r) => {
-      const q = new URLSearchParams(r.url.split('?')[1]);
-      const page = Number(q.get('page'));
-      const size = Number(q.get('pageSize'));
-      return { items: many.slice((page - 1) * size, page * size), total: many.length };
+  it('downloads the export of the current filter and sort from the server, as CSV or Excel', async () => {
+    storeToken('valid');
+    const { requests } = scriptFetch({
+      'GET /api/auth/me': { body: makeUser({ roles: ['engineer'] }) },
+      'GET /api/health': { body: healthy },
+      'GET /api/sites': { body: sites },
+      'GET /api/designs': { body: designs },
+      'GET /api/units': { body: { items: [unitItem()], total: 1 } },
+      'GET /api/units/export': { body: 'serial,position\r\nKVP-HX-T2,T2\r\n' },
     });
-    const { blobs } = captureDownloads();
+    const { blobs, fileName } = captureDownloads();
     const { wrapper } = await mountApp('/units?recommendation=conditional');
 
     await wrapper.get('[data-test="export-csv"]').trigger('click');
     await vi.waitFor(() => expect(blobs).toHaveLength(1));
+    await wrapper.get('[data-test="export-xlsx"]').trigger('click');
+    await vi.waitFor(() => expect(blobs).toHaveLength(2));
 
-    const exportQueries = unitQueries(requests).filter((q) => q.get('pageSize') === '500');
-    expect(exportQueries.map((q) => q.get('page'))).toEqual(['1', '2']);
-    expect(exportQueries.every((q) => q.get('recommendation') === 'conditional')).toBe(true);
-    const parsed = Papa.parse<Record<string, string>>(await blobs[0].text(), { header: true, skipEmptyLines: true });
-    expect(parsed.data).toHaveLength(620);
-    expect(parsed.data[0]).toMatchObject({ serial: 'S-0', site: 'Harrow Cross', lastRecommendation: 'conditional', lastEventAtUtc: '2026-07-01T03:12:00.000Z' });
+    const exports = requests.filter((r) => r.url.split('?')[0] === '/api/units/export').map((r) => Object.fromEntries(new URLSearchParams(r.url.split('?')[1])));
+    expect(exports).toEqual([
+      { recommendation: 'conditional', sort: 'serial', format: 'csv' },
+      { recommendation: 'conditional', sort: 'serial', format: 'xlsx' },
+    ]);
+    expect(await blobs[0].text()).toBe('serial,position\r\nKVP-HX-T2,T2\r\n');
+    expect(fileName(0)).toMatch(/^gapsight-fleet-\d{4}-\d{2}-\d{2}\.csv$/);
+    expect(fileName(1)).toMatch(/\.xlsx$/);
+    // No paging requests for the export: the server writes every unit of the filter.
+    expect(unitQueries(requests).every((q) => q.get('pageSize') !== '500')).toBe(true);
+  });
+
+  it('offers the units import to an admin only', async () => {
+    signedInWithFleet(() => ({ items: [unitItem()], total: 1 }));
+    const engineer = await mountApp('/units');
+    expect(engineer.wrapper.find('[data-test="import-units"]').exists()).toBe(false);
+    engineer.wrapper.unmount();
+
+    storeToken('valid');
+    scriptFetch({
+      'GET /api/auth/me': { body: makeUser({ roles: ['admin'] }) },
+      'GET /api/health': { body: healthy },
+      'GET /api/sites': { body: sites },
+      'GET /api/designs': { body: designs },
+      'GET /api/units': { body: { items: [unitItem()], total: 1 } },
+    });
+    const admin = await mountApp('/units');
+    expect(admin.wrapper.find('[data-test="import-units"]').exists()).toBe(true);
   });
 
   it('shows the cautions under the table, where recommendations appear', async () => {

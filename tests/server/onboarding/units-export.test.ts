@@ -43,7 +43,7 @@ describe('GET /api/units/export', () => {
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="gapsight-fleet-\d{4}-\d{2}-\d{2}\.xlsx"$/);
     expect(res.headers['x-total-count']).toBe('2');
     const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(res.body as Buffer);
+    await wb.xlsx.load(res.body as unknown as ArrayBuffer);
     const ws = wb.worksheets[0];
     expect((ws.getRow(1).values as unknown[]).slice(1)).toEqual([...FLEET_EXPORT_COLUMNS]);
     const serialCol = FLEET_EXPORT_COLUMNS.indexOf('serial') + 1;

@@ -10,6 +10,7 @@ import { Unit } from '../../../server/features/units/unit.entity.js';
 import type { Design } from '../../../server/features/designs/design.entity.js';
 import type { Site } from '../../../server/features/sites/site.entity.js';
 import { DECIMAL_COMMA_MESSAGE } from '../../../shared/numbers.js';
+import { unitImportAnswerSchema, unitImportPreviewSchema } from '../../../shared/schemas/responses/units-io.js';
 import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
 import { makeDesign, makeSite, makeUnit } from '../../helpers/factories.js';
 
@@ -95,6 +96,7 @@ describe('POST /api/units/import (.xlsx)', () => {
     );
     const res = await api().post('/api/units/import').set(admin).attach('file', file, 'register.xlsx');
     expect(res.status).toBe(201);
+    expect(unitImportAnswerSchema.safeParse(res.body).success).toBe(true);
     expect(res.body.imported).toBe(2);
     expect(res.body.rows.map((r: { row: number; serial: string }) => [r.row, r.serial])).toEqual([
       [4, `${p}1`],
@@ -119,6 +121,7 @@ describe('POST /api/units/import (.xlsx)', () => {
     ]);
     const res = await api().post('/api/units/import').set(admin).field('dryRun', 'true').attach('file', file, 'register.xlsx');
     expect(res.status).toBe(200);
+    expect(unitImportPreviewSchema.safeParse(res.body).success).toBe(true);
     expect(res.body).toMatchObject({
       dryRun: true,
       imported: 0,
