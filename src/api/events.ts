@@ -3,13 +3,16 @@
 import type { z } from 'zod';
 import type { FaultType, GapsightCase } from '../../shared/schemas/case';
 import type { EventSort, EventStatus } from '../../shared/schemas/enums';
-import type { eventBodySchema, preFaultGasSchema, sessionBodySchema, sweepUploadFieldsSchema } from '../../shared/schemas/fleet';
+import type { eventBodySchema, eventPatchSchema, preFaultGasSchema, sessionBodySchema, sessionPatchSchema, sweepUploadFieldsSchema } from '../../shared/schemas/fleet';
 import type {
   AttachmentView,
   AuditRow,
+  CorrectedEvent,
+  CorrectedSession,
   CreatedEvent,
   CreatedSession,
   DecisionView,
+  EnergisedAnswer,
   EventDetail,
   EventListItem,
   EventListPage,
@@ -17,6 +20,7 @@ import type {
   FindingView,
   FollowUpView,
   ImportAnswer,
+  LiftedRestrictions,
   NotificationView,
   Person,
   StoredScreening,
@@ -119,4 +123,31 @@ export function importReadings(sessionId: number, csvText: string, fileName: str
 // POST /api/sessions/:id/sweeps — a post-fault sweep trace (CSV) with its label and test type.
 export function uploadSessionSweep(sessionId: number, fields: SweepUploadFields, file: File): Promise<SweepMeta> {
   return api.upload<SweepMeta>(`/sessions/${sessionId}/sweeps`, { file, name: file.name }, { ...fields });
+}
+
+// ---- corrections and after the decision ------------------------------------------------------------------------------
+
+/** PATCH /api/events/:id and PATCH /api/sessions/:id bodies: only the fields named change. */
+export type EventPatch = z.input<typeof eventPatchSchema>;
+export type SessionPatch = z.input<typeof sessionPatchSchema>;
+export type { CorrectedEvent, CorrectedSession, EnergisedAnswer, LiftedRestrictions } from '../../shared/schemas/responses';
+
+// PATCH /api/events/:id — correct a logged fault before a decision; answers the recomputed duty.
+export function correctEvent(eventId: number, body: EventPatch): Promise<CorrectedEvent> {
+  return api.patch(`/events/${eventId}`, body);
+}
+
+// PATCH /api/sessions/:id — correct a session's conditions and readings before the screening that used it is decided.
+export function correctSession(sessionId: number, body: SessionPatch): Promise<CorrectedSession> {
+  return api.patch(`/sessions/${sessionId}`, body);
+}
+
+// POST /api/events/:id/energised — when the released unit was re-energised; follow-ups count from it.
+export function recordEnergised(eventId: number, at: string): Promise<EnergisedAnswer> {
+  return api.post(`/events/${eventId}/energised`, { at });
+}
+
+// POST /api/events/:id/restrictions/lift — the restrictions of a release with restrictions no longer apply.
+export function liftRestrictions(eventId: number, reason: string): Promise<LiftedRestrictions> {
+  return api.post(`/events/${eventId}/restrictions/lift`, { reason });
 }
