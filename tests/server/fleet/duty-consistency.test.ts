@@ -1,21 +1,11 @@
 // The unit file's event list and the event file give the same cumulative duty for the same event: both count the
 // unit's earlier faults by one rule (shared/screening/duty-history.ts).
-import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
+import { describe, expect, it } from 'vitest';
+import { apiForFile } from '../../helpers/api-file.js';
 import { makeUnit } from '../../helpers/factories.js';
 
-let env: TestEnv;
-let protection: { Authorization: string };
-beforeAll(async () => {
-  env = await openTestEnv();
-  protection = bearer(env.config, (await createTestUser(env.db, ['protection'])).id);
-});
-afterAll(async () => {
-  await env.db.destroy();
-});
-
-const api = () => request(env.app);
+const opened = apiForFile(['protection']);
+const { api, as } = opened;
 
 type Duty = { i2t: number; cumulativeI2t: number; cumulativeDutyPercent: number; shotsAboveSegment: number };
 
@@ -23,7 +13,7 @@ type Duty = { i2t: number; cumulativeI2t: number; cumulativeDutyPercent: number;
 async function logFault(unitId: number, occurredAt: string, currentKA: number): Promise<{ id: number; throughFault: Duty }> {
   const res = await api()
     .post('/api/events')
-    .set(protection)
+    .set(as.protection)
     .send({ unitId, occurredAt, type: 'three-phase', side: 'lv', shots: [{ currentKA, durationS: 0.1 }], protectionOperated: ['overcurrent'] });
   expect(res.status).toBe(201);
   return res.body;
@@ -31,12 +21,12 @@ async function logFault(unitId: number, occurredAt: string, currentKA: number): 
 
 describe('cumulative duty with prior faults', () => {
   it('is the same figure in the unit file and in the event file, counting only the faults before the event', async () => {
-    const unit = await makeUnit(env.db);
+    const unit = await makeUnit(opened.env.db);
     const latest = await logFault(unit.id, '2026-11-28T03:12:00Z', 6.3);
     const first = await logFault(unit.id, '2024-05-02T10:00:00Z', 5.1);
     const second = await logFault(unit.id, '2025-02-14T22:40:00Z', 4.2);
 
-    const unitFile = await api().get(`/api/units/${unit.id}`).set(protection);
+    const unitFile = await api().get(`/api/units/${unit.id}`).set(as.protection);
     expect(unitFile.status).toBe(200);
     const listed = new Map<number, Duty>(unitFile.body.events.map((e: { id: number; throughFault: Duty }) => [e.id, e.throughFault]));
 
@@ -46,7 +36,7 @@ describe('cumulative duty with prior faults', () => {
       [second, own.first + own.second],
       [latest, null],
     ] as const) {
-      const file = await api().get(`/api/events/${ev.id}`).set(protection);
+      const file = await api().get(`/api/events/${ev.id}`).set(as.protection);
       expect(file.status).toBe(200);
       const fromFile = file.body.throughFault as Duty;
       const fromUnit = listed.get(ev.id)!;
@@ -57,7 +47,7 @@ describe('cumulative duty with prior faults', () => {
     }
 
     // The latest event counts both earlier faults (two prior faults) on top of its own I²t.
-    const latestFile = (await api().get(`/api/events/${latest.id}`).set(protection)).body.throughFault as Duty;
+    const latestFile = (await api().get(`/api/events/${latest.id}`).set(as.protection)).body.throughFault as Duty;
     expect(latestFile.cumulativeI2t).toBeCloseTo(own.first + own.second + latestFile.i2t, 9);
     expect(latestFile.cumulativeI2t).toBeGreaterThan(latestFile.i2t);
   });

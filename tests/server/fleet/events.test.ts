@@ -9,8 +9,8 @@ import { apiForFile } from '../../helpers/api-file.js';
 import { makeUnit } from '../../helpers/factories.js';
 import { sweepCsv } from '../../helpers/sweep-csv.js';
 
-const file = apiForFile(['protection', 'tester']);
-const { api, as } = file;
+const opened = apiForFile(['protection', 'tester']);
+const { api, as } = opened;
 
 // Invented demo values: a 40 MVA 132/33 kV unit (Kestrel Valley Power style).
 async function logFault(unitId: number, over: Record<string, unknown> = {}) {
@@ -24,27 +24,27 @@ async function logFault(unitId: number, over: Record<string, unknown> = {}) {
 
 describe('POST /api/events', () => {
   it('logs a fault and answers its duty: 40 MVA at 33 kV has a rated current of 699.8 A', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     expect(ev.status).toBe('logged');
     // Rated current kVA/(√3·kV) = 40000/(√3·33) = 699.819 A (case-format worked value).
     expect(ev.throughFault.ratedCurrentA).toBeCloseTo(699.819, 3);
     expect(ev.throughFault.category).toBe('IV');
-    const u = await file.env.db.getRepository(Unit).findOneByOrFail({ id: unit.id });
+    const u = await opened.env.db.getRepository(Unit).findOneByOrFail({ id: unit.id });
     expect(u.lastEventId).toBe(ev.id);
     expect(u.lastEventStatus).toBe('logged');
   });
 
   it('rejects a zero duration, an unknown protection and a missing side with 400 naming each field', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const res = await api().post('/api/events').set(as.protection).send({ unitId: unit.id, occurredAt: '2026-11-28T03:12:00Z', type: 'three-phase', shots: [{ currentKA: 6, durationS: 0 }], protectionOperated: ['magic'] });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields)).toEqual(expect.arrayContaining(['side', 'shots.0.durationS', 'protectionOperated.0']));
-    expect(await file.env.db.getRepository(FaultEvent).count({ where: { unitId: unit.id } })).toBe(0);
+    expect(await opened.env.db.getRepository(FaultEvent).count({ where: { unitId: unit.id } })).toBe(0);
   });
 
   it('lists events newest first, filtered by unit and status', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const a = await logFault(unit.id, { occurredAt: '2025-01-01T00:00:00Z' });
     const b = await logFault(unit.id, { occurredAt: '2026-01-01T00:00:00Z' });
     const res = await api().get(`/api/events?unitId=${unit.id}&status=logged`).set(as.tester);
@@ -58,7 +58,7 @@ describe('relay-record attachments', () => {
   const cfg = 'KESTREL VALLEY HX,REL670,1999\n3,3A,0D\n1,IA,A,,A,1,0,0,-32767,32767,1,1,P\n';
 
   it('stores a COMTRADE .cfg with its checksum and gives the bytes back', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const res = await api().post(`/api/events/${ev.id}/attachments`).set(as.protection).attach('file', Buffer.from(cfg), 'fault.cfg');
     expect(res.status).toBe(201);
@@ -74,18 +74,18 @@ describe('relay-record attachments', () => {
   });
 
   it('answers 415 for a file whose content does not match its extension, and stores nothing', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const res = await api().post(`/api/events/${ev.id}/attachments`).set(as.protection).attach('file', Buffer.from('%PDF-1.4 not a cfg'), 'fault.cfg');
     expect(res.status).toBe(415);
     expect(res.body.error.fields.file).toBe('the .cfg file is a PDF document: upload it with a .pdf name');
     const exe = await api().post(`/api/events/${ev.id}/attachments`).set(as.protection).attach('file', Buffer.from('MZ\x90\x00'), 'relay.exe');
     expect(exe.status).toBe(415);
-    expect(await file.env.db.getRepository(Attachment).count({ where: { ownerType: 'event', ownerId: ev.id } })).toBe(0);
+    expect(await opened.env.db.getRepository(Attachment).count({ where: { ownerType: 'event', ownerId: ev.id } })).toBe(0);
   });
 
   it('answers 413 for a file over the upload limit', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const big = Buffer.alloc(12 * 1024 * 1024 + 1, 'a');
     const res = await api().post(`/api/events/${ev.id}/attachments`).set(as.protection).attach('file', big, 'huge.txt');
@@ -94,7 +94,7 @@ describe('relay-record attachments', () => {
   });
 
   it('answers 400 naming the file field when no file is sent', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const res = await api().post(`/api/events/${ev.id}/attachments`).set(as.protection).field('x', 'y');
     expect(res.status).toBe(400);
@@ -104,7 +104,7 @@ describe('relay-record attachments', () => {
 
 describe('sessions, imports and sweeps', () => {
   it('opens a session (event → testing), imports a readings CSV, adds a sweep, and the case export carries them all', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     await api().post(`/api/units/${unit.id}/reading-sets`).set(as.tester).send({ kind: 'factory', takenAt: '2019-05-02', temperatureC: 28, capacitancePF: { CH: 3120, CL: 9870, CHL: 5210 } }).expect(201);
     const factory = (await api().get(`/api/units/${unit.id}`).set(as.tester)).body.readingSets[0];
     const base = await api().post(`/api/units/${unit.id}/sweeps`).set(as.tester).field('label', 'HV-A-open').field('testType', 'open-circuit').field('readingSetId', String(factory.id)).attach('file', Buffer.from(sweepCsv()), 'base.csv');
@@ -144,7 +144,7 @@ describe('sessions, imports and sweeps', () => {
   });
 
   it('rejects a CSV with bad rows as a whole, lists every bad row, and changes nothing', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const session = (await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z' })).body;
     const csv = 'quantity,configuration,phase,value,unit\ncapacitance,CH,,3131,pF\ncapacitance,CL,,"9990,5",pF\nreactance,,A,abc,%\nvoltage,,A,1,V\n';
@@ -155,11 +155,11 @@ describe('sessions, imports and sweeps', () => {
     expect(keys.some((k) => k.startsWith('row 4.'))).toBe(true);
     expect(keys.some((k) => k.startsWith('row 5.'))).toBe(true);
     expect(res.body.error.fields['row 3.value']).toMatch(/decimal comma/);
-    expect(await file.env.db.getRepository(Reading).count({ where: { readingSetId: session.id } })).toBe(0);
+    expect(await opened.env.db.getRepository(Reading).count({ where: { readingSetId: session.id } })).toBe(0);
   });
 
   it('answers 415 for an import that is not CSV text', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const session = (await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z' })).body;
     const res = await api().post(`/api/sessions/${session.id}/imports`).set(as.tester).attach('file', Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0]), 'readings.csv');
@@ -167,10 +167,10 @@ describe('sessions, imports and sweeps', () => {
   });
 
   it('answers 409 to a new session or an import on a released event', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const session = (await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z' })).body;
-    await file.env.db.getRepository(FaultEvent).update(ev.id, { status: 'released' });
+    await opened.env.db.getRepository(FaultEvent).update(ev.id, { status: 'released' });
     const again = await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-30T08:00:00Z' });
     expect(again.status).toBe(409);
     expect(again.body.error.code).toBe('invalid_status');
@@ -179,12 +179,12 @@ describe('sessions, imports and sweeps', () => {
   });
 
   it('moves a held event back to testing when a re-test session is opened', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
-    await file.env.db.getRepository(FaultEvent).update(ev.id, { status: 'held' });
+    await opened.env.db.getRepository(FaultEvent).update(ev.id, { status: 'held' });
     const res = await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-12-01T08:00:00Z' });
     expect(res.status).toBe(201);
-    expect((await file.env.db.getRepository(FaultEvent).findOneByOrFail({ id: ev.id })).status).toBe('testing');
+    expect((await opened.env.db.getRepository(FaultEvent).findOneByOrFail({ id: ev.id })).status).toBe('testing');
   });
 });
 

@@ -12,8 +12,8 @@ import { sweepCsv } from '../../helpers/sweep-csv.js';
 // Rules revision 2 fields through the API: stored, exported in the event's case, bad values named (400, nothing written).
 // Invented demo values of a 40 MVA 132/33 kV YNd1 unit (Kestrel Valley Power style), not check values.
 
-const file = apiForFile(['protection', 'tester']);
-const { api, as } = file;
+const opened = apiForFile(['protection', 'tester']);
+const { api, as } = opened;
 const FAULT_AT = '2026-11-28T03:12:00Z';
 
 async function logFault(unitId: number, over: Record<string, unknown> = {}) {
@@ -33,15 +33,15 @@ async function exportCase(eventId: number) {
   return res.body;
 }
 
-const setsOf = (unitId: number) => file.env.db.getRepository(ReadingSet).find({ where: { unitId }, order: { takenAt: 'ASC', id: 'ASC' } });
+const setsOf = (unitId: number) => opened.env.db.getRepository(ReadingSet).find({ where: { unitId }, order: { takenAt: 'ASC', id: 'ASC' } });
 
 describe('fault location and current basis', () => {
   it('are stored, shown and exported, for the event and for the prior faults', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const prior = await logFault(unit.id, { occurredAt: '2025-03-01T10:00:00Z', type: 'phase-to-ground', side: 'hv', location: 'lv', currentIs: 'winding', shots: [{ currentKA: 0.9, durationS: 0.3 }] });
     const ev = await logFault(unit.id, { location: 'lv', currentIs: 'line' });
     expect(prior).toMatchObject({ location: 'lv', currentIs: 'winding' });
-    expect(await file.env.db.getRepository(FaultEvent).findOneByOrFail({ id: ev.id })).toMatchObject({ location: 'lv', currentIs: 'line' });
+    expect(await opened.env.db.getRepository(FaultEvent).findOneByOrFail({ id: ev.id })).toMatchObject({ location: 'lv', currentIs: 'line' });
     expect((await api().get(`/api/events/${ev.id}`).set(as.tester)).body).toMatchObject({ location: 'lv', currentIs: 'line' });
 
     const c = await exportCase(ev.id);
@@ -50,7 +50,7 @@ describe('fault location and current basis', () => {
   });
 
   it('are left out of the case when not recorded (the defaults apply)', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     expect(ev).toMatchObject({ location: null, currentIs: null });
     const c = await exportCase(ev.id);
@@ -59,18 +59,18 @@ describe('fault location and current basis', () => {
   });
 
   it('reach the duty figures: winding currents are the basis when recorded so, line currents otherwise', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     // Case format, "Winding current" / result `currentBasis`: `winding` when given as winding currents.
     expect((await logFault(unit.id, { currentIs: 'winding' })).throughFault.currentBasis).toBe('winding');
     expect((await logFault(unit.id, { currentIs: 'line', occurredAt: '2026-11-29T03:12:00Z' })).throughFault.currentBasis).not.toBe('winding');
   });
 
   it('reject other values with 400 naming each field, and store nothing', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const res = await api().post('/api/events').set(as.protection).send({ unitId: unit.id, occurredAt: FAULT_AT, type: 'three-phase', side: 'lv', location: 'mv', currentIs: 'phase', shots: [{ currentKA: 6.3, durationS: 0.12 }] });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['currentIs', 'location']);
-    expect(await file.env.db.getRepository(FaultEvent).countBy({ unitId: unit.id })).toBe(0);
+    expect(await opened.env.db.getRepository(FaultEvent).countBy({ unitId: unit.id })).toBe(0);
   });
 });
 
@@ -82,7 +82,7 @@ const bushings = {
 
 describe('post-fault session body', () => {
   it('stores the doubts as columns and every section as rows, and the case postFault carries them', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const body = {
       takenAt: '2026-11-29T08:00:00Z',
@@ -101,9 +101,9 @@ describe('post-fault session body', () => {
     const res = await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send(body);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ demagnetised: true, hoursDeenergised: 29, windingTemperatureC: 24.5 });
-    const row = await file.env.db.getRepository(ReadingSet).findOneByOrFail({ id: res.body.id });
+    const row = await opened.env.db.getRepository(ReadingSet).findOneByOrFail({ id: res.body.id });
     expect(row).toMatchObject({ demagnetised: true, hoursDeenergised: 29, windingTemperatureC: 24.5, extra: null });
-    const quantities = (await file.env.db.getRepository(Reading).findBy({ readingSetId: row.id })).map((r) => r.quantity);
+    const quantities = (await opened.env.db.getRepository(Reading).findBy({ readingSetId: row.id })).map((r) => r.quantity);
     expect(quantities.filter((q) => q.startsWith('bushing-'))).toHaveLength(6); // H1: C1, DF1, C2, DF2; H2: C1; X1: C1
 
     const c = await exportCase(ev.id);
@@ -112,7 +112,7 @@ describe('post-fault session body', () => {
   });
 
   it('still takes the older spelling hoursDeenergised, exported as hoursDeEnergised', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z', hoursDeenergised: 7, capacitancePF: { CH: 3131 } }).expect(201);
     await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T09:00:00Z', hoursDeenergised: 8, hoursDeEnergised: 8, capacitancePF: { CL: 9990 } }).expect(201);
@@ -122,7 +122,7 @@ describe('post-fault session body', () => {
   });
 
   it('rejects bad values with 400 naming each field, and writes nothing (event stays logged)', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const cases: [Record<string, unknown>, string][] = [
       [{ demagnetised: 'yes' }, 'demagnetised'],
@@ -143,7 +143,7 @@ describe('post-fault session body', () => {
       expect(Object.keys(res.body.error.fields), JSON.stringify(bad)).toContain(field);
     }
     expect(await setsOf(unit.id)).toHaveLength(0);
-    expect((await file.env.db.getRepository(FaultEvent).findOneByOrFail({ id: ev.id })).status).toBe('logged');
+    expect((await opened.env.db.getRepository(FaultEvent).findOneByOrFail({ id: ev.id })).status).toBe('logged');
   });
 });
 
@@ -152,7 +152,7 @@ describe('pre-fault dissolved-gas sample with a session', () => {
   const postGas = { H2: 41.3, CH4: 17.2, C2H6: 10.9, C2H4: 6.8, C2H2: 0.4, CO: 391, CO2: 2985 };
 
   it('is stored as a routine set of the unit at its sampling time, audited, and is the case previous gas', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     // An older routine set with capacitance and gas: the newer pre-fault sample's gas wins, its capacitance stays.
     await api().post(`/api/units/${unit.id}/reading-sets`).set(as.tester).send({ kind: 'routine', takenAt: '2024-06-20', capacitancePF: { CH: 3124 }, dissolvedGasPPM: { H2: 20, C2H2: 0 } }).expect(201);
     const ev = await logFault(unit.id);
@@ -170,7 +170,7 @@ describe('pre-fault dissolved-gas sample with a session', () => {
       ['post-fault', '2026-11-29T08:00:00.000Z', ev.id],
     ]);
     expect(sets[2].extra).toBeNull(); // the sample is not kept a second time inside the session
-    const audited = await file.env.db.getRepository(AuditEntry).findOneByOrFail({ entity: 'reading_set', entityId: String(sets[1].id), action: 'create' });
+    const audited = await opened.env.db.getRepository(AuditEntry).findOneByOrFail({ entity: 'reading_set', entityId: String(sets[1].id), action: 'create' });
     expect(audited.note).toMatch(/pre-fault dissolved-gas sample/);
 
     const c = await exportCase(ev.id);
@@ -181,7 +181,7 @@ describe('pre-fault dissolved-gas sample with a session', () => {
   });
 
   it('taken at or after the fault is a 400 naming preFaultGas.takenAt, and nothing is written', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     for (const takenAt of [FAULT_AT, '2026-11-28T09:00:00Z']) {
       const res = await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z', capacitancePF: { CH: 3131 }, preFaultGas: { takenAt, dissolvedGasPPM: preGas } });
@@ -190,11 +190,11 @@ describe('pre-fault dissolved-gas sample with a session', () => {
       expect(res.body.error.fields['preFaultGas.takenAt']).toMatch(/before the fault/);
     }
     expect(await setsOf(unit.id)).toHaveLength(0);
-    expect((await file.env.db.getRepository(FaultEvent).findOneByOrFail({ id: ev.id })).status).toBe('logged');
+    expect((await opened.env.db.getRepository(FaultEvent).findOneByOrFail({ id: ev.id })).status).toBe('logged');
   });
 
   it('without a time or a gas is a 400 naming the field', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const noTime = await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z', preFaultGas: { dissolvedGasPPM: preGas } });
     expect(Object.keys(noTime.body.error.fields)).toEqual(['preFaultGas.takenAt']);
@@ -206,7 +206,7 @@ describe('pre-fault dissolved-gas sample with a session', () => {
 
 describe('unit reading-set body', () => {
   it('stores the doubts and bushings of a reference or routine set, and the case baseline and previous carry them', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const factory = await api()
       .post(`/api/units/${unit.id}/reading-sets`)
       .set(as.tester)
@@ -221,7 +221,7 @@ describe('unit reading-set body', () => {
   });
 
   it('rejects a bad bushing with 400 naming it, and stores nothing', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const res = await api().post(`/api/units/${unit.id}/reading-sets`).set(as.tester).send({ kind: 'routine', takenAt: '2024-06-20', bushings: { H1: { c1PF: 'big' } }, demagnetised: 1 });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['bushings.H1.c1PF', 'demagnetised']);
@@ -231,7 +231,7 @@ describe('unit reading-set body', () => {
 
 describe('readings CSV with the revision-2 quantities', () => {
   it('imports gases, bushings, excitation voltage and the winding temperature into the session and its case', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const session = (await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z', windingTemperatureC: 20, bushings: { H2: { c1PF: 409.8, winding: 'hv' } } })).body;
     const csv = [
@@ -248,8 +248,8 @@ describe('readings CSV with the revision-2 quantities', () => {
     const res = await api().post(`/api/sessions/${session.id}/imports`).set(as.tester).attach('file', Buffer.from(csv), 'readings.csv');
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.imported).toBe(8);
-    expect((await file.env.db.getRepository(ReadingSet).findOneByOrFail({ id: session.id })).windingTemperatureC).toBe(18.5);
-    const audit = await file.env.db.getRepository(AuditEntry).findOneByOrFail({ entity: 'reading_set', entityId: String(session.id), action: 'import' });
+    expect((await opened.env.db.getRepository(ReadingSet).findOneByOrFail({ id: session.id })).windingTemperatureC).toBe(18.5);
+    const audit = await opened.env.db.getRepository(AuditEntry).findOneByOrFail({ entity: 'reading_set', entityId: String(session.id), action: 'import' });
     expect(audit.before).toEqual({ windingTemperatureC: 20 });
     expect(audit.after).toMatchObject({ rows: 8, windingTemperatureC: 18.5 });
 
@@ -264,7 +264,7 @@ describe('readings CSV with the revision-2 quantities', () => {
   });
 
   it('rejects a bushing reading without its C1 (neither in the file nor in the session), and imports nothing', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);
     const session = (await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z' })).body;
     const csv = 'quantity,configuration,phase,value,unit\ngas,H2,,41.3,ppm\nbushing-c2,H3,,3700,pF\nwinding-temperature,,,300,degC\n';
@@ -274,14 +274,14 @@ describe('readings CSV with the revision-2 quantities', () => {
       'row 3.configuration': 'bushing H3 has no bushing-c1 row: give its C1 capacitance too',
       'row 4.value': 'must be 250 or less (degC: check the unit)',
     });
-    expect(await file.env.db.getRepository(Reading).countBy({ readingSetId: session.id })).toBe(0);
-    expect((await file.env.db.getRepository(ReadingSet).findOneByOrFail({ id: session.id })).windingTemperatureC).toBeNull();
+    expect(await opened.env.db.getRepository(Reading).countBy({ readingSetId: session.id })).toBe(0);
+    expect((await opened.env.db.getRepository(ReadingSet).findOneByOrFail({ id: session.id })).windingTemperatureC).toBeNull();
   });
 });
 
 describe('sweep uploads: winding, phase, baseline tap', () => {
   async function withBaselineTrace(tap: string | null) {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const factory = (await api().post(`/api/units/${unit.id}/reading-sets`).set(as.tester).send({ kind: 'factory', takenAt: '2019-05-02', capacitancePF: { CH: 3120 } })).body;
     const req = api().post(`/api/units/${unit.id}/sweeps`).set(as.tester).field('label', 'HV-B-open').field('testType', 'open-circuit').field('readingSetId', String(factory.id)).field('winding', 'hv').field('phase', 'B');
     if (tap) req.field('tapPosition', tap);
@@ -308,7 +308,7 @@ describe('sweep uploads: winding, phase, baseline tap', () => {
       .attach('file', Buffer.from(sweepCsv(0.4)), 'post.csv');
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ winding: 'hv', phase: 'B', tapPosition: '10', baselineTapPosition: '9a', demagnetised: true });
-    expect(await file.env.db.getRepository(SweepTrace).findOneByOrFail({ id: res.body.id })).toMatchObject({ winding: 'hv', phase: 'B', tapPosition: '10', baselineTapPosition: '9a' });
+    expect(await opened.env.db.getRepository(SweepTrace).findOneByOrFail({ id: res.body.id })).toMatchObject({ winding: 'hv', phase: 'B', tapPosition: '10', baselineTapPosition: '9a' });
     const [sweep] = (await exportCase(ev.id)).sweeps;
     expect(sweep).toMatchObject({ label: 'HV-B-open', testType: 'open-circuit', winding: 'hv', phase: 'B', tapPosition: '10', baselineTapPosition: '9a', demagnetised: true });
     expect(sweep.baseline).toHaveLength(60);
@@ -342,15 +342,15 @@ describe('sweep uploads: winding, phase, baseline tap', () => {
       .attach('file', Buffer.from(sweepCsv()), 'post.csv');
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual({ winding: 'hv, lv or tv', phase: 'A, B or C', baselineTapPosition: 'at most 20 characters' });
-    expect(await file.env.db.getRepository(SweepTrace).countBy({ readingSetId: session.id })).toBe(0);
+    expect(await opened.env.db.getRepository(SweepTrace).countBy({ readingSetId: session.id })).toBe(0);
   });
 
   it('refuse a baseline tap on a baseline trace (its tap is its tapPosition)', async () => {
-    const unit = await makeUnit(file.env.db);
+    const unit = await makeUnit(opened.env.db);
     const factory = (await api().post(`/api/units/${unit.id}/reading-sets`).set(as.tester).send({ kind: 'factory', takenAt: '2019-05-02', capacitancePF: { CH: 3120 } })).body;
     const res = await api().post(`/api/units/${unit.id}/sweeps`).set(as.tester).field('label', 'HV-A-open').field('testType', 'open-circuit').field('readingSetId', String(factory.id)).field('baselineTapPosition', '9b').attach('file', Buffer.from(sweepCsv()), 'base.csv');
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields)).toEqual(['baselineTapPosition']);
-    expect(await file.env.db.getRepository(SweepTrace).countBy({ readingSetId: factory.id })).toBe(0);
+    expect(await opened.env.db.getRepository(SweepTrace).countBy({ readingSetId: factory.id })).toBe(0);
   });
 });
