@@ -50,7 +50,8 @@ const MAIN_FLOW: ReadonlyArray<readonly [string, Who]> = [
 // api.md, "Routes added with rules revision 2 and the administration work". Partly future work: a row missing from the
 // route table is not a failure. In the table today: GET/POST /users, PATCH /users/:id, POST /users/:id/reset-password,
 // POST /users/:id/unlock, GET /events/:id/attachments/:attachmentId, GET /sweeps/:id, GET /follow-ups, POST /units/import,
-// GET /units/export (and GET /events, also a main-flow row).
+// GET /units/export, PATCH /events/:id, PATCH /sessions/:id, POST /events/:id/energised (and GET /events, also a
+// main-flow row).
 const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['GET /users', ['admin']],
   ['POST /users', ['admin']],
@@ -67,6 +68,8 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['POST /events/:id/energised', ['manager']],
   // Not an api.md row: lifting the active restrictions of a release with restrictions.
   ['POST /events/:id/restrictions/lift', ['manager']],
+  // Not an api.md row: a unit's factory, commissioning or routine set from a readings CSV (the session import's format).
+  ['POST /units/:id/reading-sets/import', ['tester']],
   ['GET /follow-ups', 'signed in'],
   ['GET /criteria', 'signed in'],
   ['GET /criteria/:version', 'signed in'],
