@@ -1,8 +1,7 @@
 // POST /api/units/import: .xlsx and CSV fleet files, every bad row listed before anything is saved, all or nothing,
 // one audited create per unit; the type judged by content (415), the size limit (413), a dry run that saves nothing.
 import ExcelJS from 'exceljs';
-import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { Like } from 'typeorm';
 import { AuditEntry } from '../../../server/common/audit-entry.entity.js';
 import { UPLOAD_LIMITS } from '../../../server/common/upload.js';
@@ -11,33 +10,21 @@ import type { Design } from '../../../server/features/designs/design.entity.js';
 import type { Site } from '../../../server/features/sites/site.entity.js';
 import { DECIMAL_COMMA_MESSAGE } from '../../../shared/numbers.js';
 import { unitImportAnswerSchema, unitImportPreviewSchema } from '../../../shared/schemas/responses/units-io.js';
-import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
+import { apiForFile } from '../../helpers/api-file.js';
 import { makeDesign, makeSite, makeUnit } from '../../helpers/factories.js';
 
-let env: TestEnv;
-let admin: { Authorization: string };
-let adminId: number;
-let tester: { Authorization: string };
+const opened = apiForFile(['admin', 'tester']);
+const { api, as, userId } = opened;
 let site: Site;
 let design: Design;
 beforeAll(async () => {
-  env = await openTestEnv();
-  const a = await createTestUser(env.db, ['admin']);
-  adminId = a.id;
-  admin = bearer(env.config, a.id);
-  tester = bearer(env.config, (await createTestUser(env.db, ['tester'])).id);
-  site = await makeSite(env.db);
-  design = await makeDesign(env.db, { hvKV: 132, lvKV: 33, impedancePercent: 10.5, impedanceBaseKVA: 40000 });
+  site = await makeSite(opened.env.db);
+  design = await makeDesign(opened.env.db, { hvKV: 132, lvKV: 33, impedancePercent: 10.5, impedanceBaseKVA: 40000 });
 });
-afterAll(async () => {
-  await env.db.destroy();
-});
-
-const api = () => request(env.app);
 const uniq = () => Math.random().toString(36).slice(2, 8).toUpperCase();
-const unitsLike = (prefix: string) => env.db.getRepository(Unit).find({ where: { serial: Like(`${prefix}%`) }, order: { serial: 'ASC' } });
+const unitsLike = (prefix: string) => opened.env.db.getRepository(Unit).find({ where: { serial: Like(`${prefix}%`) }, order: { serial: 'ASC' } });
 const createAudits = (ids: number[]) =>
-  Promise.all(ids.map((id) => env.db.getRepository(AuditEntry).findBy({ entity: 'unit', entityId: String(id), action: 'create' })));
+  Promise.all(ids.map((id) => opened.env.db.getRepository(AuditEntry).findBy({ entity: 'unit', entityId: String(id), action: 'create' })));
 
 /**
  * A register as engineers keep it: a title row, then a two-row header with vertically merged cells (Serial, Site,
@@ -62,7 +49,7 @@ async function register(rows: (string | number | null)[][], opts: { siteMergedOv
 describe('POST /api/units/import (.xlsx)', () => {
   it('answers 400 listing every bad row (decimal comma named) and writes nothing', async () => {
     const p = `X${uniq()}-`;
-    await makeUnit(env.db, { serial: `${p}TAKEN`, siteId: site.id, designId: design.id });
+    await makeUnit(opened.env.db, { serial: `${p}TAKEN`, siteId: site.id, designId: design.id });
     const file = await register([
       [`${p}1`, site.name, design.reference, 132, 33, 10.5, 2011],
       [`${p}2`, site.name, design.reference, '132,5', 33, null, null],
@@ -71,7 +58,7 @@ describe('POST /api/units/import (.xlsx)', () => {
       [`${p}1`, site.name, design.reference, null, null, null, null],
       [`${p}TAKEN`, site.name, design.reference, null, null, null, null],
     ]);
-    const res = await api().post('/api/units/import').set(admin).attach('file', file, 'register.xlsx');
+    const res = await api().post('/api/units/import').set(as.admin).attach('file', file, 'register.xlsx');
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('invalid_file');
     expect(res.body.error.fields).toEqual({
@@ -94,7 +81,7 @@ describe('POST /api/units/import (.xlsx)', () => {
       ],
       { siteMergedOver: [4, 5] },
     );
-    const res = await api().post('/api/units/import').set(admin).attach('file', file, 'register.xlsx');
+    const res = await api().post('/api/units/import').set(as.admin).attach('file', file, 'register.xlsx');
     expect(res.status).toBe(201);
     expect(unitImportAnswerSchema.safeParse(res.body).success).toBe(true);
     expect(res.body.imported).toBe(2);
@@ -110,7 +97,7 @@ describe('POST /api/units/import (.xlsx)', () => {
     ]);
     const audits = await createAudits(units.map((u) => u.id));
     expect(audits.map((a) => a.length)).toEqual([1, 1]);
-    expect(audits[0][0]).toMatchObject({ userId: adminId, after: { serial: `${p}1`, hvKV: 132 } });
+    expect(audits[0][0]).toMatchObject({ userId: userId.admin, after: { serial: `${p}1`, hvKV: 132 } });
   });
 
   it('answers a dry run with the columns found, the rows and every problem, and saves nothing', async () => {
@@ -119,7 +106,7 @@ describe('POST /api/units/import (.xlsx)', () => {
       [`${p}1`, site.name, design.reference, 132, 33, 10.5, 2011],
       [`${p}2`, site.name, design.reference, '33,0', 11, null, null],
     ]);
-    const res = await api().post('/api/units/import').set(admin).field('dryRun', 'true').attach('file', file, 'register.xlsx');
+    const res = await api().post('/api/units/import').set(as.admin).field('dryRun', 'true').attach('file', file, 'register.xlsx');
     expect(res.status).toBe(200);
     expect(unitImportPreviewSchema.safeParse(res.body).success).toBe(true);
     expect(res.body).toMatchObject({
@@ -147,17 +134,17 @@ describe('POST /api/units/import (.xlsx)', () => {
     ws.addRow([`${p}1`, site.name, design.reference, 132]);
     const file = Buffer.from(await wb.xlsx.writeBuffer());
     const mapping = JSON.stringify({ serial: 'asset', site: 'Where', design: 'Family', hvKV: 'Primary' });
-    const res = await api().post('/api/units/import').set(admin).field('mapping', mapping).attach('file', file, 'assets.xlsx');
+    const res = await api().post('/api/units/import').set(as.admin).field('mapping', mapping).attach('file', file, 'assets.xlsx');
     expect(res.status).toBe(201);
     expect((await unitsLike(p)).map((u) => [u.serial, u.hvKV])).toEqual([[`${p}1`, 132]]);
   });
 
   it('answers 400 naming the mapping when it is not JSON or names an unknown field', async () => {
     const file = Buffer.from(`serial,site,design\nQ-${uniq()},${site.name},${design.reference}\n`);
-    const notJson = await api().post('/api/units/import').set(admin).field('mapping', '{serial:').attach('file', file, 'u.csv');
+    const notJson = await api().post('/api/units/import').set(as.admin).field('mapping', '{serial:').attach('file', file, 'u.csv');
     expect(notJson.status).toBe(400);
     expect(notJson.body.error.fields.mapping).toMatch(/not JSON/);
-    const unknown = await api().post('/api/units/import').set(admin).field('mapping', '{"colour":"Serial"}').attach('file', file, 'u.csv');
+    const unknown = await api().post('/api/units/import').set(as.admin).field('mapping', '{"colour":"Serial"}').attach('file', file, 'u.csv');
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.fields['mapping.colour']).toMatch(/not a unit field/);
   });
@@ -167,7 +154,7 @@ describe('POST /api/units/import (CSV)', () => {
   it('answers 400 for a semicolon file with decimal commas, naming each row, and writes nothing', async () => {
     const p = `C${uniq()}-`;
     const csv = `serial;site;design;hvKV;lvKV\n${p}1;${site.name};${design.reference};132;33\n${p}2;${site.name};${design.reference};132,5;33\n`;
-    const res = await api().post('/api/units/import').set(admin).attach('file', Buffer.from(csv), 'units.csv');
+    const res = await api().post('/api/units/import').set(as.admin).attach('file', Buffer.from(csv), 'units.csv');
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual({ 'row 3.hvKV': DECIMAL_COMMA_MESSAGE });
     expect(await unitsLike(p)).toEqual([]);
@@ -176,7 +163,7 @@ describe('POST /api/units/import (CSV)', () => {
   it('imports a good CSV with aliases in the header, one audited create per unit', async () => {
     const p = `V${uniq()}-`;
     const csv = `Serial No,Position,Substation,Design Ref,HV (kV),Rating kVA,Conductor\n${p}1,T1,${site.name},${design.reference},132,45000,Al\n${p}2,T2,${site.name},${design.reference},,,\n`;
-    const res = await api().post('/api/units/import').set(admin).attach('file', Buffer.from(csv), 'units.csv');
+    const res = await api().post('/api/units/import').set(as.admin).attach('file', Buffer.from(csv), 'units.csv');
     expect(res.status).toBe(201);
     expect(res.body.imported).toBe(2);
     const units = await unitsLike(p);
@@ -190,28 +177,28 @@ describe('POST /api/units/import (CSV)', () => {
 
 describe('POST /api/units/import (file checks and roles)', () => {
   it('answers 415 for a file that is neither .xlsx nor CSV, whatever its name', async () => {
-    const pdf = await api().post('/api/units/import').set(admin).attach('file', Buffer.from('%PDF-1.7\n%…'), 'units.xlsx');
+    const pdf = await api().post('/api/units/import').set(as.admin).attach('file', Buffer.from('%PDF-1.7\n%…'), 'units.xlsx');
     expect(pdf.status).toBe(415);
     expect(pdf.body.error.fields.file).toMatch(/PDF/);
-    const binary = await api().post('/api/units/import').set(admin).attach('file', Buffer.from([0, 1, 2, 3, 255, 254]), 'units.csv');
+    const binary = await api().post('/api/units/import').set(as.admin).attach('file', Buffer.from([0, 1, 2, 3, 255, 254]), 'units.csv');
     expect(binary.status).toBe(415);
   });
 
   it('answers 413 for a file over the upload limit', async () => {
     const big = Buffer.alloc(UPLOAD_LIMITS.unitSheetBytes + 1, 0x61);
-    const res = await api().post('/api/units/import').set(admin).attach('file', big, 'units.csv');
+    const res = await api().post('/api/units/import').set(as.admin).attach('file', big, 'units.csv');
     expect(res.status).toBe(413);
   });
 
   it('answers 400 naming the file field when no file is attached', async () => {
-    const res = await api().post('/api/units/import').set(admin).field('dryRun', 'true');
+    const res = await api().post('/api/units/import').set(as.admin).field('dryRun', 'true');
     expect(res.status).toBe(400);
     expect(res.body.error.fields.file).toBe('required');
   });
 
   it('refuses a tester with 403 and writes nothing', async () => {
     const p = `R${uniq()}-`;
-    const res = await api().post('/api/units/import').set(tester).attach('file', Buffer.from(`serial,site,design\n${p}1,${site.name},${design.reference}\n`), 'u.csv');
+    const res = await api().post('/api/units/import').set(as.tester).attach('file', Buffer.from(`serial,site,design\n${p}1,${site.name},${design.reference}\n`), 'u.csv');
     expect(res.status).toBe(403);
     expect(await unitsLike(p)).toEqual([]);
   });
