@@ -1,8 +1,10 @@
 import { z } from 'zod';
 import { UNIT_SHEET_FIELDS, type UnitSheetField } from '../imports/units-sheet-fields.js';
+import { UNIT_READING_SET_KINDS } from './enums.js';
 import { unitListQuerySchema } from './fleet.js';
 
-// Inputs of the fleet spreadsheet routes: GET /api/units/export and POST /api/units/import.
+// Inputs of the fleet spreadsheet routes: GET /api/units/export, POST /api/units/import and POST
+// /api/units/:unitId/reading-sets/import.
 
 type UnitSheetMapping = Partial<Record<UnitSheetField, string>>;
 
@@ -47,4 +49,20 @@ export const unitImportFieldsSchema = z.object({
     .enum(['true', 'false'], { message: 'true or false' })
     .transform((v) => v === 'true')
     .optional(),
+});
+
+/**
+ * POST /api/units/:unitId/reading-sets/import — the multipart fields beside `file` (a readings CSV, the format of
+ * POST /api/sessions/:id/imports): the set's kind, when it was taken, and a few conditions.
+ */
+export const unitReadingSetImportFieldsSchema = z.object({
+  kind: z.enum(UNIT_READING_SET_KINDS, { message: UNIT_READING_SET_KINDS.join(', ') }),
+  takenAt: z
+    .string()
+    .min(1, 'required')
+    .refine((s) => !Number.isNaN(Date.parse(s)), { message: 'not an ISO 8601 date or date-time' }),
+  isReference: z.enum(['true', 'false'], { message: 'true or false' }).transform((v) => v === 'true').optional(),
+  tapPosition: z.string().trim().max(20, 'at most 20 characters').optional(),
+  instrument: z.string().max(120).optional(),
+  notes: z.string().max(5000).optional(),
 });

@@ -1,6 +1,7 @@
-// Fleet spreadsheets — GET /api/units/export (the fleet as filtered, as a file) and POST /api/units/import (units from
-// an .xlsx or CSV file; a dry run first, then the import).
+// Fleet spreadsheets — GET /api/units/export (the fleet as filtered, as a file), POST /api/units/import (units from
+// an .xlsx or CSV file; a dry run first, then the import) and a unit's reading set from a readings CSV.
 import type { UnitSheetMapping } from '../../shared/imports/units-sheet';
+import type { CreatedReadingSet } from '../../shared/schemas/responses';
 import type { UnitImportAnswer, UnitImportPreview } from '../../shared/schemas/responses/units-io';
 import type { UnitListQuery } from './units';
 import { api } from './client';
@@ -29,4 +30,19 @@ export function previewUnitsImport(file: File, mapping?: UnitSheetMapping): Prom
 // POST /api/units/import — all rows or none (admin).
 export function importUnitsFile(file: File, mapping?: UnitSheetMapping): Promise<UnitImportAnswer> {
   return importForm(file, mapping, false) as Promise<UnitImportAnswer>;
+}
+
+/** The fields sent with a reading-set CSV (kind, when taken, and a few conditions). */
+export interface UnitReadingSetImportFields {
+  kind: 'factory' | 'commissioning' | 'routine';
+  takenAt: string;
+  isReference?: boolean;
+  tapPosition?: string;
+  instrument?: string;
+  notes?: string;
+}
+
+// POST /api/units/:id/reading-sets/import — a factory, commissioning or routine set from a readings CSV (tester, admin).
+export function importUnitReadingSet(unitId: number, file: File, fields: UnitReadingSetImportFields): Promise<CreatedReadingSet> {
+  return api.upload<CreatedReadingSet>(`/units/${unitId}/reading-sets/import`, { file, name: file.name }, { ...fields });
 }

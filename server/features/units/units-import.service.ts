@@ -1,6 +1,8 @@
 import ExcelJS from 'exceljs';
 import { In, type EntityManager } from 'typeorm';
-import { detectSpreadsheet } from '../../../shared/imports/sniff.js';
+import type { z } from 'zod';
+import { parseReadingsCsv, readingRowsToSet } from '../../../shared/imports/readings-csv.js';
+import { detectSpreadsheet, looksLikeCsvText } from '../../../shared/imports/sniff.js';
 import {
   columnHeaders,
   csvSheetRows,
@@ -11,14 +13,17 @@ import {
   type SheetRow,
   type UnitSheetMapping,
 } from '../../../shared/imports/units-sheet.js';
+import { readingSetBodySchema } from '../../../shared/schemas/fleet.js';
 import type { UnitImportAnswer, UnitImportPreview } from '../../../shared/schemas/responses/units-io.js';
+import type { unitReadingSetImportFieldsSchema } from '../../../shared/schemas/units-io.js';
 import { AppError, badRequest } from '../../common/app-error.js';
 import type { Clock } from '../../common/clock.js';
-import { UPLOAD_LIMITS, unsupportedType } from '../../common/upload.js';
+import { extensionOf, UPLOAD_LIMITS, unsupportedType } from '../../common/upload.js';
+import { parseOr400 } from '../../common/validate.js';
 import { Design } from '../designs/design.entity.js';
 import { Site } from '../sites/site.entity.js';
 import { Unit } from './unit.entity.js';
-import { createUnit } from './units.service.js';
+import { addUnitReadingSet, createUnit } from './units.service.js';
 
 // Fleet onboarding: one unit a row of an .xlsx or CSV file, every row checked before anything is saved, then each unit
 // created by the same service as POST /api/units (so each gets its own audited create), all in the request's transaction.
@@ -130,4 +135,26 @@ export async function importUnits(
     rows.push({ row: r.row, ...(await createUnit(m, clock, userId, r.body)) });
   }
   return { imported: rows.length, rows } satisfies UnitImportAnswer;
+}
+
+/**
+ * POST /api/units/:unitId/reading-sets/import: a factory, commissioning or routine reading set from a readings CSV (the
+ * session import's format), every bad row listed before anything is saved; stored by the same service as
+ * POST /api/units/:unitId/reading-sets (audited create).
+ */
+export async function importUnitReadingSet(
+  m: EntityManager,
+  clock: Clock,
+  userId: number,
+  unitId: number,
+  fields: z.output<typeof unitReadingSetImportFieldsSchema>,
+  file: { originalname: string; buffer: Buffer },
+) {
+  const ext = extensionOf(file.originalname);
+  if (!['.csv', '.txt'].includes(ext)) throw unsupportedType(`A readings import must be a .csv file, not "${ext || 'no extension'}".`);
+  if (!looksLikeCsvText(new Uint8Array(file.buffer))) throw unsupportedType('The file is not comma-separated text.');
+  const parsed = parseReadingsCsv(file.buffer.toString('utf8'));
+  if (!parsed.ok) throw new AppError('invalid_file', 'The file has errors; nothing was imported.', 400, parsed.fields);
+  const body = parseOr400(readingSetBodySchema, { ...readingRowsToSet(parsed.rows), ...fields });
+  return addUnitReadingSet(m, clock, userId, unitId, body);
 }

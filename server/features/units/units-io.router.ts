@@ -1,8 +1,9 @@
 import { fileReply, Reply, route, type RouteDef } from '../../route-def.js';
 import { UPLOAD_LIMITS } from '../../common/upload.js';
-import { unitExportQuerySchema, unitImportFieldsSchema } from '../../../shared/schemas/units-io.js';
+import { unitParams } from '../../common/params.js';
+import { unitExportQuerySchema, unitImportFieldsSchema, unitReadingSetImportFieldsSchema } from '../../../shared/schemas/units-io.js';
 import { exportUnits } from './units-export.service.js';
-import { importUnits } from './units-import.service.js';
+import { importUnitReadingSet, importUnits } from './units-import.service.js';
 
 // Fleet spreadsheets. Registered before the unit routes, so `export` and `import` are never read as a unit id.
 export const unitIoRoutes: RouteDef[] = [
@@ -33,5 +34,17 @@ export const unitIoRoutes: RouteDef[] = [
       const answer = await importUnits(m, clock, user.id, file, { mapping: body.mapping, dryRun: body.dryRun });
       return 'dryRun' in answer ? new Reply({ status: 200, json: answer }) : answer;
     },
+  }),
+  // POST /api/units/:unitId/reading-sets/import — a factory, commissioning or routine set from a readings CSV (not an
+  // api.md row: the readings CSV of the session import, on the unit file)
+  route({
+    method: 'post',
+    path: '/units/:unitId/reading-sets/import',
+    access: ['tester', 'admin'],
+    upload: UPLOAD_LIMITS.readingsCsvBytes,
+    params: unitParams,
+    body: unitReadingSetImportFieldsSchema,
+    status: 201,
+    handler: ({ m, clock, user, params, body, file }) => importUnitReadingSet(m, clock, user.id, params.unitId, body, file),
   }),
 ];
