@@ -2,32 +2,13 @@ import { enableAutoUnmount } from '@vue/test-utils';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { DesignListItem } from '../../../../src/api/designs';
 import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse } from '../../helpers';
+import { design40 } from '../fixtures';
 
 enableAutoUnmount(afterEach);
 beforeAll(() => import('../../../../src/pages/admin/AdminDesignsPage.vue'), 60_000);
 
-// An invented design family.
-const family: DesignListItem = {
-  id: 4,
-  reference: 'KV-40-132',
-  maker: 'Northfold Works',
-  windings: 'two-winding',
-  vectorGroup: 'YNd1',
-  phases: 3,
-  hvKV: 132,
-  lvKV: 33,
-  tvKV: null,
-  coolingStages: [
-    { stage: 'ONAN', kVA: 24000 },
-    { stage: 'ONAF', kVA: 40000 },
-  ],
-  impedancePercent: 10.5,
-  impedanceBaseKVA: 40000,
-  conductor: 'Cu',
-  requiredCapacitance: ['CH', 'CL', 'CHL'],
-  notes: null,
-  unitCount: 8,
-};
+// An invented design family (the page tests' 40 MVA design, under another maker).
+const family: DesignListItem = { ...design40, id: 4, maker: 'Northfold Works', unitCount: 8 };
 
 function signedInAsAdmin(script: Record<string, ScriptedResponse | ((r: RecordedRequest) => ScriptedResponse)> = {}) {
   storeToken('valid');
