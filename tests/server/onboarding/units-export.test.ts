@@ -5,17 +5,19 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { unitParams } from '../../../server/common/params.js';
 import type { Site } from '../../../server/features/sites/site.entity.js';
-import { FLEET_EXPORT_COLUMNS } from '../../../shared/imports/units-sheet.js';
+import { FLEET_EXPORT_COLUMNS, UNIT_SHEET_FIELDS } from '../../../shared/imports/units-sheet.js';
 import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
 import { makeDesign, makeSite, makeUnit } from '../../helpers/factories.js';
 
 let env: TestEnv;
 let engineer: { Authorization: string };
+let admin: { Authorization: string };
 let site: Site;
 let p: string;
 beforeAll(async () => {
   env = await openTestEnv();
   engineer = bearer(env.config, (await createTestUser(env.db, ['engineer'])).id);
+  admin = bearer(env.config, (await createTestUser(env.db, ['admin'])).id);
   site = await makeSite(env.db, { timeZone: 'Australia/Sydney' });
   const design = await makeDesign(env.db);
   p = `E${Math.random().toString(36).slice(2, 8).toUpperCase()}-`;
@@ -67,6 +69,14 @@ describe('GET /api/units/export', () => {
     expect(lines).toHaveLength(3);
     expect(lines[1].startsWith(`${p}B,"'=HYPERLINK(""http://x"")",${site.name},`)).toBe(true);
     expect(lines[2].startsWith(`${p}A,'+44 bay,${site.name},`)).toBe(true);
+  });
+
+  it('writes a file the units import reads back: every field found, each serial already in the fleet', async () => {
+    const file = await api().get(`/api/units/export?format=xlsx&siteId=${site.id}`).set(engineer).buffer(true).parse(binary);
+    const res = await api().post('/api/units/import').set(admin).field('dryRun', 'true').attach('file', file.body as Buffer, 'fleet.xlsx');
+    expect(res.status).toBe(200);
+    expect(Object.fromEntries(UNIT_SHEET_FIELDS.map((f) => [f, res.body.columns[f]]))).toEqual(Object.fromEntries(UNIT_SHEET_FIELDS.map((f) => [f, f])));
+    expect(res.body.fields).toEqual({ 'row 2.serial': 'a unit with this serial exists', 'row 3.serial': 'a unit with this serial exists' });
   });
 
   it('answers 400 naming the format when it is neither xlsx nor csv', async () => {
