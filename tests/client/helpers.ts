@@ -124,3 +124,12 @@ export function captureDownloads() {
   const fileName = (n = 0) => (clicked.mock.contexts[n] as HTMLAnchorElement).download;
   return { blobs, fileName };
 }
+
+/** Types into a field anywhere in the document (dialogs are teleported out of the wrapper): the input or textarea
+ * carrying `data-test`, or the input inside the element carrying it. */
+export async function typeInDocument(testId: string, value: string): Promise<void> {
+  const input = document.body.querySelector<HTMLInputElement>(`[data-test="${testId}"] input, input[data-test="${testId}"], textarea[data-test="${testId}"]`)!;
+  input.value = value;
+  input.dispatchEvent(new Event('input'));
+  await settle();
+}

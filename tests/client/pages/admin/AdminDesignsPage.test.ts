@@ -1,7 +1,7 @@
 import { enableAutoUnmount } from '@vue/test-utils';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { DesignListItem } from '../../../../src/api/designs';
-import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse } from '../../helpers';
+import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse, typeInDocument } from '../../helpers';
 import { design40 } from '../fixtures';
 
 enableAutoUnmount(afterEach);
@@ -20,13 +20,6 @@ function signedInAsAdmin(script: Record<string, ScriptedResponse | ((r: Recorded
   });
 }
 
-async function type(testId: string, value: string): Promise<void> {
-  const input = document.body.querySelector<HTMLInputElement>(`[data-test="${testId}"] input, input[data-test="${testId}"], textarea[data-test="${testId}"]`)!;
-  input.value = value;
-  input.dispatchEvent(new Event('input'));
-  await settle();
-}
-
 const fieldOf = (testId: string) => document.body.querySelector(`[data-test="${testId}"]`)!.closest('.q-field')!.textContent ?? '';
 
 async function submit(): Promise<void> {
@@ -35,20 +28,20 @@ async function submit(): Promise<void> {
 }
 
 async function fillNewFamily(): Promise<void> {
-  await type('design-reference', 'QL-60-132');
-  await type('design-maker', 'Eastmere Transformers');
-  await type('design-vector-group', 'YNyn0d1');
-  await type('design-hv-kv', '132');
-  await type('design-lv-kv', '33');
-  await type('design-tv-kv', '11');
-  await type('design-impedance', '12.5');
-  await type('design-impedance-base', '60000');
-  await type('design-stage-kva-0', '36000');
+  await typeInDocument('design-reference', 'QL-60-132');
+  await typeInDocument('design-maker', 'Eastmere Transformers');
+  await typeInDocument('design-vector-group', 'YNyn0d1');
+  await typeInDocument('design-hv-kv', '132');
+  await typeInDocument('design-lv-kv', '33');
+  await typeInDocument('design-tv-kv', '11');
+  await typeInDocument('design-impedance', '12.5');
+  await typeInDocument('design-impedance-base', '60000');
+  await typeInDocument('design-stage-kva-0', '36000');
   (document.body.querySelector('[data-test="design-stage-add"]') as HTMLElement).click();
   await settle();
-  await type('design-stage-name-1', 'ONAF');
-  await type('design-stage-kva-1', '60000');
-  await type('design-required-capacitance', 'CH, CL; CT CHL');
+  await typeInDocument('design-stage-name-1', 'ONAF');
+  await typeInDocument('design-stage-kva-1', '60000');
+  await typeInDocument('design-required-capacitance', 'CH, CL; CT CHL');
 }
 
 describe('AdminDesignsPage (/admin/designs)', () => {
@@ -72,7 +65,7 @@ describe('AdminDesignsPage (/admin/designs)', () => {
     await wrapper.get('[data-test="design-add"]').trigger('click');
     await settle();
     await fillNewFamily();
-    await type('design-notes', 'Bought 2019');
+    await typeInDocument('design-notes', 'Bought 2019');
     await submit();
     await vi.waitFor(() => expect(requests.some((r) => r.method === 'POST')).toBe(true), { timeout: 5000 });
 
@@ -106,8 +99,8 @@ describe('AdminDesignsPage (/admin/designs)', () => {
     await wrapper.get('[data-test="design-add"]').trigger('click');
     await settle();
     await fillNewFamily();
-    await type('design-impedance', '12,5');
-    await type('design-lv-kv', '');
+    await typeInDocument('design-impedance', '12,5');
+    await typeInDocument('design-lv-kv', '');
     await submit();
 
     expect(fieldOf('design-impedance')).toContain('decimal comma: use a point (3.14)');
@@ -136,7 +129,7 @@ describe('AdminDesignsPage (/admin/designs)', () => {
     await wrapper.get('[data-test="design-edit-4"]').trigger('click');
     await settle();
     expect(document.body.querySelector<HTMLInputElement>('input[data-test="design-stage-kva-1"]')!.value).toBe('40000');
-    await type('design-impedance', '10.8');
+    await typeInDocument('design-impedance', '10.8');
     await submit();
     await vi.waitFor(() => expect(requests.some((r) => r.method === 'PATCH')).toBe(true), { timeout: 5000 });
 

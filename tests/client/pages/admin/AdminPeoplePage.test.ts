@@ -2,7 +2,7 @@ import { enableAutoUnmount, type VueWrapper } from '@vue/test-utils';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Role } from '../../../../src/api/auth';
 import type { PersonView, PersonWithPassword } from '../../../../src/api/users';
-import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse } from '../../helpers';
+import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse, typeInDocument } from '../../helpers';
 
 enableAutoUnmount(afterEach);
 beforeAll(() => import('../../../../src/pages/admin/AdminPeoplePage.vue'), 60_000);
@@ -35,13 +35,6 @@ function signedInAs(roles: Role[], script: Record<string, ScriptedResponse | ((r
 }
 
 const inDialog = (selector: string) => document.body.querySelector(selector);
-
-async function type(testId: string, value: string): Promise<void> {
-  const input = document.body.querySelector<HTMLInputElement>(`input[data-test="${testId}"]`)!;
-  input.value = value;
-  input.dispatchEvent(new Event('input'));
-  await settle();
-}
 
 async function click(selector: string): Promise<void> {
   (document.body.querySelector(selector) as HTMLElement).click();
@@ -78,8 +71,8 @@ describe('AdminPeoplePage (/admin/people)', () => {
 
     await wrapper.get('[data-test="person-add"]').trigger('click');
     await settle();
-    await type('person-name', 'Nia Tester');
-    await type('person-email', 'nia@utility.example');
+    await typeInDocument('person-name', 'Nia Tester');
+    await typeInDocument('person-email', 'nia@utility.example');
     await click('[data-test="person-role-tester"]');
     (inDialog('[data-test="person-form"]') as HTMLFormElement).dispatchEvent(new Event('submit'));
     await vi.waitFor(() => expect(inDialog('[data-test="otp-dialog"]')).not.toBeNull(), { timeout: 5000 });
@@ -106,8 +99,8 @@ describe('AdminPeoplePage (/admin/people)', () => {
 
     await wrapper.get('[data-test="person-add"]').trigger('click');
     await settle();
-    await type('person-name', 'Twin');
-    await type('person-email', 'a.moss@utility.example');
+    await typeInDocument('person-name', 'Twin');
+    await typeInDocument('person-email', 'a.moss@utility.example');
     await click('[data-test="person-role-manager"]');
     (inDialog('[data-test="person-form"]') as HTMLFormElement).dispatchEvent(new Event('submit'));
     await vi.waitFor(() => expect(inDialog('[data-test="person-form-error"]')).not.toBeNull(), { timeout: 5000 });
@@ -123,8 +116,8 @@ describe('AdminPeoplePage (/admin/people)', () => {
 
     await wrapper.get('[data-test="person-add"]').trigger('click');
     await settle();
-    await type('person-name', 'No Role');
-    await type('person-email', 'norole@utility.example');
+    await typeInDocument('person-name', 'No Role');
+    await typeInDocument('person-email', 'norole@utility.example');
     (inDialog('[data-test="person-form"]') as HTMLFormElement).dispatchEvent(new Event('submit'));
     await settle();
 

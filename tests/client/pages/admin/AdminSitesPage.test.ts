@@ -1,6 +1,6 @@
 import { enableAutoUnmount } from '@vue/test-utils';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
-import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse } from '../../helpers';
+import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse, typeInDocument } from '../../helpers';
 
 enableAutoUnmount(afterEach);
 beforeAll(() => import('../../../../src/pages/admin/AdminSitesPage.vue'), 60_000);
@@ -15,12 +15,6 @@ function signedInAsAdmin(script: Record<string, ScriptedResponse | ((r: Recorded
   });
 }
 
-async function type(testId: string, value: string): Promise<void> {
-  const input = document.body.querySelector<HTMLInputElement>(`input[data-test="${testId}"]`)!;
-  input.value = value;
-  input.dispatchEvent(new Event('input'));
-  await settle();
-}
 const fieldOf = (testId: string) => document.body.querySelector(`input[data-test="${testId}"]`)!.closest('.q-field')!.textContent ?? '';
 const submit = async () => {
   document.body.querySelector('[data-test="site-form"]')!.dispatchEvent(new Event('submit'));
@@ -37,8 +31,8 @@ describe('AdminSitesPage (/admin/sites)', () => {
 
     await wrapper.get('[data-test="site-add"]').trigger('click');
     await settle();
-    await type('site-name', 'Millbrook');
-    await type('site-time-zone', 'America/Chicago');
+    await typeInDocument('site-name', 'Millbrook');
+    await typeInDocument('site-time-zone', 'America/Chicago');
     await submit();
     await vi.waitFor(() => expect(requests.some((r) => r.method === 'POST')).toBe(true), { timeout: 5000 });
 
@@ -51,8 +45,8 @@ describe('AdminSitesPage (/admin/sites)', () => {
     const { wrapper } = await mountApp('/admin/sites');
     await wrapper.get('[data-test="site-add"]').trigger('click');
     await settle();
-    await type('site-name', 'Nowhere');
-    await type('site-time-zone', 'Europe/Nowhere');
+    await typeInDocument('site-name', 'Nowhere');
+    await typeInDocument('site-time-zone', 'Europe/Nowhere');
     await submit();
 
     expect(fieldOf('site-time-zone')).toContain('not an IANA time zone');
@@ -67,7 +61,7 @@ describe('AdminSitesPage (/admin/sites)', () => {
     await wrapper.get('[data-test="site-edit-1"]').trigger('click');
     await settle();
     expect(document.body.querySelector<HTMLInputElement>('input[data-test="site-name"]')!.value).toBe('Harrow Cross');
-    await type('site-name', 'Millbrook');
+    await typeInDocument('site-name', 'Millbrook');
     await submit();
     await vi.waitFor(() => expect(document.body.querySelector('[data-test="site-form-error"]')?.textContent).toContain('already exists'), { timeout: 5000 });
 

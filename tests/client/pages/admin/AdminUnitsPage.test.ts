@@ -1,6 +1,6 @@
 import { enableAutoUnmount } from '@vue/test-utils';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
-import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse } from '../../helpers';
+import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest, type ScriptedResponse, typeInDocument } from '../../helpers';
 import { design40, unitItem } from '../fixtures';
 
 enableAutoUnmount(afterEach);
@@ -20,13 +20,6 @@ function signedInAsAdmin(script: Record<string, ScriptedResponse | ((r: Recorded
   });
 }
 
-async function type(testId: string, value: string): Promise<void> {
-  const input = document.body.querySelector<HTMLInputElement>(`input[data-test="${testId}"]`)!;
-  input.value = value;
-  input.dispatchEvent(new Event('input'));
-  await settle();
-}
-
 describe('AdminUnitsPage (/admin/units)', () => {
   afterEach(resetClientState);
 
@@ -38,8 +31,8 @@ describe('AdminUnitsPage (/admin/units)', () => {
     await wrapper.get('[data-test="unit-edit-3"]').trigger('click');
     await settle();
     expect(document.body.querySelector<HTMLInputElement>('input[data-test="unit-rated-kva"]')!.value).toBe('40000');
-    await type('unit-system-impedance', '0.8');
-    await type('unit-year', '');
+    await typeInDocument('unit-system-impedance', '0.8');
+    await typeInDocument('unit-year', '');
     document.body.querySelector('[data-test="unit-form"]')!.dispatchEvent(new Event('submit'));
     await vi.waitFor(() => expect(requests.some((r) => r.method === 'PATCH')).toBe(true), { timeout: 5000 });
 
@@ -64,7 +57,7 @@ describe('AdminUnitsPage (/admin/units)', () => {
     const { wrapper } = await mountApp('/admin/units');
     await wrapper.get('[data-test="unit-edit-3"]').trigger('click');
     await settle();
-    await type('unit-rated-kva', '');
+    await typeInDocument('unit-rated-kva', '');
     document.body.querySelector('[data-test="unit-form"]')!.dispatchEvent(new Event('submit'));
     await settle();
 
