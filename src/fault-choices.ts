@@ -1,5 +1,5 @@
 // The choices of the fault forms (log a fault, correct the fault): value and words for each radio or checkbox.
-import { faultTypeSchema } from '../shared/schemas/case';
+import { faultTypeSchema, type CurrentIs, type FaultType, type Protection } from '../shared/schemas/case';
 import { CURRENT_IS_LABELS, FAULT_TYPE_LABELS, SIDE_LABELS } from './labels';
 
 /** Phases a fault can involve, in the order `faultedPhases` writes them. */
@@ -15,4 +15,21 @@ export function faultSideOptions(suffix: string, unit: { hvKV: number; lvKV: num
     const kV = unit ? ` (${s === 'hv' ? unit.hvKV : unit.lvKV} kV)` : '';
     return { value: s, label: `${SIDE_LABELS[s]}${suffix}${kV}` };
   });
+}
+
+/**
+ * The values of a fault form. Logging a fault starts with nothing picked (`Unpicked` = null) and keys its shot rows;
+ * correcting one starts from the stored facts.
+ */
+export interface FaultFormValues<Unpicked extends null = never, Shot extends { currentKA: string; durationS: string } = { currentKA: string; durationS: string }> {
+  occurredLocal: string;
+  type: FaultType | Unpicked;
+  side: 'hv' | 'lv' | Unpicked;
+  location: 'hv' | 'lv' | Unpicked;
+  currentIs: CurrentIs;
+  phases: string[];
+  shots: Shot[];
+  transformerTripped: boolean;
+  protections: Protection[];
+  notes: string;
 }
