@@ -16,6 +16,7 @@ import {
   windingsSchema,
 } from './case.js';
 import { parseDateOrInstant } from '../lists.js';
+import { ROW_KEYS } from '../readings/rows.js';
 import { EVENT_SORTS, EVENT_STATUSES, FOLLOW_UP_DUE, RECOMMENDATIONS, UNIT_READING_SET_KINDS, UNIT_SORTS } from './enums.js';
 export { UNIT_SORTS };
 
@@ -139,22 +140,12 @@ const readingSections = {
   windingTemperatureC: finite.min(-60, 'must be -60 or more (°C)').max(250, 'must be 250 or less (°C: check the unit)').optional(),
 };
 
-/** The reading sections a session correction may replace (each stored as reading rows). */
-export const SESSION_READING_SECTIONS = [
-  'capacitancePF',
-  'capacitanceModes',
-  'dissipationPercent',
-  'reactance',
-  'excitationCurrentMA',
-  'excitationKV',
-  'windingResistanceOhm',
-  'resistanceTemperatureC',
-  'turnsRatio',
-  'dissolvedGasPPM',
-  'dissipationByFrequency',
-  'bushings',
-] as const;
-export type SessionReadingSection = (typeof SESSION_READING_SECTIONS)[number];
+/** The reading sections a session correction may replace (each stored as reading rows): the row keys but
+ * `threePhaseEquivalent`. */
+export type SessionReadingSection = Exclude<(typeof ROW_KEYS)[number], 'threePhaseEquivalent'>;
+export const SESSION_READING_SECTIONS: readonly SessionReadingSection[] = ROW_KEYS.filter(
+  (k): k is SessionReadingSection => k !== 'threePhaseEquivalent',
+);
 
 /** Both spellings of the hours de-energised may be given only when they agree. */
 function sameHours(body: { hoursDeEnergised?: number; hoursDeenergised?: number }, ctx: z.RefinementCtx) {
