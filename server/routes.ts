@@ -3,6 +3,7 @@ import { authenticate, requireRoles } from './common/auth.js';
 import type { RouteDef } from './route-def.js';
 import { authRoutes } from './features/auth/auth.router.js';
 import { healthRoutes } from './features/health/health.router.js';
+import { notificationRoutes } from './features/notifications/notifications.router.js';
 import { outboxRoutes } from './features/outbox/outbox.router.js';
 import { userRoutes } from './features/users/users.router.js';
 import { siteRoutes } from './features/sites/sites.router.js';
@@ -26,6 +27,7 @@ export const routeTable: RouteDef[] = [
   ...screeningRoutes,
   ...followUpRoutes,
   ...outboxRoutes,
+  ...notificationRoutes,
 ];
 
 /** The /api router: authentication and role guards come from each row's access. */

@@ -13,3 +13,5 @@ export const siteParams = z.object({ siteId: id() });
 export const userParams = z.object({ userId: id() });
 export const sweepParams = z.object({ sweepId: id() });
 export const attachmentParams = z.object({ eventId: id(), attachmentId: id() });
+export const notificationParams = z.object({ notificationId: id() });
+export const outboxAttachmentParams = z.object({ messageId: id(), index: z.coerce.number().int().nonnegative('not a valid index') });

@@ -16,6 +16,7 @@ import { Screening } from '../features/screenings/screening.entity.js';
 import { Site } from '../features/sites/site.entity.js';
 import { Unit } from '../features/units/unit.entity.js';
 import { User } from '../features/users/user.entity.js';
+import { SinkAttachment } from '../mail/sink-attachment.entity.js';
 import { SinkMessage } from '../mail/sink-message.entity.js';
 
 // Every entity the data source knows (imported as classes: globs of .ts files break under vitest).
@@ -35,6 +36,7 @@ export const entities = [
   ReadingSet,
   Screening,
   Site,
+  SinkAttachment,
   SinkMessage,
   SweepTrace,
   Unit,

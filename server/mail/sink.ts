@@ -1,6 +1,7 @@
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import type { DataSource } from 'typeorm';
+import { SinkAttachment } from './sink-attachment.entity.js';
 import { SinkMessage } from './sink-message.entity.js';
 
 export interface MailSink {
@@ -15,7 +16,7 @@ function addresses(a: AddressObject | AddressObject[] | undefined): string {
   return (Array.isArray(a) ? a : [a]).map((x) => x.text).join(', ');
 }
 
-/** A local SMTP server on loopback that stores every message it receives in the database (the dev outbox). */
+/** A local SMTP server on loopback that stores every message it receives, attachments too, in the database (the dev outbox). */
 export function startMailSink(db: DataSource, port: number, host = '127.0.0.1'): Promise<MailSink> {
   const server = new SMTPServer({
     authOptional: true,
@@ -28,11 +29,17 @@ export function startMailSink(db: DataSource, port: number, host = '127.0.0.1'):
       simpleParser(stream)
         .then(async (mail) => {
           const to = addresses(mail.to) || session.envelope.rcptTo.map((r) => r.address).join(', ');
-          await db.getRepository(SinkMessage).insert({
-            to: to.slice(0, 1000),
-            subject: (mail.subject ?? '(no subject)').slice(0, 500),
-            text: mail.text ?? '',
-            attachments: (mail.attachments ?? []).map((a) => ({ filename: a.filename ?? 'attachment', contentType: a.contentType, size: a.size })),
+          const parts = mail.attachments ?? [];
+          await db.transaction(async (m) => {
+            const saved = await m.getRepository(SinkMessage).save(
+              m.getRepository(SinkMessage).create({
+                to: to.slice(0, 1000),
+                subject: (mail.subject ?? '(no subject)').slice(0, 500),
+                text: mail.text ?? '',
+                attachments: parts.map((a) => ({ filename: a.filename ?? 'attachment', contentType: a.contentType, size: a.size })),
+              }),
+            );
+            if (parts.length) await m.getRepository(SinkAttachment).insert(parts.map((a, position) => ({ messageId: saved.id, position, content: a.content })));
           });
           cb();
         })

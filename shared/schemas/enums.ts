@@ -32,6 +32,9 @@ export type FindingClassification = (typeof FINDING_CLASSIFICATIONS)[number];
 /** A queued e-mail's state. */
 export const NOTIFICATION_STATUSES = ['queued', 'sent', 'failed'] as const;
 export type NotificationStatus = (typeof NOTIFICATION_STATUSES)[number];
+/** What a mail reports: a screening (to the site's managers) or a signed decision (control room and testers). */
+export const NOTIFICATION_KINDS = ['screening', 'decision'] as const;
+export type NotificationKind = (typeof NOTIFICATION_KINDS)[number];
 
 /** A unit design's windings (case format `unit.windings`). */
 export const WINDINGS = ['two-winding', 'three-winding', 'auto', 'auto-tertiary'] as const;

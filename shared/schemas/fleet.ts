@@ -45,6 +45,15 @@ export const siteBodySchema = z.object({
       },
       { message: 'not an IANA time zone (e.g. Europe/London)' },
     ),
+  /** Where decisions on the site's units are mailed; empty or null: none. */
+  controlRoomEmail: z
+    .string()
+    .trim()
+    .max(254)
+    .transform((s) => s || null)
+    .pipe(z.email('not an e-mail address').nullable())
+    .nullable()
+    .optional(),
 });
 export const sitePatchSchema = siteBodySchema.partial();
 

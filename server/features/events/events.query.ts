@@ -163,6 +163,7 @@ export async function getEvent(m: EntityManager, id: number) {
     notifications: notifications.map((n) => ({
       id: n.id,
       screeningId: n.screeningId,
+      kind: n.kind,
       to: n.to,
       subject: n.subject,
       status: n.status,

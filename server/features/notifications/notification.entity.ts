@@ -1,7 +1,7 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
-import type { NotificationStatus } from '../../../shared/schemas/enums.js';
+import type { NotificationKind, NotificationStatus } from '../../../shared/schemas/enums.js';
 
-// One e-mail to send: queued after the screening's transaction commits, retried on failure.
+// One e-mail to send: queued in the screening's or decision's transaction, sent after it commits, retried on failure.
 @Entity({ name: 'notification' })
 @Index(['status', 'nextAttemptAt'])
 @Index(['eventId'])
@@ -14,6 +14,9 @@ export class Notification {
 
   @Column({ type: 'int', unsigned: true, nullable: true })
   screeningId!: number | null;
+
+  @Column({ type: 'varchar', length: 12, default: 'screening' })
+  kind!: NotificationKind;
 
   @Column({ type: 'varchar', length: 254 })
   to!: string;

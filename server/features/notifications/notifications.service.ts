@@ -1,9 +1,18 @@
 import type { Transporter } from 'nodemailer';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Clock } from '../../common/clock.js';
+import { buildDecisionMail } from '../../reports/decision-mail.js';
 import { buildManagerMail } from '../../reports/manager-mail.js';
 import { screeningReportPdf } from '../../reports/report.service.js';
+import type { ResentNotification } from '../../../shared/schemas/responses/index.js';
+import { audit } from '../../common/audit.js';
+import { notFound } from '../../common/app-error.js';
+import { FaultEvent } from '../events/fault-event.entity.js';
+import { Decision } from '../screenings/decision.entity.js';
 import type { Screening } from '../screenings/screening.entity.js';
+import { Site } from '../sites/site.entity.js';
+import { Unit } from '../units/unit.entity.js';
+import { User } from '../users/user.entity.js';
 import { Notification } from './notification.entity.js';
 import type { Logger } from '../../logger.js';
 
@@ -45,6 +54,61 @@ export async function queueScreeningMail(m: EntityManager, clock: Clock, s: Scre
   return managers.length;
 }
 
+/**
+ * Queues the signed decision's mail (inside the decision's transaction) to the site's control-room address and to the
+ * active people who entered the event's sessions, each address once. Returns how many were queued.
+ */
+export async function queueDecisionMail(m: EntityManager, clock: Clock, decision: Decision, s: Screening): Promise<number> {
+  const event = await m.getRepository(FaultEvent).findOneByOrFail({ id: s.eventId });
+  const unit = await m.getRepository(Unit).findOneByOrFail({ id: event.unitId });
+  const site = await m.getRepository(Site).findOneByOrFail({ id: unit.siteId });
+  const testers: { email: string }[] = await m.query(
+    'SELECT DISTINCT u.email FROM reading_set rs JOIN `user` u ON u.id = rs.createdById WHERE rs.eventId = ? AND u.active = 1 ORDER BY u.email',
+    [event.id],
+  );
+  const seen = new Set<string>();
+  const to = [site.controlRoomEmail, ...testers.map((t) => t.email)].filter((a): a is string => {
+    if (!a || seen.has(a.toLowerCase())) return false;
+    seen.add(a.toLowerCase());
+    return true;
+  });
+  if (!to.length) return 0;
+  const subject = `[Gapsight] Decision: ${decision.outcome.toUpperCase()} — ${unit.serial}`.slice(0, 500);
+  await m.getRepository(Notification).insert(
+    to.map((address) => ({ kind: 'decision' as const, eventId: event.id, screeningId: s.id, to: address, subject, status: 'queued' as const, attempts: 0, nextAttemptAt: clock.now(), createdAt: clock.now() })),
+  );
+  return to.length;
+}
+
+/** Queues a fresh copy of a stored mail (same kind, report and address; a new row), audited. */
+export async function resendNotification(m: EntityManager, clock: Clock, userId: number, id: number) {
+  const n = await m.getRepository(Notification).findOneBy({ id });
+  if (!n) throw notFound('Notification');
+  const repo = m.getRepository(Notification);
+  const copy = await repo.save(
+    repo.create({ kind: n.kind, eventId: n.eventId, screeningId: n.screeningId, to: n.to, subject: n.subject, status: 'queued', attempts: 0, lastError: null, sentAt: null, nextAttemptAt: clock.now(), messageId: null, createdAt: clock.now() }),
+  );
+  await audit(m, clock, {
+    userId,
+    action: 'create',
+    entity: 'notification',
+    entityId: copy.id,
+    after: { kind: copy.kind, eventId: copy.eventId, screeningId: copy.screeningId, to: copy.to, resentFrom: n.id },
+    note: `resent from mail ${n.id}`,
+  });
+  return {
+    id: copy.id,
+    resentFrom: n.id,
+    kind: copy.kind,
+    eventId: copy.eventId,
+    screeningId: copy.screeningId,
+    to: copy.to,
+    subject: copy.subject,
+    status: 'queued',
+    createdAt: copy.createdAt.toISOString(),
+  } satisfies ResentNotification;
+}
+
 /** Claims due messages with a lease (SKIP LOCKED: several app servers never send one message twice at once). */
 async function claim(db: DataSource, clock: Clock, limit: number): Promise<number[]> {
   return db.transaction(async (m) => {
@@ -77,24 +141,37 @@ export async function deliverDueNotifications(db: DataSource, clock: Clock, mail
   let sent = 0;
   let failed = 0;
   const built = new Map<number, Promise<{ subject: string; text: string; html: string; pdf: Buffer; filename: string }>>();
-  const build = (screeningId: number) => {
-    if (!built.has(screeningId)) {
+  const build = (kind: Notification['kind'], screeningId: number) => {
+    const key = kind === 'decision' ? -screeningId : screeningId;
+    if (!built.has(key)) {
       built.set(
-        screeningId,
+        key,
         (async () => {
           const { data, pdf, filename } = await screeningReportPdf(db.manager, screeningId, appUrl);
-          return { ...buildManagerMail(data), pdf, filename };
+          if (kind !== 'decision') return { ...buildManagerMail(data), pdf, filename };
+          const d = await db.getRepository(Decision).findOne({ where: { screeningId }, order: { signedAt: 'DESC', id: 'DESC' } });
+          if (!d) throw new Error('a decision mail without a decision has nothing to say');
+          const signer = await db.getRepository(User).findOneBy({ id: d.managerId });
+          const facts = {
+            outcome: d.outcome,
+            restrictions: d.restrictions,
+            reason: d.reason,
+            againstRecommendation: d.againstRecommendation,
+            signedAt: d.signedAt.toISOString(),
+            signedBy: signer ? { name: signer.name, email: signer.email } : null,
+          };
+          return { ...buildDecisionMail(data, facts), pdf, filename };
         })(),
       );
     }
-    return built.get(screeningId)!;
+    return built.get(key)!;
   };
   const repo = db.getRepository(Notification);
   for (const id of ids) {
     const n = await repo.findOneByOrFail({ id });
     try {
       if (n.screeningId === null) throw new Error('a notification without a screening has nothing to say');
-      const mail = await build(n.screeningId);
+      const mail = await build(n.kind, n.screeningId);
       const info = await mailer.transport.sendMail({
         from: mailer.from,
         to: n.to,

@@ -49,7 +49,11 @@ export const screeningRoutes: RouteDef[] = [
     params: screeningParams,
     body: decisionBodySchema,
     status: 201,
-    handler: ({ m, clock, user, params, body }) => decide(m, clock, user.id, params.screeningId, body),
+    handler: async ({ m, clock, user, params, body, ctx, afterCommit }) => {
+      const out = await decide(m, clock, user.id, params.screeningId, body);
+      afterCommit(() => ctx.kickMail?.());
+      return out;
+    },
   }),
   // POST /api/follow-ups/:followUpId/close — close a follow-up with its result
   route({

@@ -12,7 +12,7 @@ import { loadCriteria } from '../criteria/criteria.service.js';
 import { buildEventCase } from '../events/case-export.service.js';
 import { assertMove, moveEvent, refreshUnitLastEvent } from '../events/events.service.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
-import { queueScreeningMail } from '../notifications/notifications.service.js';
+import { queueDecisionMail, queueScreeningMail } from '../notifications/notifications.service.js';
 import { Unit } from '../units/unit.entity.js';
 import { Decision } from './decision.entity.js';
 import { Finding } from './finding.entity.js';
@@ -132,6 +132,7 @@ export async function decide(m: EntityManager, clock: Clock, managerId: number, 
     highlighted: against,
     note: against ? `against the ${s.recommendation} recommendation` : undefined,
   });
+  await queueDecisionMail(m, clock, decision, s);
   return { ...view, eventStatus: body.outcome === 'hold' ? 'held' : 'released', followUps } satisfies DecisionAnswer;
 }
 

@@ -12,6 +12,10 @@ export class Site {
   @Column({ type: 'varchar', length: 64 })
   timeZone!: string;
 
+  /** Where decisions on the site's units are mailed (optional). */
+  @Column({ type: 'varchar', length: 254, nullable: true })
+  controlRoomEmail!: string | null;
+
   @CreateDateColumn({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
   createdAt!: Date;
 }

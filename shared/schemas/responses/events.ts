@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { currentIsSchema, faultSideSchema, faultTypeSchema, protectionSchema, readingSetSchema, shotSchema } from '../case.js';
-import { DECISION_OUTCOMES, EVENT_STATUSES, FINDING_CLASSIFICATIONS, NOTIFICATION_STATUSES, RECOMMENDATIONS } from '../enums.js';
+import { DECISION_OUTCOMES, EVENT_STATUSES, FINDING_CLASSIFICATIONS, NOTIFICATION_KINDS, NOTIFICATION_STATUSES, RECOMMENDATIONS } from '../enums.js';
 import { resultSchema, throughFaultSchema } from '../result.js';
 import { isoDateTime, pageOf, rowId } from './common.js';
 import { designViewSchema, readingSetConditionsSchema, readingSetViewSchema, siteViewSchema, unitViewSchema } from './fleet.js';
@@ -136,6 +136,8 @@ export const notificationViewSchema = z.strictObject({
   id: rowId,
   /** The screening the mail reports on. */
   screeningId: rowId.nullable(),
+  /** What the mail reports: the screening (managers) or the signed decision (control room, testers). */
+  kind: z.enum(NOTIFICATION_KINDS),
   to: z.string(),
   subject: z.string(),
   status: z.enum(NOTIFICATION_STATUSES),

@@ -6,4 +6,5 @@ export * from './screenings.js';
 export * from './auth.js';
 export * from './admin.js';
 export * from './outbox.js';
+export * from './notifications.js';
 export * from './followups.js';

@@ -7,6 +7,8 @@ export const outboxAttachmentSchema = z.strictObject({ filename: z.string(), con
 export type OutboxAttachment = z.infer<typeof outboxAttachmentSchema>;
 
 export const outboxMessageSchema = z.strictObject({
+  /** The sink's message id (GET /api/dev/outbox/:messageId/attachments/:index opens an attachment). */
+  id: z.number().int().positive(),
   to: z.string(),
   subject: z.string(),
   text: z.string(),

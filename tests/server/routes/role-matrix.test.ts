@@ -77,6 +77,9 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['PATCH /criteria/:version', ['engineer', 'admin']],
   ['POST /criteria/:version/publish', ['admin']],
   ['GET /designs/:id/sisters', 'signed in'],
+  // Not api.md rows: resending a mail from the event's e-mail log, and opening an attachment of a mail in the outbox.
+  ['POST /notifications/:id/resend', ['manager']],
+  ['GET /dev/outbox/:id/attachments/:index', ['admin', 'manager']],
 ];
 
 // api.md: "`admin` may do everything a row names except sign decisions".
