@@ -11,6 +11,7 @@ import { designRoutes } from './features/designs/designs.router.js';
 import { unitRoutes } from './features/units/units.router.js';
 import { unitIoRoutes } from './features/units/units-io.router.js';
 import { eventRoutes } from './features/events/events.router.js';
+import { readingSetRoutes } from './features/readings/reading-sets.router.js';
 import { screeningRoutes } from './features/screenings/screenings.router.js';
 import { followUpRoutes } from './features/follow-ups/follow-ups.router.js';
 
@@ -24,6 +25,7 @@ export const routeTable: RouteDef[] = [
   ...unitIoRoutes,
   ...unitRoutes,
   ...eventRoutes,
+  ...readingSetRoutes,
   ...screeningRoutes,
   ...followUpRoutes,
   ...outboxRoutes,

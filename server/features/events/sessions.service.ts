@@ -2,9 +2,9 @@ import { createHash } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import { parseReadingsCsv, readingRowsToSet } from '../../../shared/imports/readings-csv.js';
 import { looksLikeCsvText } from '../../../shared/imports/sniff.js';
-import { readingSetToRows, rowsToReadingSet } from '../../../shared/readings/rows.js';
+import { readingSetToRows } from '../../../shared/readings/rows.js';
 import type { ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
-import { SESSION_READING_SECTIONS, type SessionBody, type SessionPatch } from '../../../shared/schemas/fleet.js';
+import type { SessionBody, SessionPatch } from '../../../shared/schemas/fleet.js';
 import type { CorrectedSession, CreatedSession, ImportAnswer } from '../../../shared/schemas/responses/index.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
@@ -12,7 +12,8 @@ import type { Clock } from '../../common/clock.js';
 import { extensionOf, unsupportedType } from '../../common/upload.js';
 import { Reading } from '../readings/reading.entity.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
-import { insertReadingSet, insulationTemperatureC, loadCaseReadingSets } from '../readings/readings.service.js';
+import { applyReadingSetPatch } from '../readings/reading-set-correction.js';
+import { insertReadingSet, loadCaseReadingSets } from '../readings/readings.service.js';
 import { insertSweepTrace, sweepMeta, type SweepFields } from '../readings/sweeps.service.js';
 import { readingSetConditions } from '../units/units.service.js';
 import { assertCorrectable, caseText, moveEvent, staleScreening } from './events.service.js';
@@ -103,9 +104,6 @@ export async function addSessionSweep(
   return sweepMeta(await insertSweepTrace(m, clock, set.id, fields, parsed, fileName, userId));
 }
 
-/** Session columns a correction sets as given (null clears). */
-const PLAIN_CONDITIONS = ['ambientC', 'humidityPercent', 'instrument', 'instrumentSerial', 'testKV', 'testFrequencyHz', 'demagnetised', 'windingTemperatureC', 'notes'] as const;
-
 /**
  * Corrects a session's conditions and readings (PATCH /api/sessions/:sessionId) before the screening that used it is
  * decided (409 then: a new session instead). Only the fields named change; a reading section named replaces the
@@ -121,61 +119,9 @@ export async function correctSession(m: EntityManager, clock: Clock, userId: num
     throw new AppError(e.code, 'The screening that used this session is decided: its readings never change. Record a new session instead.', e.status);
   });
   const caseBefore = await caseText(m, event.id);
-  const conditionsBefore: Record<string, unknown> = readingSetConditions(set);
-  const valuesBefore = (await loadCaseReadingSets(m, [set])).get(set.id) as Record<string, unknown>;
-
-  const columns: Omit<Partial<ReadingSet>, 'extra'> = {};
-  if (patch.takenAt !== undefined) columns.takenAt = new Date(patch.takenAt);
-  for (const key of PLAIN_CONDITIONS) if (patch[key] !== undefined) (columns as Record<string, unknown>)[key] = patch[key];
-  if (patch.tapPosition !== undefined) columns.tapPosition = patch.tapPosition === null ? null : String(patch.tapPosition);
-  const hours = patch.hoursDeEnergised !== undefined ? patch.hoursDeEnergised : patch.hoursDeenergised;
-  if (hours !== undefined) columns.hoursDeenergised = hours;
-  if (patch.topOilC !== undefined) columns.topOilC = patch.topOilC;
-  if (patch.bottomOilC !== undefined) columns.bottomOilC = patch.bottomOilC;
-  if (patch.temperatureC !== undefined) columns.temperatureC = patch.temperatureC;
-  else if (patch.topOilC !== undefined || patch.bottomOilC !== undefined) {
-    // An insulation temperature taken from the oil follows the corrected oil temperatures.
-    const derived = insulationTemperatureC({ topOilC: set.topOilC ?? undefined, bottomOilC: set.bottomOilC ?? undefined });
-    if (set.temperatureC === derived) {
-      columns.temperatureC = insulationTemperatureC({ topOilC: (columns.topOilC ?? set.topOilC) ?? undefined, bottomOilC: (columns.bottomOilC ?? set.bottomOilC) ?? undefined });
-    }
-  }
-  if (Object.keys(columns).length) await repo.update(set.id, columns);
-
-  const sections = SESSION_READING_SECTIONS.filter((k) => patch[k] !== undefined);
-  if (sections.length) {
-    const rows = await m.getRepository(Reading).find({ where: { readingSetId: set.id }, order: { id: 'ASC' } });
-    const values = rowsToReadingSet(rows) as Record<string, unknown>;
-    for (const k of sections) {
-      const v = patch[k];
-      if (v === null || (typeof v === 'object' && !Array.isArray(v) && Object.keys(v).length === 0)) delete values[k];
-      else values[k] = v;
-    }
-    await m.delete(Reading, { readingSetId: set.id });
-    const fresh = readingSetToRows(values as CaseReadingSet);
-    if (fresh.length) await m.insert(Reading, fresh.map((r) => ({ ...r, readingSetId: set.id })));
-  }
-
-  const after = await repo.findOneByOrFail({ id: set.id });
-  const valuesAfter = (await loadCaseReadingSets(m, [after])).get(after.id) as Record<string, unknown>;
-  const conditionsAfter: Record<string, unknown> = readingSetConditions(after);
-  const changedBefore: Record<string, unknown> = {};
-  const changedAfter: Record<string, unknown> = {};
-  for (const key of Object.keys(conditionsAfter)) {
-    if (JSON.stringify(conditionsBefore[key]) !== JSON.stringify(conditionsAfter[key])) {
-      changedBefore[key] = conditionsBefore[key];
-      changedAfter[key] = conditionsAfter[key];
-    }
-  }
-  for (const key of sections) {
-    if (JSON.stringify(valuesBefore[key]) !== JSON.stringify(valuesAfter[key])) {
-      changedBefore[key] = valuesBefore[key] ?? null;
-      changedAfter[key] = valuesAfter[key] ?? null;
-    }
-  }
+  const { after, values: valuesAfter, changed } = await applyReadingSetPatch(m, clock, userId, set, patch, 'Session corrected');
   let stale: { screeningStale: boolean; note: string | null; status: FaultEvent['status'] } = { screeningStale: false, note: null, status: event.status };
-  if (Object.keys(changedAfter).length) {
-    await audit(m, clock, { userId, action: 'update', entity: 'reading_set', entityId: set.id, before: changedBefore, after: changedAfter, note: 'Session corrected' });
+  if (changed) {
     stale = await staleScreening(m, clock, event.id, caseBefore, userId, 'A correction of a session');
   }
   return { ...readingSetConditions(after), values: valuesAfter, eventStatus: stale.status, screeningStale: stale.screeningStale, note: stale.note } satisfies CorrectedSession;

@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import { In } from 'typeorm';
+import { In, Not } from 'typeorm';
 import { readingSetToRows, rowsToReadingSet, ROW_KEYS, SET_LEVEL_KEYS } from '../../../shared/readings/rows.js';
 import type { ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
 import { audit } from '../../common/audit.js';
@@ -78,6 +78,7 @@ export async function insertReadingSet(m: EntityManager, clock: Clock, input: Ne
   );
   const rows = readingSetToRows(b);
   if (rows.length) await m.insert(Reading, rows.map((r) => ({ ...r, readingSetId: set.id })));
+  if (set.isReference) await unmarkOtherReferences(m, clock, input.userId, set);
   await audit(m, clock, {
     userId: input.userId,
     action: 'create',
@@ -87,6 +88,20 @@ export async function insertReadingSet(m: EntityManager, clock: Clock, input: Ne
     ...(input.auditNote ? { note: input.auditNote } : {}),
   });
   return set;
+}
+
+/**
+ * One reference per unit and kind: the unit's other sets of the set's kind marked as reference are unmarked (each
+ * audited). Answers their ids.
+ */
+export async function unmarkOtherReferences(m: EntityManager, clock: Clock, userId: number | null, set: ReadingSet): Promise<number[]> {
+  const repo = m.getRepository(ReadingSet);
+  const others = await repo.find({ where: { unitId: set.unitId, kind: set.kind, isReference: true, id: Not(set.id) }, order: { id: 'ASC' } });
+  for (const o of others) {
+    await repo.update(o.id, { isReference: false });
+    await audit(m, clock, { userId, action: 'update', entity: 'reading_set', entityId: o.id, before: { isReference: true }, after: { isReference: false }, note: `Reference moved to reading set ${set.id}` });
+  }
+  return others.map((o) => o.id);
 }
 
 /** A date-time as the case format writes it: the date alone when the time is midnight UTC. */

@@ -70,6 +70,9 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['POST /events/:id/restrictions/lift', ['manager']],
   // Not an api.md row: a unit's factory, commissioning or routine set from a readings CSV (the session import's format).
   ['POST /units/:id/reading-sets/import', ['tester']],
+  // Not api.md rows: correcting a unit's factory, commissioning or routine set, and marking it as the unit's reference.
+  ['PATCH /reading-sets/:id', ['tester']],
+  ['POST /reading-sets/:id/reference', ['tester']],
   ['GET /follow-ups', 'signed in'],
   ['GET /criteria', 'signed in'],
   ['GET /criteria/:version', 'signed in'],
