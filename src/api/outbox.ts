@@ -8,3 +8,8 @@ export type { OutboxAttachment, OutboxMessage };
 export function listOutbox(signal?: AbortSignal): Promise<OutboxMessage[]> {
   return api.get<OutboxMessage[]>('/dev/outbox', { signal });
 }
+
+// GET /api/dev/outbox/:messageId/attachments/:index — one attachment of a received message (the mail's PDF).
+export function downloadOutboxAttachment(messageId: number, index: number): Promise<Blob> {
+  return api.download(`/dev/outbox/${messageId}/attachments/${index}`);
+}

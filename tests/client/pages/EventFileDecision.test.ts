@@ -326,8 +326,8 @@ describe('EventFilePage — follow-ups, findings and e-mail log', () => {
       ['manager'],
       screenedEvent({
         notifications: [
-          { id: 1, screeningId: 61, to: 'ops@kestrel-valley.example', subject: 'KVP-HX-T2: CONDITIONAL', status: 'sent', attempts: 1, lastError: null, sentAt: '2026-07-03T09:01:00.000Z', createdAt: '2026-07-03T09:00:00.000Z' },
-          { id: 2, screeningId: 61, to: 'night@kestrel-valley.example', subject: 'KVP-HX-T2: CONDITIONAL', status: 'failed', attempts: 5, lastError: '550 mailbox unavailable', sentAt: null, createdAt: '2026-07-03T09:00:00.000Z' },
+          { id: 1, screeningId: 61, kind: 'screening', to: 'ops@kestrel-valley.example', subject: 'KVP-HX-T2: CONDITIONAL', status: 'sent', attempts: 1, lastError: null, sentAt: '2026-07-03T09:01:00.000Z', createdAt: '2026-07-03T09:00:00.000Z' },
+          { id: 2, screeningId: 61, kind: 'screening', to: 'night@kestrel-valley.example', subject: 'KVP-HX-T2: CONDITIONAL', status: 'failed', attempts: 5, lastError: '550 mailbox unavailable', sentAt: null, createdAt: '2026-07-03T09:00:00.000Z' },
         ],
       }),
     );
@@ -339,6 +339,6 @@ describe('EventFilePage — follow-ups, findings and e-mail log', () => {
     expect(rows[0].text()).toContain('Sent');
     expect(rows[1].text()).toContain('Failed');
     expect(rows[1].text()).toContain('550 mailbox unavailable');
-    expect(rows[1].findAll('td')[3].text()).toBe('5');
+    expect(rows[1].findAll('td')[4].text()).toBe('5');
   });
 });

@@ -1,5 +1,5 @@
 import { enableAutoUnmount } from '@vue/test-utils';
-import { afterEach, describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { Role } from '../../../src/api/auth';
 import type { OutboxMessage } from '../../../src/api/outbox';
 import { healthyDemo, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type ScriptedResponse } from '../helpers';
@@ -8,13 +8,14 @@ enableAutoUnmount(afterEach);
 
 const messages: OutboxMessage[] = [
   {
+    id: 12,
     to: 'ops@kestrel-valley.example',
     subject: 'KVP-HX-T2 after the fault of 2026-07-01: CONDITIONAL',
     text: 'Recommendation: CONDITIONAL\nCHL capacitance shifted +3.74 %.',
     receivedAt: '2026-07-03T09:01:00.000Z',
     attachments: [{ filename: 'gapsight-screening-61.pdf', contentType: 'application/pdf', size: 48_128 }],
   },
-  { to: 'night@kestrel-valley.example', subject: 'KVP-MB-T1: GO', text: 'Recommendation: GO', receivedAt: '2026-07-02T20:00:00.000Z', attachments: [] },
+  { id: 11, to: 'night@kestrel-valley.example', subject: 'KVP-MB-T1: GO', text: 'Recommendation: GO', receivedAt: '2026-07-02T20:00:00.000Z', attachments: [] },
 ];
 
 function signedInAs(roles: Role[], outbox: ScriptedResponse = { body: messages }) {
@@ -23,6 +24,7 @@ function signedInAs(roles: Role[], outbox: ScriptedResponse = { body: messages }
     'GET /api/auth/me': { body: makeUser({ roles }) },
     'GET /api/health': { body: healthyDemo },
     'GET /api/dev/outbox': outbox,
+    'GET /api/dev/outbox/12/attachments/0': { body: '%PDF-' },
   });
 }
 
@@ -44,6 +46,24 @@ describe('OutboxPage (/dev/outbox)', () => {
     await settle();
     expect(items[0].get('[data-test="outbox-text"]').text()).toContain('CHL capacitance shifted +3.74 %.');
     expect(items[0].get('[data-test="outbox-attachments"]').text()).toContain('gapsight-screening-61.pdf (application/pdf, 47 kB)');
+  });
+
+  it("opens a message's attachment from the server's outbox attachment route", async () => {
+    const { requests } = signedInAs(['manager']);
+    const saved: string[] = [];
+    const createObjectURL = vi.spyOn(URL, 'createObjectURL').mockImplementation(() => 'blob:outbox');
+    const click = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (this: HTMLAnchorElement) {
+      saved.push(this.download);
+    });
+    const { wrapper } = await mountApp('/dev/outbox');
+    const first = wrapper.findAll('[data-test="outbox-message"]')[0];
+    await first.get('.q-item').trigger('click');
+    await settle();
+    await first.get('[data-test="outbox-attachment"]').trigger('click');
+    await vi.waitFor(() => expect(saved).toEqual(['gapsight-screening-61.pdf']));
+    expect(requests.some((r) => r.method === 'GET' && r.url === '/api/dev/outbox/12/attachments/0')).toBe(true);
+    createObjectURL.mockRestore();
+    click.mockRestore();
   });
 
   it('says the mail sink is not running when the server answers 404', async () => {

@@ -24,7 +24,7 @@ const submit = async () => {
 describe('AdminSitesPage (/admin/sites)', () => {
   afterEach(resetClientState);
 
-  it('adds a site with its name and IANA time zone', async () => {
+  it('adds a site with its name, IANA time zone and control-room address', async () => {
     const { requests } = signedInAsAdmin({ 'POST /api/sites': { status: 201, body: { id: 2, name: 'Millbrook', timeZone: 'America/Chicago' } } });
     const { wrapper } = await mountApp('/admin/sites');
     expect(wrapper.get('[data-test="site-row-1"]').text()).toContain('Europe/London');
@@ -33,11 +33,26 @@ describe('AdminSitesPage (/admin/sites)', () => {
     await settle();
     await typeInDocument('site-name', 'Millbrook');
     await typeInDocument('site-time-zone', 'America/Chicago');
+    await typeInDocument('site-control-room-email', 'control@millbrook.example');
     await submit();
     await vi.waitFor(() => expect(requests.some((r) => r.method === 'POST')).toBe(true), { timeout: 5000 });
 
-    expect(requests.find((r) => r.method === 'POST')!.body).toEqual({ name: 'Millbrook', timeZone: 'America/Chicago' });
+    expect(requests.find((r) => r.method === 'POST')!.body).toEqual({ name: 'Millbrook', timeZone: 'America/Chicago', controlRoomEmail: 'control@millbrook.example' });
     await vi.waitFor(() => expect(document.body.querySelector('[data-test="site-dialog"]')).toBeNull(), { timeout: 5000 });
+  });
+
+  it('names a control-room address that is not an e-mail address and sends nothing', async () => {
+    const { requests } = signedInAsAdmin();
+    const { wrapper } = await mountApp('/admin/sites');
+    await wrapper.get('[data-test="site-add"]').trigger('click');
+    await settle();
+    await typeInDocument('site-name', 'Millbrook');
+    await typeInDocument('site-time-zone', 'America/Chicago');
+    await typeInDocument('site-control-room-email', 'control room');
+    await submit();
+
+    expect(fieldOf('site-control-room-email')).toContain('not an e-mail address');
+    expect(requests.some((r) => r.method === 'POST')).toBe(false);
   });
 
   it('names a time zone that is not an IANA name and sends nothing', async () => {
