@@ -14,6 +14,8 @@ import { eventRoutes } from './features/events/events.router.js';
 import { readingSetRoutes } from './features/readings/reading-sets.router.js';
 import { screeningRoutes } from './features/screenings/screenings.router.js';
 import { followUpRoutes } from './features/follow-ups/follow-ups.router.js';
+import { findingRoutes } from './features/findings/findings.router.js';
+import { exportRoutes } from './features/exports/exports.router.js';
 
 /** Every API route with who may call it; the router is built from this table and the role-matrix test reads it. */
 export const routeTable: RouteDef[] = [
@@ -28,6 +30,8 @@ export const routeTable: RouteDef[] = [
   ...readingSetRoutes,
   ...screeningRoutes,
   ...followUpRoutes,
+  ...findingRoutes,
+  ...exportRoutes,
   ...outboxRoutes,
   ...notificationRoutes,
 ];

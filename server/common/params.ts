@@ -14,5 +14,7 @@ export const userParams = z.object({ userId: id() });
 export const sweepParams = z.object({ sweepId: id() });
 export const readingSetParams = z.object({ readingSetId: id() });
 export const attachmentParams = z.object({ eventId: id(), attachmentId: id() });
+export const findingParams = z.object({ findingId: id() });
+export const findingAttachmentParams = z.object({ findingId: id(), attachmentId: id() });
 export const notificationParams = z.object({ notificationId: id() });
 export const outboxAttachmentParams = z.object({ messageId: id(), index: z.coerce.number().int().nonnegative('not a valid index') });

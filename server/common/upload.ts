@@ -7,6 +7,8 @@ export const UPLOAD_LIMITS = {
   readingsCsvBytes: 2 * 1024 * 1024,
   sweepCsvBytes: 4 * 1024 * 1024,
   attachmentBytes: 12 * 1024 * 1024,
+  /** A photo or PDF on an inspection finding. */
+  findingFileBytes: 10 * 1024 * 1024,
   /** A units spreadsheet (.xlsx or CSV), and the most an .xlsx may unpack to (its sheets are XML read in memory). */
   unitSheetBytes: 4 * 1024 * 1024,
   unitSheetUnpackedBytes: 64 * 1024 * 1024,

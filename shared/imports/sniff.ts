@@ -215,3 +215,53 @@ export function detectSpreadsheet(bytes: Uint8Array, maxUncompressedBytes: numbe
   if (looksLikeCsvText(bytes)) return { kind: 'csv' };
   return { error: 'the file is neither an Excel workbook (.xlsx) nor CSV text in UTF-8 with a separator on its first line' };
 }
+
+// ---- Photos and documents on inspection findings --------------------------------------------------------------------
+
+export type FindingFileKind = 'jpeg' | 'png' | 'webp' | 'pdf';
+export type FindingFileCheck = { kind: FindingFileKind; contentType: string } | { error: string };
+
+export const FINDING_FILE_TYPES: Record<FindingFileKind, string> = {
+  jpeg: 'image/jpeg',
+  png: 'image/png',
+  webp: 'image/webp',
+  pdf: 'application/pdf',
+};
+
+const JPEG_SIGNATURE = [0xff, 0xd8, 0xff]; // SOI marker followed by the next marker's 0xFF (JFIF, Exif, raw)
+const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]; // \x89PNG\r\n\x1a\n
+const RIFF = [0x52, 0x49, 0x46, 0x46]; // "RIFF" then a 4-byte size, then "WEBP"
+const WEBP = [0x57, 0x45, 0x42, 0x50];
+const GIF_SIGNATURE = [0x47, 0x49, 0x46, 0x38]; // "GIF8"
+const BMP_SIGNATURE = [0x42, 0x4d]; // "BM"
+const TIFF_SIGNATURES = [
+  [0x49, 0x49, 0x2a, 0x00],
+  [0x4d, 0x4d, 0x00, 0x2a],
+];
+
+/** What other, refused content looks like, for the error message. */
+function describeRefused(bytes: Uint8Array): string {
+  if (startsWith(bytes, GIF_SIGNATURE)) return 'a GIF image';
+  if (TIFF_SIGNATURES.some((s) => startsWith(bytes, s))) return 'a TIFF image';
+  if (startsWith(bytes, CFB_SIGNATURE)) return 'an old Office document';
+  if (ZIP_SIGNATURES.some((s) => startsWith(bytes, s))) return 'a ZIP archive (or an Office document)';
+  if (startsWith(bytes, BMP_SIGNATURE) && bytes.length > 14) return 'a BMP image';
+  if (startsWith(bytes, RIFF)) return 'a RIFF file that is not a WebP image';
+  if (hasOnlyTextBytes(bytes.subarray(0, 4096))) return 'text';
+  return 'of an unknown binary type';
+}
+
+/**
+ * Which kind of photo or document a finding's upload is, judged by its first bytes only (the name is not trusted):
+ * JPEG, PNG, WebP or PDF; anything else is refused naming what was found.
+ */
+export function detectFindingFile(bytes: Uint8Array): FindingFileCheck {
+  if (bytes.length === 0) return { error: 'the file is empty' };
+  let kind: FindingFileKind | null = null;
+  if (startsWith(bytes, JPEG_SIGNATURE)) kind = 'jpeg';
+  else if (startsWith(bytes, PNG_SIGNATURE)) kind = 'png';
+  else if (startsWith(bytes, RIFF) && bytes.length >= 12 && WEBP.every((b, i) => bytes[8 + i] === b)) kind = 'webp';
+  else if (startsWith(bytes, PDF_SIGNATURE)) kind = 'pdf';
+  if (kind !== null) return { kind, contentType: FINDING_FILE_TYPES[kind] };
+  return { error: `photos and documents must be JPEG, PNG, WebP or PDF files: this file is ${describeRefused(bytes)}` };
+}

@@ -1,6 +1,7 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
 
-// A stored file (e.g. a relay record) with its checksum; the bytes live in attachment_content.
+// A stored file (a relay record on an event, a photo or document on a finding) with its checksum; the bytes live in
+// attachment_content.
 @Entity({ name: 'attachment' })
 @Index(['ownerType', 'ownerId'])
 export class Attachment {
@@ -8,7 +9,7 @@ export class Attachment {
   id!: number;
 
   @Column({ type: 'varchar', length: 20 })
-  ownerType!: 'event' | 'reading-set';
+  ownerType!: 'event' | 'reading-set' | 'finding';
 
   @Column({ type: 'int', unsigned: true })
   ownerId!: number;
@@ -19,7 +20,7 @@ export class Attachment {
   @Column({ type: 'varchar', length: 100 })
   contentType!: string;
 
-  /** What the content check found, e.g. 'comtrade-cfg', 'csv', 'pdf'. */
+  /** What the content check found, e.g. 'comtrade-cfg', 'csv', 'pdf', 'jpeg'. */
   @Column({ type: 'varchar', length: 30 })
   kind!: string;
 

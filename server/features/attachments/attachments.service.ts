@@ -1,12 +1,13 @@
 import { createHash } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
-import { detectRelayRecord } from '../../../shared/imports/sniff.js';
+import { detectFindingFile, detectRelayRecord } from '../../../shared/imports/sniff.js';
 import type { AttachmentView } from '../../../shared/schemas/responses/index.js';
 import { notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
 import { unsupportedType } from '../../common/upload.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
+import { Finding } from '../screenings/finding.entity.js';
 import { AttachmentContent } from './attachment-content.entity.js';
 import { Attachment } from './attachment.entity.js';
 
@@ -24,30 +25,76 @@ export async function addEventAttachment(m: EntityManager, clock: Clock, userId:
   const check = detectRelayRecord(file.originalname, new Uint8Array(file.buffer));
   if ('error' in check) throw unsupportedType(check.error);
   if (!(await m.getRepository(FaultEvent).exists({ where: { id: eventId } }))) throw notFound('Event');
+  return storeAttachment(m, clock, userId, { ownerType: 'event', ownerId: eventId }, { eventId }, file, check.kind, CONTENT_TYPES[check.kind]);
+}
+
+/** The multipart parser reads a file name's bytes as Latin-1; browsers send UTF-8: decode again when that is valid. */
+function utf8Name(name: string): string {
+  if (!/[\x80-\xff]/.test(name) || /[^\x00-\xff]/.test(name)) return name;
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(Buffer.from(name, 'latin1'));
+  } catch {
+    return name;
+  }
+}
+
+/** Saves a checked upload with its SHA-256 and bytes, audited with `auditAfter` (the owner's ids) added. */
+async function storeAttachment(
+  m: EntityManager,
+  clock: Clock,
+  userId: number,
+  owner: Pick<Attachment, 'ownerType' | 'ownerId'>,
+  auditAfter: Record<string, number>,
+  file: { originalname: string; buffer: Buffer },
+  kind: string,
+  contentType: string,
+) {
   const sha256 = createHash('sha256').update(file.buffer).digest('hex');
-  const name = file.originalname.replace(/[\\/]/g, '_').slice(0, 255);
+  const name = utf8Name(file.originalname).replace(/[\\/]/g, '_').slice(0, 255);
   const a = await m.getRepository(Attachment).save(
-    m.getRepository(Attachment).create({
-      ownerType: 'event',
-      ownerId: eventId,
-      name,
-      contentType: CONTENT_TYPES[check.kind],
-      kind: check.kind,
-      size: file.buffer.length,
-      sha256,
-      createdById: userId,
-      createdAt: clock.now(),
-    }),
+    m.getRepository(Attachment).create({ ...owner, name, contentType, kind, size: file.buffer.length, sha256, createdById: userId, createdAt: clock.now() }),
   );
   await m.getRepository(AttachmentContent).insert({ attachmentId: a.id, data: file.buffer });
-  await audit(m, clock, { userId, action: 'create', entity: 'attachment', entityId: a.id, after: { eventId, name, kind: a.kind, size: a.size, sha256 } });
+  await audit(m, clock, { userId, action: 'create', entity: 'attachment', entityId: a.id, after: { ...auditAfter, name, kind, contentType, size: a.size, sha256 } });
+  return attachmentView(a);
+}
+
+export function attachmentView(a: Attachment) {
   return { id: a.id, name: a.name, contentType: a.contentType, kind: a.kind, size: a.size, sha256: a.sha256, createdAt: a.createdAt.toISOString() } satisfies AttachmentView;
+}
+
+/** Stores a photo (JPEG, PNG, WebP) or PDF on an inspection finding, its type judged by its bytes (415 otherwise). */
+export async function addFindingAttachment(m: EntityManager, clock: Clock, userId: number, findingId: number, file: { originalname: string; buffer: Buffer }) {
+  const finding = await m.getRepository(Finding).findOne({ where: { id: findingId } });
+  if (!finding) throw notFound('Finding');
+  const check = detectFindingFile(new Uint8Array(file.buffer));
+  if ('error' in check) throw unsupportedType(check.error);
+  return storeAttachment(m, clock, userId, { ownerType: 'finding', ownerId: findingId }, { findingId, eventId: finding.eventId }, file, check.kind, check.contentType);
+}
+
+/** A finding's photo or document with its bytes (404 when it is not this finding's). */
+export async function getFindingAttachment(m: EntityManager, findingId: number, attachmentId: number) {
+  return attachmentWithBytes(m, { id: attachmentId, ownerType: 'finding', ownerId: findingId });
+}
+
+async function attachmentWithBytes(m: EntityManager, where: Pick<Attachment, 'id' | 'ownerType' | 'ownerId'>) {
+  const a = await m.getRepository(Attachment).findOne({ where });
+  if (!a) throw notFound('Attachment');
+  const c = await m.getRepository(AttachmentContent).findOneOrFail({ where: { attachmentId: a.id } });
+  return { name: a.name, contentType: a.contentType, sha256: a.sha256, data: c.data };
+}
+
+/**
+ * A Content-Disposition header that is safe for any file name: a plain ASCII `filename` with quotes, backslashes and
+ * control characters replaced, and the exact name as UTF-8 in `filename*` (RFC 5987 / RFC 6266).
+ */
+export function attachmentDisposition(name: string): string {
+  const fallback = name.replace(/[^\x20-\x7e]|["\\%]/g, '_') || 'file';
+  const encoded = encodeURIComponent(name).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
+  return `attachment; filename="${fallback}"; filename*=UTF-8''${encoded}`;
 }
 
 /** An attachment's bytes with its name and type (404 when it is not this event's). */
 export async function getEventAttachment(m: EntityManager, eventId: number, attachmentId: number) {
-  const a = await m.getRepository(Attachment).findOne({ where: { id: attachmentId, ownerType: 'event', ownerId: eventId } });
-  if (!a) throw notFound('Attachment');
-  const c = await m.getRepository(AttachmentContent).findOneOrFail({ where: { attachmentId } });
-  return { name: a.name, contentType: a.contentType, sha256: a.sha256, data: c.data };
+  return attachmentWithBytes(m, { id: attachmentId, ownerType: 'event', ownerId: eventId });
 }

@@ -8,6 +8,7 @@ import { dutyWithPriorFaults } from '../../../shared/screening/duty-history.js';
 import { notFound } from '../../common/app-error.js';
 import { AuditEntry } from '../../common/audit-entry.entity.js';
 import { Attachment } from '../attachments/attachment.entity.js';
+import { attachmentView } from '../attachments/attachments.service.js';
 import { designView } from '../designs/designs.service.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
 import { loadCaseReadingSets } from '../readings/readings.service.js';
@@ -116,6 +117,7 @@ export async function getEvent(m: EntityManager, id: number) {
   const findings = await m.getRepository(Finding).find({ where: { eventId: id }, order: { recordedAt: 'ASC', id: 'ASC' } });
   const notifications = await m.getRepository(Notification).find({ where: { eventId: id }, order: { id: 'DESC' }, take: 200 });
   const attachments = await m.getRepository(Attachment).find({ where: { ownerType: 'event', ownerId: id }, order: { id: 'ASC' } });
+  const findingFiles = findings.length ? await m.getRepository(Attachment).find({ where: { ownerType: 'finding', ownerId: In(findings.map((f) => f.id)) }, order: { id: 'ASC' } }) : [];
   const auditRows = await m.getRepository(AuditEntry).find({
     where: [
       { entity: 'fault_event', entityId: String(id) },
@@ -123,6 +125,7 @@ export async function getEvent(m: EntityManager, id: number) {
       ...(screenings.length ? [{ entity: 'screening', entityId: In(screenings.map((s) => String(s.id))) }] : []),
       ...(followUps.length ? [{ entity: 'follow_up', entityId: In(followUps.map((f) => String(f.id))) }] : []),
       ...(findings.length ? [{ entity: 'finding', entityId: In(findings.map((f) => String(f.id))) }] : []),
+      ...(attachments.length + findingFiles.length ? [{ entity: 'attachment', entityId: In([...attachments, ...findingFiles].map((a) => String(a.id))) }] : []),
     ],
     order: { at: 'ASC', id: 'ASC' },
     take: 500,
@@ -158,8 +161,8 @@ export async function getEvent(m: EntityManager, id: number) {
       : null,
     decisions: decisions.map((d) => ({ id: d.id, screeningId: d.screeningId, managerId: d.managerId, outcome: d.outcome, restrictions: d.restrictions, reason: d.reason, againstRecommendation: d.againstRecommendation, signedAt: d.signedAt.toISOString() })),
     followUps: followUps.map((f) => ({ id: f.id, task: f.task, dueAt: f.dueAt?.toISOString() ?? null, closedAt: f.closedAt?.toISOString() ?? null, closedById: f.closedById, result: f.result })),
-    findings: findings.map((f) => ({ id: f.id, classification: f.classification, text: f.text, recordedById: f.recordedById, recordedAt: f.recordedAt.toISOString() })),
-    attachments: attachments.map((a) => ({ id: a.id, name: a.name, contentType: a.contentType, kind: a.kind, size: a.size, sha256: a.sha256, createdAt: a.createdAt.toISOString() })),
+    findings: findings.map((f) => ({ id: f.id, classification: f.classification, text: f.text, recordedById: f.recordedById, recordedAt: f.recordedAt.toISOString(), attachments: findingFiles.filter((a) => a.ownerId === f.id).map(attachmentView) })),
+    attachments: attachments.map(attachmentView),
     notifications: notifications.map((n) => ({
       id: n.id,
       screeningId: n.screeningId,

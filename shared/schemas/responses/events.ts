@@ -131,6 +131,10 @@ export const findingViewSchema = z.strictObject({
 });
 export type FindingView = z.infer<typeof findingViewSchema>;
 
+/** A finding in the event file, with its photos and documents. */
+export const eventFindingSchema = findingViewSchema.extend({ attachments: z.array(attachmentViewSchema) });
+export type EventFinding = z.infer<typeof eventFindingSchema>;
+
 /** One e-mail about the event, as queued and sent. */
 export const notificationViewSchema = z.strictObject({
   id: rowId,
@@ -159,7 +163,7 @@ export const eventDetailSchema = eventViewSchema.extend({
   decision: decisionViewSchema.nullable(),
   decisions: z.array(decisionViewSchema),
   followUps: z.array(followUpViewSchema),
-  findings: z.array(findingViewSchema),
+  findings: z.array(eventFindingSchema),
   notifications: z.array(notificationViewSchema),
   attachments: z.array(attachmentViewSchema),
   audit: z.array(auditRowSchema),

@@ -297,7 +297,7 @@ describe('EventFilePage — follow-ups, findings and e-mail log', () => {
     const { requests } = signedInAs(
       ['engineer'],
       released({
-        findings: [{ id: 5, classification: 'deformation-confirmed', text: 'LV winding phase B buckled inward at the bottom.', recordedById: 7, recordedAt: '2026-07-08T10:00:00.000Z' }],
+        findings: [{ id: 5, classification: 'deformation-confirmed', text: 'LV winding phase B buckled inward at the bottom.', recordedById: 7, recordedAt: '2026-07-08T10:00:00.000Z', attachments: [] }],
       }),
       { 'POST /api/events/11/findings': { status: 201, body: { id: 6 } } },
     );

@@ -80,6 +80,12 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['PATCH /criteria/:version', ['engineer', 'admin']],
   ['POST /criteria/:version/publish', ['admin']],
   ['GET /designs/:id/sisters', 'signed in'],
+  // Not api.md rows: photos and documents on inspection findings, and the readings, indicators and audit exports.
+  ['POST /findings/:id/attachments', ['engineer']],
+  ['GET /findings/:id/attachments/:attachmentId', 'signed in'],
+  ['GET /units/:id/readings/export', 'signed in'],
+  ['GET /screenings/:id/indicators/export', 'signed in'],
+  ['GET /events/:id/audit/export', 'signed in'],
   // Not api.md rows: resending a mail from the event's e-mail log, and opening an attachment of a mail in the outbox.
   ['POST /notifications/:id/resend', ['manager']],
   ['GET /dev/outbox/:id/attachments/:index', ['admin', 'manager']],
