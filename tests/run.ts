@@ -113,6 +113,8 @@ async function main(): Promise<number> {
   ensureDatabaseAndUser(paths, 'gapsight_fixed', 'gapsight', dbPassword);
   // The browser tests' own database (their app server runs a mail worker and walks the demo flow).
   ensureDatabaseAndUser(paths, 'gapsight_e2e', 'gapsight', dbPassword);
+  // An empty database (migrated, nothing seeded) for the browser test that onboards a utility from DEMO=off.
+  ensureDatabaseAndUser(paths, 'gapsight_e2e_empty', 'gapsight', dbPassword);
   console.log(`✓ MariaDB on 127.0.0.1:${dbPort} (datadir ${paths.datadir})`);
 
   Object.assign(process.env, {
@@ -121,6 +123,7 @@ async function main(): Promise<number> {
     DB_PORT: String(dbPort),
     DB_NAME: 'gapsight_test',
     TEST_DB_NAME_FIXED: 'gapsight_fixed',
+    TEST_DB_NAME_EMPTY: 'gapsight_e2e_empty',
     DB_USER: 'gapsight',
     DB_PASSWORD: dbPassword,
     JWT_SECRET: randomBytes(32).toString('hex'),
@@ -140,10 +143,12 @@ async function main(): Promise<number> {
   const ran = await db.runMigrations({ transaction: 'each' });
   await db.destroy();
   const { DataSource } = await import('typeorm');
-  const e2eDb = new DataSource({ ...db.options, database: 'gapsight_e2e' } as typeof db.options);
-  await e2eDb.initialize();
-  await e2eDb.runMigrations({ transaction: 'each' });
-  await e2eDb.destroy();
+  for (const database of ['gapsight_e2e', 'gapsight_e2e_empty']) {
+    const e2eDb = new DataSource({ ...db.options, database } as typeof db.options);
+    await e2eDb.initialize();
+    await e2eDb.runMigrations({ transaction: 'each' });
+    await e2eDb.destroy();
+  }
   console.log(`✓ ${ran.length} migration(s) applied (test and browser-test databases)`);
 
   if (!process.env.SKIP_E2E_BUILD) {
