@@ -1,6 +1,7 @@
 import type { Transporter } from 'nodemailer';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Clock } from '../../common/clock.js';
+import { OUTCOME_LABELS } from '../../../shared/vocabulary.js';
 import { buildDecisionMail } from '../../reports/decision-mail.js';
 import { buildManagerMail } from '../../reports/manager-mail.js';
 import { screeningReportPdf } from '../../reports/report.service.js';
@@ -73,7 +74,7 @@ export async function queueDecisionMail(m: EntityManager, clock: Clock, decision
     return true;
   });
   if (!to.length) return 0;
-  const subject = `[Gapsight] Decision: ${decision.outcome.toUpperCase()} — ${unit.serial}`.slice(0, 500);
+  const subject = `[Gapsight] Decision: ${OUTCOME_LABELS[decision.outcome].word.toUpperCase()} — ${unit.serial} (${site.name})`.slice(0, 500);
   await m.getRepository(Notification).insert(
     to.map((address) => ({ kind: 'decision' as const, eventId: event.id, screeningId: s.id, to: address, subject, status: 'queued' as const, attempts: 0, nextAttemptAt: clock.now(), createdAt: clock.now() })),
   );
