@@ -1,6 +1,7 @@
 // GET /api/units/:id/readings/export, /api/screenings/:id/indicators/export and /api/events/:id/audit/export: each as
 // .xlsx (read back with exceljs) and CSV (formula-looking text escaped), to anyone signed in.
 import ExcelJS from 'exceljs';
+import type request from 'supertest';
 import { In } from 'typeorm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { Reading } from '../../../server/features/readings/reading.entity.js';
@@ -12,7 +13,7 @@ import { correctionsFlow } from '../corrections/flow.js';
 
 const f = correctionsFlow();
 
-const binary = (res: NodeJS.ReadableStream, cb: (err: Error | null, body: Buffer) => void) => {
+const binary = (res: request.Response, cb: (err: Error | null, body: Buffer) => void) => {
   const chunks: Buffer[] = [];
   res.on('data', (c: Buffer) => chunks.push(c));
   res.on('end', () => cb(null, Buffer.concat(chunks)));

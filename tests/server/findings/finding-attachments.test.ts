@@ -1,6 +1,7 @@
 // POST /api/findings/:id/attachments and GET …/:attachmentId: photos (JPEG, PNG, WebP) and PDFs judged by their bytes,
 // a 10 MB limit, SHA-256 kept, the upload audited, downloads with a safe Content-Disposition.
 import { createHash } from 'node:crypto';
+import type request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { AttachmentContent } from '../../../server/features/attachments/attachment-content.entity.js';
 import { Attachment } from '../../../server/features/attachments/attachment.entity.js';
@@ -88,7 +89,7 @@ describe('POST /api/findings/:findingId/attachments', () => {
 });
 
 describe('GET /api/findings/:findingId/attachments/:attachmentId', () => {
-  const binary = (res: NodeJS.ReadableStream, cb: (err: Error | null, body: Buffer) => void) => {
+  const binary = (res: request.Response, cb: (err: Error | null, body: Buffer) => void) => {
     const chunks: Buffer[] = [];
     res.on('data', (c: Buffer) => chunks.push(c));
     res.on('end', () => cb(null, Buffer.concat(chunks)));
@@ -115,5 +116,14 @@ describe('GET /api/findings/:findingId/attachments/:attachmentId', () => {
     expect((await f.api().get(`/api/findings/${b.findingId}/attachments/${up.body.id}`).set(f.as.tester)).status).toBe(404);
     const relay = await f.api().post(`/api/events/${a.eventId}/attachments`).set(f.as.protection).attach('file', PDF, 'relay.pdf').expect(201);
     expect((await f.api().get(`/api/findings/${a.findingId}/attachments/${relay.body.id}`).set(f.as.tester)).status).toBe(404);
+  });
+
+  it('names a relay record with a non-Latin-1 name the same safe way on the event route', async () => {
+    const { eventId } = await finding();
+    const up = await f.api().post(`/api/events/${eventId}/attachments`).set(f.as.protection).attach('file', PDF, 'Подстанция.pdf').expect(201);
+    expect(up.body.name).toBe('Подстанция.pdf');
+    const res = await f.api().get(`/api/events/${eventId}/attachments/${up.body.id}`).set(f.as.tester);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-disposition']).toBe(`attachment; filename="__________.pdf"; filename*=UTF-8''${encodeURIComponent('Подстанция.pdf')}`);
   });
 });
