@@ -8,6 +8,8 @@ import { startMailSink, type MailSink } from '../../../server/mail/sink.js';
 import { SinkMessage } from '../../../server/mail/sink-message.entity.js';
 import { Notification } from '../../../server/features/notifications/notification.entity.js';
 import { deliverDueNotifications } from '../../../server/features/notifications/notifications.service.js';
+import { Decision } from '../../../server/features/screenings/decision.entity.js';
+import { decide } from '../../../server/features/screenings/screenings.service.js';
 import { Site } from '../../../server/features/sites/site.entity.js';
 import { CAUTIONS } from '../../../shared/screening/cautions.js';
 import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
@@ -21,6 +23,7 @@ let tester: { Authorization: string };
 let testerEmail: string;
 let protection: { Authorization: string };
 let manager: { Authorization: string };
+let managerId: number;
 let managerName: string;
 let admin: { Authorization: string };
 let engineer: { Authorization: string };
@@ -36,6 +39,7 @@ beforeAll(async () => {
   const mgr = await createTestUser(env.db, ['manager'], { name: 'Mira Manager' });
   manager = bearer(env.config, mgr.id);
   managerName = mgr.name;
+  managerId = mgr.id;
   admin = bearer(env.config, (await createTestUser(env.db, ['admin'])).id);
   engineer = bearer(env.config, (await createTestUser(env.db, ['engineer'])).id);
   siteId = (await makeSite(env.db, { controlRoomEmail: controlRoom })).id;
@@ -99,6 +103,20 @@ describe('the decision mail', () => {
     const rows = await decisionMail(eventId);
     expect(rows.map((r) => r.to).sort()).toEqual([controlRoom, testerEmail].sort());
     expect(rows.every((r) => r.status === 'queued' && r.screeningId === screeningId)).toBe(true);
+  });
+
+  it("is written by the decision's transaction: rolled back with it, nothing queued", async () => {
+    const { eventId, screeningId } = await screenedEvent();
+    const rollback = new Error('roll back');
+    await expect(
+      env.db.transaction(async (m) => {
+        await decide(m, systemClock, managerId, screeningId, { outcome: 'release-with-restrictions', restrictions: 'Load below 80 %', reason });
+        expect(await m.getRepository(Notification).countBy({ eventId, kind: 'decision' })).toBe(2);
+        throw rollback;
+      }),
+    ).rejects.toBe(rollback);
+    expect(await decisionMail(eventId)).toEqual([]);
+    expect(await env.db.getRepository(Decision).countBy({ screeningId })).toBe(0);
   });
 
   it('is not queued when the decision is refused', async () => {
