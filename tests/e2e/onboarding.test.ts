@@ -237,15 +237,15 @@ describe('from an empty DEMO=off database to a decided, re-energised event', () 
     await page.waitForSelector('[data-test="verdict-word"]');
     await shot(page, 'screened');
     // Capacitance against the factory sets is ok, the duty is moderate; reactance (required for the duty) is missing.
-    expect((await page.innerText('[data-test="verdict-word"]')).replace(/\s+/g, ' ').trim()).toBe('Recommendation Conditional');
-    expect((await page.innerText('[data-test="verdict-reason"]')).trim()).toBe('Complete: reactance phase A, reactance phase B, reactance phase C');
-    const missing = await page.locator('[data-test="missing-item"]').allInnerTexts();
+    expect(((await page.textContent('[data-test="verdict-word"]')) ?? '').replace(/\s+/g, ' ').trim()).toBe('Recommendation Conditional');
+    expect((await page.textContent('[data-test="verdict-reason"]'))?.trim()).toBe('Complete: reactance phase A, reactance phase B, reactance phase C');
+    const missing = await page.locator('[data-test="missing-item"]').allTextContents();
     expect(missing.map((t) => t.replace(/^help_outline\s*/, '').trim())).toEqual([
       'Missing: reactance phase A (reactance.A)',
       'Missing: reactance phase B (reactance.B)',
       'Missing: reactance phase C (reactance.C)',
     ]);
-    const reasons = await page.locator('[data-test="reason"]').allInnerTexts();
+    const reasons = (await page.locator('[data-test="reason"]').allTextContents()).map((t) => t.trim());
     expect(reasons).toContain('Capacitance is the only evidence and it is ok: an ok capacitance does not rule out axial movement (add leakage reactance or a sweep)');
     expect((await db.getRepository(FaultEvent).findOneByOrFail({ id: eventId })).status).toBe('screened');
     await page.close();
