@@ -26,6 +26,8 @@ export interface ZodForm<V, S extends z.ZodType> {
   serverErrors: Ref<FieldErrors>;
   /** The error to show under a field: the client's (touched or submitted), else the server's. */
   errorOf: (field: string) => string | undefined;
+  /** q-input error props for a field (`v-bind="form.errorProps('name')"`). */
+  errorProps: (field: string) => { error: boolean; errorMessage: string | undefined };
   touch: (field: string) => void;
   /** Mark the form submitted and say whether the client check passes. */
   validate: () => boolean;
@@ -98,7 +100,7 @@ export function useZodForm<S extends z.ZodType, V extends object>(schema: S, ini
     serverErrors.value = {};
   }
 
-  return { values, touched, submitted, clientErrors, serverErrors, errorOf, touch: (field) => (touched[field] = true), validate, submit, reset };
+  return { values, touched, submitted, clientErrors, serverErrors, errorOf, errorProps: (field) => ({ error: !!errorOf(field), errorMessage: errorOf(field) }), touch: (field) => (touched[field] = true), validate, submit, reset };
 }
 
 // The value at a dotted field name (`followUps.0.task`) of plain data.

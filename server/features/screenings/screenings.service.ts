@@ -5,6 +5,7 @@ import type { GapsightCase } from '../../../shared/schemas/case.js';
 import type { ClosedFollowUp, DecisionAnswer, EnergisedAnswer, LiftedRestrictions, RecordedFinding, RunScreeningAnswer } from '../../../shared/schemas/responses/index.js';
 import type { GapsightResult } from '../../../shared/schemas/result.js';
 import { screenCase } from '../../../shared/screening/index.js';
+import { formatInstant } from '../../../shared/format.js';
 import { AppError, conflict, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
@@ -179,8 +180,13 @@ export async function recordEnergised(m: EntityManager, clock: Clock, userId: nu
   const decision = await newestDecision(m, eventId);
   if (!decision) throw new AppError('invalid_status', 'The event has no decision.', 409);
   const at = new Date(atText);
-  if (at.getTime() < decision.signedAt.getTime()) {
-    throw new AppError('invalid_time', 'Some fields are invalid.', 409, { at: `before the decision (${decision.signedAt.toISOString()})` });
+  // Times are typed to the minute: any time in the minute of the signature counts as not before it.
+  const signedMinute = Math.floor(decision.signedAt.getTime() / 60_000) * 60_000;
+  if (at.getTime() < signedMinute) {
+    const unit = await m.getRepository(Unit).findOne({ where: { id: event.unitId }, relations: { site: true } });
+    throw new AppError('invalid_time', 'Some fields are invalid.', 409, {
+      at: `before the decision, which was signed ${formatInstant(decision.signedAt.toISOString(), unit?.site?.timeZone ?? 'UTC')}`,
+    });
   }
   if (at.getTime() > clock.now().getTime()) throw new AppError('invalid_time', 'Some fields are invalid.', 409, { at: 'in the future' });
   const from = event.energisedAt ?? decision.signedAt;

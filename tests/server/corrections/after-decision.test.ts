@@ -74,6 +74,18 @@ describe('POST /api/events/:eventId/energised', () => {
     expect((await f.env.db.getRepository(FaultEvent).findOneByOrFail({ id: eventId })).energisedAt).toBeNull();
   });
 
+  it('accepts a time typed to the minute of the signature (seconds before it) and names the signing time in site time when earlier', async () => {
+    const { eventId } = await f.event();
+    // Sign 40 s into a minute: the form sends whole minutes, so the minute of the signature must be accepted.
+    f.clock.set(new Date(Math.floor(f.clock.now().getTime() / 60_000) * 60_000 + 40_000));
+    const { signedAt } = await f.decide(eventId, { outcome: 'release', reason: 'Readings unchanged.' });
+    const minute = Math.floor(new Date(signedAt).getTime() / 60_000) * 60_000;
+    const early = await energised(eventId, new Date(minute - 60_000).toISOString());
+    expect(early.status).toBe(409);
+    expect(early.body.error.fields.at).toMatch(/^before the decision, which was signed \d{4}-\d{2}-\d{2} \d{2}:\d{2} /);
+    await energised(eventId, new Date(minute).toISOString()).expect(200);
+  });
+
   it('answers 400 naming `at` for a time that is not a date, 404 for an unknown event, 403 for a tester', async () => {
     const { eventId } = await f.event();
     const bad = await energised(eventId, 'later');
