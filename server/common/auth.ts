@@ -31,9 +31,16 @@ export const authenticate: RequestHandler = async (req, res, next) => {
   }
   const user = await db.getRepository(User).findOne({ where: { id: Number(sub) }, relations: { sites: true } });
   if (!user || !user.active) return next(unauthorized('This account is not active; sign in again or ask an administrator.'));
+  // A one-time password still in use: only reading oneself and choosing a new password are allowed.
+  if (user.mustChangePassword && !PASSWORD_CHANGE_ROUTES.has(`${req.method} ${req.route?.path ?? req.path}`)) {
+    return next(new AppError('password_change_required', 'Choose a new password first: the one-time password allows nothing else.', 403));
+  }
   res.locals.user = toUserDto(user);
   next();
 };
+
+// The routes a person who must replace a one-time password may still call.
+const PASSWORD_CHANGE_ROUTES = new Set(['GET /auth/me', 'POST /auth/password']);
 
 /** The signed-in user of a request (after authenticate). */
 export function currentUser(res: { locals: Record<string, unknown> }): UserDto {

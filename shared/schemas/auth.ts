@@ -11,6 +11,22 @@ export type LoginBody = z.infer<typeof loginBodySchema>;
 
 export const passwordSchema = z.string().min(10, 'at least 10 characters').max(200, 'at most 200 characters');
 
+/** bcrypt reads at most 72 bytes of a password. */
+export const PASSWORD_MAX_BYTES = 72;
+export const NEW_PASSWORD_MIN = 12;
+
+/** POST /api/auth/password: the current password and a new one (12 characters or more, 72 bytes of UTF-8 at most). */
+export const passwordChangeSchema = z
+  .object({
+    currentPassword: z.string().min(1, 'required').max(200, 'too long'),
+    newPassword: z
+      .string()
+      .min(NEW_PASSWORD_MIN, `at least ${NEW_PASSWORD_MIN} characters`)
+      .refine((v) => new TextEncoder().encode(v).length <= PASSWORD_MAX_BYTES, `at most ${PASSWORD_MAX_BYTES} bytes (fewer characters with accents or symbols)`),
+  })
+  .refine((v) => v.newPassword !== v.currentPassword, { path: ['newPassword'], message: 'must differ from the current password' });
+export type PasswordChange = z.infer<typeof passwordChangeSchema>;
+
 export const userCreateSchema = z.object({
   email: z.string().trim().email('not an e-mail address').max(254),
   name: z.string().trim().min(1, 'required').max(120),
@@ -37,6 +53,16 @@ export const userPatchSchema = z
   .partial()
   .refine((v) => Object.keys(v).length > 0, { message: 'nothing to change' });
 export type UserPatch = z.infer<typeof userPatchSchema>;
+
+/** GET /api/users: search by name or e-mail, one role, active or not; one page, by name. */
+export const userListQuerySchema = z.object({
+  q: z.string().trim().max(120).optional(),
+  role: roleSchema.optional(),
+  active: z.enum(['true', 'false'], { message: 'true or false' }).transform((v) => v === 'true').optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(25),
+});
+export type UserListQuery = z.infer<typeof userListQuerySchema>;
 
 /** The user as the API shows it (its schema: responses/auth.ts). */
 export type { UserView as UserDto } from './responses/auth.js';

@@ -31,6 +31,7 @@ const user = {
   allSites: true,
   active: true,
   demo: true,
+  mustChangePassword: false,
   lastSignInAt: '2026-07-02T08:00:00.000Z',
 };
 

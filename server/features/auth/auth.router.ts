@@ -1,5 +1,6 @@
 import { route, type RouteDef } from '../../route-def.js';
-import { loginBodySchema } from '../../../shared/schemas/auth.js';
+import { loginBodySchema, passwordChangeSchema } from '../../../shared/schemas/auth.js';
+import { changeOwnPassword } from '../users/users.service.js';
 import { login } from './auth.service.js';
 
 export const authRoutes: RouteDef[] = [
@@ -15,4 +16,12 @@ export const authRoutes: RouteDef[] = [
   }),
   // GET /api/auth/me — the signed-in user
   route({ method: 'get', path: '/auth/me', access: 'signed-in', handler: ({ user }) => user }),
+  // POST /api/auth/password — the signed-in person replaces their own password (also a one-time one)
+  route({
+    method: 'post',
+    path: '/auth/password',
+    access: 'signed-in',
+    body: passwordChangeSchema,
+    handler: ({ m, clock, user, body }) => changeOwnPassword(m, clock, user.id, body),
+  }),
 ];

@@ -33,6 +33,10 @@ export class User {
   @Column({ type: 'boolean', default: false })
   demo!: boolean;
 
+  /** Signed in with a one-time password: only choosing a new password is allowed until then. */
+  @Column({ type: 'boolean', default: false })
+  mustChangePassword!: boolean;
+
   @Column({ type: 'int', unsigned: true, default: 0 })
   failedSignIns!: number;
 

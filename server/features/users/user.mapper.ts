@@ -13,6 +13,7 @@ export function toUserDto(u: User): UserDto {
     allSites: u.allSites,
     active: u.active,
     demo: u.demo,
+    mustChangePassword: u.mustChangePassword,
     lastSignInAt: u.lastSignInAt ? u.lastSignInAt.toISOString() : null,
   };
 }

@@ -1,11 +1,11 @@
 import { route, type RouteDef } from '../../route-def.js';
 import { userParams } from '../../common/params.js';
-import { userCreateBodySchema, userPatchSchema } from '../../../shared/schemas/auth.js';
+import { userCreateBodySchema, userListQuerySchema, userPatchSchema } from '../../../shared/schemas/auth.js';
 import { createPerson, listUsers, resetPassword, unlockUser, updateUser } from './users.service.js';
 
 export const userRoutes: RouteDef[] = [
-  // GET /api/users — everyone who can sign in (administration)
-  route({ method: 'get', path: '/users', access: ['admin'], handler: ({ m, clock }) => listUsers(m, clock) }),
+  // GET /api/users — one page of people (search by name or e-mail, role, active), by name
+  route({ method: 'get', path: '/users', access: ['admin'], query: userListQuerySchema, handler: ({ m, clock, query }) => listUsers(m, clock, query) }),
   // POST /api/users — create a person with roles and sites; answers their one-time password once
   route({ method: 'post', path: '/users', access: ['admin'], body: userCreateBodySchema, status: 201, handler: ({ m, clock, user, body }) => createPerson(m, clock, user.id, body) }),
   // PATCH /api/users/:userId — change name, roles, sites; deactivate or reactivate

@@ -4,8 +4,8 @@ import { In, type EntityManager } from 'typeorm';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
-import type { UserCreate, UserCreateBody, UserDto, UserPatch } from '../../../shared/schemas/auth.js';
-import type { PersonView, PersonWithPassword } from '../../../shared/schemas/responses/admin.js';
+import type { PasswordChange, UserCreate, UserCreateBody, UserDto, UserListQuery, UserPatch } from '../../../shared/schemas/auth.js';
+import type { PersonPage, PersonView, PersonWithPassword } from '../../../shared/schemas/responses/admin.js';
 import { Site } from '../sites/site.entity.js';
 import { User } from './user.entity.js';
 import { toPersonView, toUserDto } from './user.mapper.js';
@@ -20,11 +20,19 @@ async function sitesByIds(m: EntityManager, ids: number[]): Promise<Site[]> {
   return sites;
 }
 
-/** Lists every person, by name, with any sign-in lock still running. */
-export async function listUsers(m: EntityManager, clock: Clock): Promise<PersonView[]> {
-  const users = await m.getRepository(User).find({ relations: { sites: true }, order: { name: 'ASC' } });
+/** One page of people by name: search by name or e-mail, one role, active or not; with any sign-in lock still running. */
+export async function listUsers(m: EntityManager, clock: Clock, q: UserListQuery): Promise<PersonPage> {
+  const qb = m.getRepository(User).createQueryBuilder('u').leftJoinAndSelect('u.sites', 's');
+  if (q.q) {
+    const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    qb.andWhere('(u.name LIKE :like OR u.email LIKE :like)', { like });
+  }
+  if (q.role) qb.andWhere('JSON_CONTAINS(u.roles, :role)', { role: JSON.stringify(q.role) });
+  if (q.active !== undefined) qb.andWhere('u.active = :active', { active: q.active });
+  qb.orderBy('u.name', 'ASC').addOrderBy('u.id', 'ASC').skip((q.page - 1) * q.pageSize).take(q.pageSize);
+  const [users, total] = await qb.getManyAndCount();
   const now = clock.now();
-  return users.map((u) => toPersonView(u, now));
+  return { items: users.map((u) => toPersonView(u, now)), total, page: q.page, pageSize: q.pageSize } satisfies PersonPage;
 }
 
 /** A one-time password: 12 random bytes, 16 characters of base64url. */
@@ -35,7 +43,7 @@ function newOneTimePassword(): string {
 /** POST /api/users: creates the person with a one-time password, answered this once (only its hash is stored). */
 export async function createPerson(m: EntityManager, clock: Clock, actorId: number, input: UserCreateBody): Promise<PersonWithPassword> {
   const oneTimePassword = newOneTimePassword();
-  const dto = await createUser(m, clock, actorId, { ...input, password: oneTimePassword });
+  const dto = await createUser(m, clock, actorId, { ...input, password: oneTimePassword }, { mustChangePassword: true });
   const user = await loadUser(m, dto.id);
   return { ...toPersonView(user, clock.now()), oneTimePassword };
 }
@@ -47,7 +55,7 @@ async function loadUser(m: EntityManager, id: number): Promise<User> {
 }
 
 /** Creates a user (audited); the e-mail must be new. */
-export async function createUser(m: EntityManager, clock: Clock, actorId: number | null, input: UserCreate, opts: { demo?: boolean; passwordHash?: string } = {}): Promise<UserDto> {
+export async function createUser(m: EntityManager, clock: Clock, actorId: number | null, input: UserCreate, opts: { demo?: boolean; passwordHash?: string; mustChangePassword?: boolean } = {}): Promise<UserDto> {
   const email = input.email.trim().toLowerCase();
   if (await m.getRepository(User).exists({ where: { email } })) {
     throw new AppError('email_taken', 'A user with this e-mail already exists.', 409, { email: 'already in use' });
@@ -61,6 +69,7 @@ export async function createUser(m: EntityManager, clock: Clock, actorId: number
     sites: await sitesByIds(m, input.siteIds),
     active: true,
     demo: opts.demo ?? false,
+    mustChangePassword: opts.mustChangePassword ?? false,
     createdAt: clock.now(),
     updatedAt: clock.now(),
   });
@@ -118,6 +127,7 @@ export async function resetPassword(m: EntityManager, clock: Clock, actorId: num
   const before = toPersonView(user, now);
   const oneTimePassword = newOneTimePassword();
   user.passwordHash = await bcrypt.hash(oneTimePassword, BCRYPT_COST);
+  user.mustChangePassword = true;
   user.failedSignIns = 0;
   user.lockedUntil = null;
   user.updatedAt = now;
@@ -138,5 +148,25 @@ export async function unlockUser(m: EntityManager, clock: Clock, actorId: number
   await m.getRepository(User).save(user);
   const after = toPersonView(user, now);
   await audit(m, clock, { userId: actorId, action: 'update', entity: 'user', entityId: id, before, after: { ...after, failedSignIns: 0 }, note: 'sign-in unlocked' });
+  return after;
+}
+
+/**
+ * POST /api/auth/password: the signed-in person replaces their password (the current one checked); ends the duty to
+ * change a one-time password. Audited without any hash.
+ */
+export async function changeOwnPassword(m: EntityManager, clock: Clock, userId: number, input: PasswordChange): Promise<UserDto> {
+  const user = await loadUser(m, userId);
+  if (!(await bcrypt.compare(input.currentPassword, user.passwordHash))) {
+    throw new AppError('invalid_input', 'The current password is wrong.', 400, { currentPassword: 'wrong password' });
+  }
+  const now = clock.now();
+  const before = toUserDto(user);
+  user.passwordHash = await bcrypt.hash(input.newPassword, BCRYPT_COST);
+  user.mustChangePassword = false;
+  user.updatedAt = now;
+  await m.getRepository(User).save(user);
+  const after = toUserDto(user);
+  await audit(m, clock, { userId, action: 'update', entity: 'user', entityId: userId, before, after, note: 'password changed by its owner' });
   return after;
 }

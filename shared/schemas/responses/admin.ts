@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { userViewSchema } from './auth.js';
-import { isoDateTime } from './common.js';
+import { isoDateTime, pageOf } from './common.js';
 
 // Answers of the administration routes for people (GET/POST/PATCH /api/users, reset-password, unlock).
 
@@ -10,6 +10,10 @@ export const personViewSchema = userViewSchema.extend({
   lockedUntil: isoDateTime.nullable(),
 });
 export type PersonView = z.infer<typeof personViewSchema>;
+
+/** GET /api/users: one page of people, by name. */
+export const personPageSchema = pageOf(personViewSchema);
+export type PersonPage = z.infer<typeof personPageSchema>;
 
 /** POST /api/users and POST /api/users/:id/reset-password: the person and their one-time password, answered this once. */
 export const personWithPasswordSchema = personViewSchema.extend({ oneTimePassword: z.string().min(10) });

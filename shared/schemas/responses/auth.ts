@@ -16,6 +16,8 @@ export const userViewSchema = z.strictObject({
   active: z.boolean(),
   /** A demo account (invented Kestrel Valley data). */
   demo: z.boolean(),
+  /** Signed in with a one-time password: a new password must be chosen before anything else. */
+  mustChangePassword: z.boolean(),
   lastSignInAt: isoDateTime.nullable(),
 });
 export type UserView = z.infer<typeof userViewSchema>;

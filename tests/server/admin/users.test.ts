@@ -3,7 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEntry } from '../../../server/common/audit-entry.entity.js';
 import { User } from '../../../server/features/users/user.entity.js';
-import { personViewSchema, personWithPasswordSchema } from '../../../shared/schemas/responses/admin.js';
+import { personPageSchema, personViewSchema, personWithPasswordSchema } from '../../../shared/schemas/responses/admin.js';
 import { bearer, createTestUser, openTestEnv, TEST_PASSWORD, type TestEnv } from '../../helpers/db.js';
 import { makeSite } from '../../helpers/factories.js';
 
@@ -46,8 +46,8 @@ describe('POST /api/users', () => {
     expect(row.passwordHash).not.toContain(answer.oneTimePassword);
     expect(await bcrypt.compare(answer.oneTimePassword, row.passwordHash)).toBe(true);
 
-    const list = await request(env.app).get('/api/users').set(adminAuth);
-    const listed = (list.body as Record<string, unknown>[]).find((p) => p.id === answer.id);
+    const list = await request(env.app).get('/api/users').query({ q: email }).set(adminAuth);
+    const listed = (list.body.items as Record<string, unknown>[]).find((p) => p.id === answer.id);
     expect(personViewSchema.strict().parse(listed)).not.toHaveProperty('oneTimePassword');
 
     expect((await login(email, answer.oneTimePassword)).status).toBe(200);
@@ -136,7 +136,7 @@ describe('POST /api/users/:id/unlock', () => {
     const u = await createTestUser(env.db, ['tester']);
     for (let i = 0; i < 5; i++) expect((await login(u.email, `wrong-${i}`)).status).toBe(401);
     expect((await login(u.email, TEST_PASSWORD)).status).toBe(429);
-    const listed = (await request(env.app).get('/api/users').set(adminAuth)).body.find((p: { id: number }) => p.id === u.id);
+    const listed = (await request(env.app).get('/api/users').query({ q: u.email }).set(adminAuth)).body.items.find((p: { id: number }) => p.id === u.id);
     expect(listed.lockedUntil).not.toBeNull();
 
     const res = await request(env.app).post(`/api/users/${u.id}/unlock`).set(adminAuth);
@@ -244,5 +244,46 @@ describe('deactivation', () => {
       [true, false],
       [false, true],
     ]);
+  });
+});
+
+describe('GET /api/users — one page of people', () => {
+  it('searches by name or e-mail, filters by role and active, pages by name with the total', async () => {
+    const tag = Math.random().toString(36).slice(2, 8);
+    const made = [];
+    for (const [i, name] of ['Cara', 'Abel', 'Bea'].entries()) {
+      made.push(await createTestUser(env.db, i === 2 ? ['manager'] : ['tester'], { name: `${name} ${tag}`, email: `${name.toLowerCase()}-${tag}@test.example`, active: i !== 1 }));
+    }
+    const get = (query: Record<string, string | number>) => request(env.app).get('/api/users').query(query).set(adminAuth);
+
+    const byName = await get({ q: tag, pageSize: 2 });
+    expect(byName.status).toBe(200);
+    const page1 = personPageSchema.parse(byName.body);
+    expect(page1.total).toBe(3);
+    expect(page1.pageSize).toBe(2);
+    expect(page1.items.map((p) => p.name)).toEqual([`Abel ${tag}`, `Bea ${tag}`]);
+    const page2 = personPageSchema.parse((await get({ q: tag, pageSize: 2, page: 2 })).body);
+    expect(page2.items.map((p) => p.name)).toEqual([`Cara ${tag}`]);
+
+    const byEmail = personPageSchema.parse((await get({ q: `bea-${tag}@` })).body);
+    expect(byEmail.items.map((p) => p.id)).toEqual([made[2].id]);
+    const managers = personPageSchema.parse((await get({ q: tag, role: 'manager' })).body);
+    expect(managers.items.map((p) => p.id)).toEqual([made[2].id]);
+    const inactive = personPageSchema.parse((await get({ q: tag, active: 'false' })).body);
+    expect(inactive.items.map((p) => p.id)).toEqual([made[1].id]);
+    const active = personPageSchema.parse((await get({ q: tag, active: 'true' })).body);
+    expect(active.items.map((p) => p.id).sort((x, y) => x - y)).toEqual([made[0].id, made[2].id].sort((x, y) => x - y));
+  });
+
+  it('pages 25 by default and refuses a page size over 500 or an unknown role, naming the field', async () => {
+    const plain = personPageSchema.parse((await request(env.app).get('/api/users').set(adminAuth)).body);
+    expect(plain.pageSize).toBe(25);
+    expect(plain.page).toBe(1);
+    const big = await request(env.app).get('/api/users').query({ pageSize: 501 }).set(adminAuth);
+    expect(big.status).toBe(400);
+    expect(big.body.error.fields).toHaveProperty(['query.pageSize']);
+    const role = await request(env.app).get('/api/users').query({ role: 'auditor' }).set(adminAuth);
+    expect(role.status).toBe(400);
+    expect(role.body.error.fields).toHaveProperty(['query.role']);
   });
 });

@@ -70,6 +70,8 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['POST /events/:id/restrictions/lift', ['manager']],
   // Not an api.md row: a unit's factory, commissioning or routine set from a readings CSV (the session import's format).
   ['POST /units/:id/reading-sets/import', ['tester']],
+  // Not an api.md row: reading sets of many units from one .xlsx or CSV file (fleet onboarding).
+  ['POST /units/reading-sets/import', ['tester']],
   // Not api.md rows: correcting a unit's factory, commissioning or routine set, and marking it as the unit's reference.
   ['PATCH /reading-sets/:id', ['tester']],
   ['POST /reading-sets/:id/reference', ['tester']],
@@ -89,6 +91,8 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   // Not api.md rows: resending a mail from the event's e-mail log, and opening an attachment of a mail in the outbox.
   ['POST /notifications/:id/resend', ['manager']],
   ['GET /dev/outbox/:id/attachments/:index', ['admin', 'manager']],
+  // Not an api.md row: the signed-in person replaces their own password (a one-time password first of all).
+  ['POST /auth/password', 'signed in'],
 ];
 
 // api.md: "`admin` may do everything a row names except sign decisions".
