@@ -177,10 +177,10 @@ function readHeader(cells: string[]): { index: Record<ReadingsColumn, number> } 
   return readFixedHeader(cells, READINGS_COLUMNS);
 }
 
-type RowCheck = { row?: ReadingRow; errors: Record<string, string> };
+export type RowCheck = { row?: ReadingRow; errors: Record<string, string> };
 
 /** One data record checked field by field; `cells` already has the header's column count. */
-function checkReading(cells: string[], index: Record<ReadingsColumn, number>): RowCheck {
+export function checkReading(cells: string[], index: Record<ReadingsColumn, number>): RowCheck {
   const errors: Record<string, string> = {};
   const cell = (c: ReadingsColumn) => cells[index[c]].trim();
 

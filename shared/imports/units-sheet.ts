@@ -46,27 +46,34 @@ export const UNIT_SHEET_ALIASES: Record<UnitSheetField, readonly string[]> = {
   conductor: ['conductor', 'winding conductor', 'winding material', 'material'],
 };
 
-const ALIAS_KEYS: Record<UnitSheetField, string[]> = Object.fromEntries(
-  UNIT_SHEET_FIELDS.map((f) => [f, [...new Set([headerKey(f), ...UNIT_SHEET_ALIASES[f].map(headerKey)])]]),
-) as Record<UnitSheetField, string[]>;
-
-/** Column index per field (-1: not in the file) and the header problems found. */
-export interface UnitColumns {
-  index: Record<UnitSheetField, number>;
-  fields: Record<string, string>;
+/** What a spreadsheet import looks for: its fields, their header aliases, the required ones and their words on screen. */
+export interface SheetSpec<F extends string> {
+  fields: readonly F[];
+  aliases: Record<F, readonly string[]>;
+  required: readonly F[];
+  labels: Record<F, string>;
+  /** The field without which a row is no header. */
+  key: F;
 }
 
+/** Column index per field (-1: not in the file) and the header problems found. */
+export interface SheetColumns<F extends string> {
+  index: Record<F, number>;
+  fields: Record<string, string>;
+}
+export type UnitColumns = SheetColumns<UnitSheetField>;
+
 /**
- * The file's columns for our fields: a field named in `mapping` takes that header (any letter case; '' leaves it empty),
- * the others the best matching header of their aliases. Header problems come back as `mapping.<field>` (a mapped header
- * that is not in the file) and `columns.<field>` (a required field without a column).
+ * The file's columns for a spec's fields: a field named in `mapping` takes that header (any letter case; '' leaves it
+ * empty), the others the best matching header of their aliases. Header problems come back as `mapping.<field>` (a mapped
+ * header that is not in the file) and `columns.<field>` (a required field without a column).
  */
-export function matchUnitColumns(headers: readonly string[], mapping: UnitSheetMapping = {}): UnitColumns {
+export function matchColumns<F extends string>(spec: SheetSpec<F>, headers: readonly string[], mapping: Partial<Record<F, string>> = {}): SheetColumns<F> {
   const keys = headers.map(headerKey);
-  const index = Object.fromEntries(UNIT_SHEET_FIELDS.map((f) => [f, -1])) as Record<UnitSheetField, number>;
+  const index = Object.fromEntries(spec.fields.map((f) => [f, -1])) as Record<F, number>;
   const fields: Record<string, string> = {};
-  const taken = new Map<number, UnitSheetField>();
-  for (const field of UNIT_SHEET_FIELDS) {
+  const taken = new Map<number, F>();
+  for (const field of spec.fields) {
     const wanted = mapping[field];
     if (wanted === undefined) continue;
     if (wanted.trim() === '') continue; // left empty on purpose: no alias either
@@ -79,9 +86,10 @@ export function matchUnitColumns(headers: readonly string[], mapping: UnitSheetM
       taken.set(at, field);
     }
   }
-  for (const field of UNIT_SHEET_FIELDS) {
+  for (const field of spec.fields) {
     if (mapping[field] !== undefined) continue;
-    for (const alias of ALIAS_KEYS[field]) {
+    const aliasKeys = [...new Set([headerKey(field), ...spec.aliases[field].map(headerKey)])];
+    for (const alias of aliasKeys) {
       const at = keys.findIndex((k, i) => k === alias && !taken.has(i));
       if (at >= 0) {
         index[field] = at;
@@ -90,25 +98,39 @@ export function matchUnitColumns(headers: readonly string[], mapping: UnitSheetM
       }
     }
   }
-  for (const field of UNIT_SHEET_REQUIRED) {
+  for (const field of spec.required) {
     if (index[field] < 0 && fields[`mapping.${field}`] === undefined) {
-      fields[`columns.${field}`] = `no column for ${UNIT_SHEET_FIELD_LABELS[field].toLowerCase()}: name one in the mapping`;
+      fields[`columns.${field}`] = `no column for ${spec.labels[field].toLowerCase()}: name one in the mapping`;
     }
   }
   return { index, fields };
 }
 
+export const UNIT_SHEET_SPEC: SheetSpec<UnitSheetField> = {
+  fields: UNIT_SHEET_FIELDS,
+  aliases: UNIT_SHEET_ALIASES,
+  required: UNIT_SHEET_REQUIRED,
+  labels: UNIT_SHEET_FIELD_LABELS,
+  key: 'serial',
+};
+
+/** The unit fields' columns (see matchColumns). */
+export function matchUnitColumns(headers: readonly string[], mapping: UnitSheetMapping = {}): UnitColumns {
+  return matchColumns(UNIT_SHEET_SPEC, headers, mapping);
+}
+
 const HEADER_SEARCH_ROWS = 10;
 
 /** The sheet split at its header row, with the columns matched. */
-export interface LocatedUnitSheet {
+export interface LocatedSheet<F extends string> {
   /** Row number of the header (0 when the sheet is empty). */
   headerRow: number;
   headers: string[];
-  columns: UnitColumns;
+  columns: SheetColumns<F>;
   /** The non-blank rows below the header. */
   dataRows: SheetRow[];
 }
+export type LocatedUnitSheet = LocatedSheet<UnitSheetField>;
 
 const isBlank = (r: SheetRow) => r.cells.every((c) => c.trim() === '');
 
@@ -116,32 +138,44 @@ const isBlank = (r: SheetRow) => r.cells.every((c) => c.trim() === '');
  * Finds the header among the first non-blank rows: the row where most fields find a column (a title row or a row of
  * merged group headings above it is skipped; on a tie the lower row wins, as vertically merged headings repeat there).
  */
-export function locateUnitSheet(rows: readonly SheetRow[], mapping: UnitSheetMapping = {}): LocatedUnitSheet {
+export function locateSheet<F extends string>(spec: SheetSpec<F>, rows: readonly SheetRow[], mapping: Partial<Record<F, string>> = {}): LocatedSheet<F> {
   const filled = rows.filter((r) => !isBlank(r));
   if (filled.length === 0) {
-    return { headerRow: 0, headers: [], columns: { ...matchUnitColumns([], mapping), fields: { file: 'the sheet is empty' } }, dataRows: [] };
+    return { headerRow: 0, headers: [], columns: { ...matchColumns(spec, [], mapping), fields: { file: 'the sheet is empty' } }, dataRows: [] };
   }
   let best = 0;
   let bestScore = -1;
   for (let i = 0; i < Math.min(HEADER_SEARCH_ROWS, filled.length); i += 1) {
-    const { index } = matchUnitColumns(filled[i].cells, mapping);
-    const found = UNIT_SHEET_FIELDS.filter((f) => index[f] >= 0).length;
-    // Without a serial column a row is no header, however many other names it matches.
-    const score = index.serial >= 0 ? found : 0;
+    const { index } = matchColumns(spec, filled[i].cells, mapping);
+    const found = spec.fields.filter((f) => index[f] >= 0).length;
+    // Without the key column a row is no header, however many other names it matches.
+    const score = index[spec.key] >= 0 ? found : 0;
     if (score > 0 && score >= bestScore) {
       best = i;
       bestScore = score;
     }
   }
   const headers = filled[best].cells.map((c) => c.trim());
-  return { headerRow: filled[best].row, headers, columns: matchUnitColumns(headers, mapping), dataRows: filled.slice(best + 1) };
+  return { headerRow: filled[best].row, headers, columns: matchColumns(spec, headers, mapping), dataRows: filled.slice(best + 1) };
+}
+
+/** The unit sheet located (see locateSheet). */
+export function locateUnitSheet(rows: readonly SheetRow[], mapping: UnitSheetMapping = {}): LocatedUnitSheet {
+  return locateSheet(UNIT_SHEET_SPEC, rows, mapping);
 }
 
 /** A row's texts per field ('' where the field has no column). */
+export function sheetRowCells<F extends string>(fields: readonly F[], row: SheetRow, columns: SheetColumns<F>): Record<F, string> {
+  return Object.fromEntries(fields.map((f) => [f, columns.index[f] >= 0 ? (row.cells[columns.index[f]] ?? '').trim() : ''])) as Record<F, string>;
+}
+
 export function rowCells(row: SheetRow, columns: UnitColumns): Record<UnitSheetField, string> {
-  return Object.fromEntries(
-    UNIT_SHEET_FIELDS.map((f) => [f, columns.index[f] >= 0 ? (row.cells[columns.index[f]] ?? '').trim() : '']),
-  ) as Record<UnitSheetField, string>;
+  return sheetRowCells(UNIT_SHEET_FIELDS, row, columns);
+}
+
+/** The header names of the columns in use, per field (null: not in the file). */
+export function sheetColumnHeaders<F extends string>(fields: readonly F[], sheet: LocatedSheet<F>): Record<F, string | null> {
+  return Object.fromEntries(fields.map((f) => [f, sheet.columns.index[f] >= 0 ? (sheet.headers[sheet.columns.index[f]] ?? null) : null])) as Record<F, string | null>;
 }
 
 /**
@@ -282,11 +316,9 @@ export function sheetSerials(sheet: LocatedUnitSheet): string[] {
   return [...new Set(sheet.dataRows.map((r) => (r.cells[at] ?? '').trim()).filter((s) => s !== ''))];
 }
 
-/** The header names of the columns in use, per field (null: not in the file). */
+/** The header names of the unit columns in use (null: not in the file). */
 export function columnHeaders(sheet: LocatedUnitSheet): Record<UnitSheetField, string | null> {
-  return Object.fromEntries(
-    UNIT_SHEET_FIELDS.map((f) => [f, sheet.columns.index[f] >= 0 ? (sheet.headers[sheet.columns.index[f]] ?? null) : null]),
-  ) as Record<UnitSheetField, string | null>;
+  return sheetColumnHeaders(UNIT_SHEET_FIELDS, sheet);
 }
 
 // ---- Export -------------------------------------------------------------------------------------------------------

@@ -1,12 +1,11 @@
 import { z } from 'zod';
+import { READING_SET_SHEET_FIELDS } from '../imports/reading-sets-sheet-fields.js';
 import { UNIT_SHEET_FIELDS, type UnitSheetField } from '../imports/units-sheet-fields.js';
 import { UNIT_READING_SET_KINDS } from './enums.js';
 import { unitListQuerySchema } from './fleet.js';
 
 // Inputs of the fleet spreadsheet routes: GET /api/units/export, POST /api/units/import and POST
 // /api/units/:unitId/reading-sets/import.
-
-type UnitSheetMapping = Partial<Record<UnitSheetField, string>>;
 
 /** GET /api/units/export — the fleet list's filters and sort (no paging) and the file format. */
 export const unitExportQuerySchema = unitListQuerySchema.omit({ page: true, pageSize: true }).extend({
@@ -17,12 +16,13 @@ export const unitExportQuerySchema = unitListQuerySchema.omit({ page: true, page
  * POST /api/units/import — the multipart fields beside `file`: `mapping`, JSON `{ ourField: theirHeader }` ('' leaves a
  * field empty), and `dryRun` (`true`: check and map every row, save nothing).
  */
-export const unitImportFieldsSchema = z.object({
-  mapping: z
+/** A multipart `mapping` field: JSON `{ ourField: theirHeader }` over the given fields. */
+const mappingField = <F extends string>(names: readonly F[], what: string) =>
+  z
     .string()
     .max(4000)
     .optional()
-    .transform((text, ctx): UnitSheetMapping | undefined => {
+    .transform((text, ctx): Partial<Record<F, string>> | undefined => {
       if (text === undefined || text.trim() === '') return undefined;
       let value: unknown;
       try {
@@ -35,20 +35,31 @@ export const unitImportFieldsSchema = z.object({
         ctx.addIssue({ code: 'custom', message: 'a JSON object {"ourField": "their header", …}' });
         return z.NEVER;
       }
-      const out: UnitSheetMapping = {};
+      const out: Partial<Record<F, string>> = {};
       for (const [key, header] of Object.entries(value)) {
-        if (!(UNIT_SHEET_FIELDS as readonly string[]).includes(key)) {
-          ctx.addIssue({ code: 'custom', path: [key], message: `not a unit field (${UNIT_SHEET_FIELDS.join(', ')})` });
+        if (!(names as readonly string[]).includes(key)) {
+          ctx.addIssue({ code: 'custom', path: [key], message: `not a ${what} field (${names.join(', ')})` });
         } else if (typeof header !== 'string' || header.length > 200) {
           ctx.addIssue({ code: 'custom', path: [key], message: 'a header name of at most 200 characters' });
-        } else out[key as UnitSheetField] = header;
+        } else out[key as F] = header;
       }
       return out;
-    }),
-  dryRun: z
-    .enum(['true', 'false'], { message: 'true or false' })
-    .transform((v) => v === 'true')
-    .optional(),
+    });
+
+const dryRunField = z
+  .enum(['true', 'false'], { message: 'true or false' })
+  .transform((v) => v === 'true')
+  .optional();
+
+export const unitImportFieldsSchema = z.object({
+  mapping: mappingField<UnitSheetField>(UNIT_SHEET_FIELDS, 'unit'),
+  dryRun: dryRunField,
+});
+
+/** POST /api/units/reading-sets/import — `mapping` over the reading-sets sheet's fields, and `dryRun`. */
+export const readingSetsImportFieldsSchema = z.object({
+  mapping: mappingField(READING_SET_SHEET_FIELDS, 'reading-sets sheet'),
+  dryRun: dryRunField,
 });
 
 /**

@@ -1,6 +1,7 @@
 import ExcelJS from 'exceljs';
 import { In, type EntityManager } from 'typeorm';
 import type { z } from 'zod';
+import { quoteCell } from '../../../shared/imports/csv.js';
 import { parseReadingsCsv, readingRowsToSet } from '../../../shared/imports/readings-csv.js';
 import { detectSpreadsheet, looksLikeCsvText } from '../../../shared/imports/sniff.js';
 import {
@@ -50,15 +51,15 @@ function cellText(value: CellValue): string {
 }
 
 /** The worksheet of an .xlsx as rows of cell texts; a merged cell reads as its master cell's value. */
-async function workbookRows(bytes: Buffer): Promise<{ sheet: string; rows: SheetRow[] }> {
+async function workbookRows(bytes: Buffer, sheetName: string): Promise<{ sheet: string; rows: SheetRow[] }> {
   const wb = new ExcelJS.Workbook();
   try {
     await wb.xlsx.load(bytes as unknown as ArrayBuffer);
   } catch (err) {
     throw new AppError('invalid_file', 'The workbook cannot be read.', 400, { file: `the workbook cannot be read (${(err as Error).message})` });
   }
-  // A sheet named "Units" if there is one, else the first.
-  const ws = wb.worksheets.find((w) => w.name.trim().toLowerCase() === 'units') ?? wb.worksheets[0];
+  // The sheet of the given name if there is one, else the first.
+  const ws = wb.worksheets.find((w) => w.name.trim().toLowerCase() === sheetName) ?? wb.worksheets[0];
   if (!ws) throw new AppError('invalid_file', 'The workbook has no worksheet.', 400, { file: 'the workbook has no worksheet' });
   const columns = Math.min(ws.columnCount, MAX_COLUMNS);
   const rows: SheetRow[] = [];
@@ -73,15 +74,35 @@ async function workbookRows(bytes: Buffer): Promise<{ sheet: string; rows: Sheet
   return { sheet: ws.name, rows };
 }
 
-/** An upload read as sheet rows: .xlsx or CSV judged by the bytes (415 otherwise; 413 for a workbook that unpacks too large). */
-export async function readUnitsFile(file: { buffer: Buffer }): Promise<{ sheet: string | null; rows: SheetRow[]; fields: Record<string, string> }> {
+/**
+ * An upload read as sheet rows: .xlsx or CSV judged by the bytes (415 otherwise; 413 for a workbook that unpacks too
+ * large). `what` names the import in the 415 message; of a workbook the sheet named `sheetName` is read, else the first.
+ */
+export async function readSheetFile(
+  file: { buffer: Buffer },
+  what = 'A units import',
+  sheetName = 'units',
+): Promise<{ sheet: string | null; rows: SheetRow[]; fields: Record<string, string>; kind: 'xlsx' | 'csv' }> {
   const check = detectSpreadsheet(new Uint8Array(file.buffer), UPLOAD_LIMITS.unitSheetUnpackedBytes);
   if ('error' in check) {
     if (check.tooLarge) throw new AppError('file_too_large', 'The workbook is too large.', 413, { file: check.error });
-    throw unsupportedType(`A units import is an .xlsx workbook or a CSV file: ${check.error}.`);
+    throw unsupportedType(`${what} is an .xlsx workbook or a CSV file: ${check.error}.`);
   }
-  if (check.kind === 'xlsx') return { ...(await workbookRows(file.buffer)), fields: {} };
-  return { sheet: null, ...csvSheetRows(file.buffer.toString('utf8')) };
+  if (check.kind === 'xlsx') return { ...(await workbookRows(file.buffer, sheetName)), fields: {}, kind: 'xlsx' };
+  return { sheet: null, ...csvSheetRows(file.buffer.toString('utf8')), kind: 'csv' };
+}
+
+/** Sheet rows as CSV text, each row on the line of its number (so errors name the sheet's rows). */
+function sheetRowsAsCsv(rows: readonly SheetRow[]): string {
+  const lines: string[] = [];
+  for (const r of rows) {
+    while (lines.length < r.row - 1) lines.push('');
+    // Trailing empty cells are the sheet's width, not columns of the readings.
+    const cells = [...r.cells];
+    while (cells.length > 0 && cells[cells.length - 1].trim() === '') cells.pop();
+    lines.push(cells.map(quoteCell).join(','));
+  }
+  return `${lines.join('\n')}\n`;
 }
 
 async function serialsTaken(m: EntityManager, serials: string[]): Promise<Set<string>> {
@@ -104,7 +125,7 @@ export async function importUnits(
   file: { buffer: Buffer },
   opts: { mapping?: UnitSheetMapping; dryRun?: boolean },
 ): Promise<UnitImportAnswer | UnitImportPreview> {
-  const read = await readUnitsFile(file);
+  const read = await readSheetFile(file);
   const located = locateUnitSheet(read.rows, opts.mapping);
   const sites = await m.getRepository(Site).find({ select: { id: true, name: true } });
   const designs = await m.getRepository(Design).find({ select: { id: true, reference: true } });
@@ -151,9 +172,17 @@ export async function importUnitReadingSet(
   file: { originalname: string; buffer: Buffer },
 ) {
   const ext = extensionOf(file.originalname);
-  if (!['.csv', '.txt'].includes(ext)) throw unsupportedType(`A readings import must be a .csv file, not "${ext || 'no extension'}".`);
-  if (!looksLikeCsvText(new Uint8Array(file.buffer))) throw unsupportedType('The file is not comma-separated text.');
-  const parsed = parseReadingsCsv(file.buffer.toString('utf8'));
+  let text: string;
+  if (ext === '.xlsx') {
+    // A workbook: its first sheet's rows, each on its own line, read as the readings CSV.
+    const read = await readSheetFile(file, 'A readings import', 'readings');
+    text = sheetRowsAsCsv(read.rows);
+  } else {
+    if (!['.csv', '.txt'].includes(ext)) throw unsupportedType(`A readings import must be a .csv or .xlsx file, not "${ext || 'no extension'}".`);
+    if (!looksLikeCsvText(new Uint8Array(file.buffer))) throw unsupportedType('The file is not comma-separated text.');
+    text = file.buffer.toString('utf8');
+  }
+  const parsed = parseReadingsCsv(text);
   if (!parsed.ok) throw new AppError('invalid_file', 'The file has errors; nothing was imported.', 400, parsed.fields);
   const body = parseOr400(readingSetBodySchema, { ...readingRowsToSet(parsed.rows), ...fields });
   return addUnitReadingSet(m, clock, userId, unitId, body);

@@ -1,7 +1,8 @@
 import { fileReply, Reply, route, type RouteDef } from '../../route-def.js';
 import { UPLOAD_LIMITS } from '../../common/upload.js';
 import { unitParams } from '../../common/params.js';
-import { unitExportQuerySchema, unitImportFieldsSchema, unitReadingSetImportFieldsSchema } from '../../../shared/schemas/units-io.js';
+import { readingSetsImportFieldsSchema, unitExportQuerySchema, unitImportFieldsSchema, unitReadingSetImportFieldsSchema } from '../../../shared/schemas/units-io.js';
+import { importReadingSets } from './reading-sets-import.service.js';
 import { exportUnits } from './units-export.service.js';
 import { importUnitReadingSet, importUnits } from './units-import.service.js';
 
@@ -35,7 +36,21 @@ export const unitIoRoutes: RouteDef[] = [
       return 'dryRun' in answer ? new Reply({ status: 200, json: answer }) : answer;
     },
   }),
-  // POST /api/units/:unitId/reading-sets/import — a factory, commissioning or routine set from a readings CSV (not an
+  // POST /api/units/reading-sets/import — reading sets of many units from an .xlsx or CSV file (one reading a row,
+  // one set per serial, kind and takenAt): all or none; dryRun=true checks only (not an api.md row)
+  route({
+    method: 'post',
+    path: '/units/reading-sets/import',
+    access: ['tester', 'admin'],
+    upload: UPLOAD_LIMITS.unitSheetBytes,
+    body: readingSetsImportFieldsSchema,
+    status: 201,
+    handler: async ({ m, clock, user, body, file }) => {
+      const answer = await importReadingSets(m, clock, user.id, file, { mapping: body.mapping, dryRun: body.dryRun });
+      return 'dryRun' in answer ? new Reply({ status: 200, json: answer }) : answer;
+    },
+  }),
+  // POST /api/units/:unitId/reading-sets/import — a factory, commissioning or routine set from a readings CSV or .xlsx (not an
   // api.md row: the readings CSV of the session import, on the unit file)
   route({
     method: 'post',

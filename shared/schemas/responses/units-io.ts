@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { READING_SET_SHEET_FIELDS } from '../../imports/reading-sets-sheet-fields.js';
 import { UNIT_SHEET_FIELDS } from '../../imports/units-sheet-fields.js';
 import { unitViewSchema } from './fleet.js';
 
@@ -33,3 +34,43 @@ export const unitImportPreviewSchema = z.strictObject({
   fields: z.record(z.string(), z.string()),
 });
 export type UnitImportPreview = z.infer<typeof unitImportPreviewSchema>;
+
+/** POST /api/units/reading-sets/import — the sets created, each with its unit and how many rows it took. */
+export const readingSetsImportAnswerSchema = z.strictObject({
+  imported: z.number().int().nonnegative(),
+  sets: z.array(
+    z.strictObject({
+      id: z.number().int().positive(),
+      unitId: z.number().int().positive(),
+      serial: z.string(),
+      kind: z.string(),
+      takenAt: z.string(),
+      rows: z.number().int().positive(),
+    }),
+  ),
+});
+export type ReadingSetsImportAnswer = z.infer<typeof readingSetsImportAnswerSchema>;
+
+/** POST /api/units/reading-sets/import with dryRun=true — the sets found per unit and every problem; nothing saved. */
+export const readingSetsImportPreviewSchema = z.strictObject({
+  dryRun: z.literal(true),
+  imported: z.literal(0),
+  sheet: z.string().nullable(),
+  headerRow: z.number().int().nonnegative(),
+  headers: z.array(z.string()),
+  columns: z.strictObject(Object.fromEntries(READING_SET_SHEET_FIELDS.map((f) => [f, z.string().nullable()])) as Record<(typeof READING_SET_SHEET_FIELDS)[number], z.ZodNullable<z.ZodString>>),
+  /** Reading rows in the file. */
+  total: z.number().int().nonnegative(),
+  sets: z.array(
+    z.strictObject({
+      serial: z.string(),
+      kind: z.string(),
+      takenAt: z.string(),
+      rows: z.number().int().nonnegative(),
+      firstRow: z.number().int().nonnegative(),
+      ok: z.boolean(),
+    }),
+  ),
+  fields: z.record(z.string(), z.string()),
+});
+export type ReadingSetsImportPreview = z.infer<typeof readingSetsImportPreviewSchema>;

@@ -1,0 +1,74 @@
+import { In, type EntityManager } from 'typeorm';
+import {
+  locateReadingSetSheet,
+  readingSheetSerials,
+  readReadingSetRows,
+  READING_SET_SHEET_FIELDS,
+  type ReadingSetSheetMapping,
+} from '../../../shared/imports/reading-sets-sheet.js';
+import { refKey, sheetColumnHeaders } from '../../../shared/imports/units-sheet.js';
+import type { ReadingSetsImportAnswer, ReadingSetsImportPreview } from '../../../shared/schemas/responses/units-io.js';
+import { AppError, badRequest } from '../../common/app-error.js';
+import type { Clock } from '../../common/clock.js';
+import { Unit } from './unit.entity.js';
+import { readSheetFile } from './units-import.service.js';
+import { addUnitReadingSet } from './units.service.js';
+
+// Reading sets of many units from one .xlsx or CSV file (one reading a row): every row checked before anything is
+// saved, then each set created by the same service as POST /api/units/:unitId/reading-sets (each audited), all in the
+// request's transaction.
+
+/** Units by serial (lower-case key) for the serials a file names. */
+async function unitsBySerial(m: EntityManager, serials: string[]): Promise<Map<string, number>> {
+  const found = new Map<string, number>();
+  for (let i = 0; i < serials.length; i += 1000) {
+    const units = await m.getRepository(Unit).find({ select: { id: true, serial: true }, where: { serial: In(serials.slice(i, i + 1000)) } });
+    for (const u of units) found.set(refKey(u.serial), u.id);
+  }
+  return found;
+}
+
+/**
+ * POST /api/units/reading-sets/import: rows grouped into one set per (serial, kind, takenAt); every problem listed
+ * (400, nothing saved); with `dryRun` the sets found per unit and the problems are answered and nothing is saved.
+ */
+export async function importReadingSets(
+  m: EntityManager,
+  clock: Clock,
+  userId: number,
+  file: { buffer: Buffer },
+  opts: { mapping?: ReadingSetSheetMapping; dryRun?: boolean },
+): Promise<ReadingSetsImportAnswer | ReadingSetsImportPreview> {
+  const read = await readSheetFile(file, 'A reading-sets import', 'readings');
+  const located = locateReadingSetSheet(read.rows, opts.mapping);
+  const result = readReadingSetRows(located, await unitsBySerial(m, readingSheetSerials(located)));
+  const fields = { ...read.fields, ...result.fields };
+  if (opts.dryRun) {
+    return {
+      dryRun: true,
+      imported: 0,
+      sheet: read.sheet,
+      headerRow: located.headerRow,
+      headers: located.headers,
+      columns: sheetColumnHeaders(READING_SET_SHEET_FIELDS, located),
+      total: result.total,
+      sets: result.sets.map((s) => ({
+        serial: s.serial,
+        kind: s.kind,
+        takenAt: s.takenAt,
+        rows: s.rows.length,
+        firstRow: s.rows[0] ?? 0,
+        ok: s.body !== null && s.rows.every((r) => !Object.keys(fields).some((k) => k === `row ${r}` || k.startsWith(`row ${r}.`))),
+      })),
+      fields,
+    } satisfies ReadingSetsImportPreview;
+  }
+  if (Object.keys(fields).length > 0) throw new AppError('invalid_file', 'The file has errors; nothing was imported.', 400, fields);
+  const sets: ReadingSetsImportAnswer['sets'] = [];
+  for (const s of result.sets) {
+    if (s.body === null || s.unitId === null) throw badRequest('A set was not read.', { [`row ${s.rows[0]}`]: 'not read' });
+    const created = await addUnitReadingSet(m, clock, userId, s.unitId, s.body);
+    sets.push({ id: created.id, unitId: s.unitId, serial: s.serial, kind: s.body.kind, takenAt: s.takenAt, rows: s.rows.length });
+  }
+  return { imported: sets.length, sets } satisfies ReadingSetsImportAnswer;
+}
