@@ -1,17 +1,18 @@
 // People (administration, admin only) — GET/POST/PATCH /api/users, reset-password, unlock.
 import type { z } from 'zod';
-import type { userCreateBodySchema, userPatchSchema } from '../../shared/schemas/auth';
-import type { PersonView, PersonWithPassword } from '../../shared/schemas/responses';
+import type { userCreateBodySchema, userListQuerySchema, userPatchSchema } from '../../shared/schemas/auth';
+import type { PersonPage, PersonView, PersonWithPassword } from '../../shared/schemas/responses';
 import { api } from './client';
 
 // The answers' types live in shared/schemas/responses.
-export type { PersonView, PersonWithPassword };
+export type { PersonPage, PersonView, PersonWithPassword };
+export type PersonListQuery = Omit<z.input<typeof userListQuerySchema>, 'page' | 'pageSize'> & { page?: number; pageSize?: number };
 export type PersonCreateBody = z.input<typeof userCreateBodySchema>;
 export type PersonPatch = z.input<typeof userPatchSchema>;
 
-// GET /api/users — everyone who can sign in, by name, with any sign-in lock still running.
-export function listPeople(signal?: AbortSignal): Promise<PersonView[]> {
-  return api.get<PersonView[]>('/users', { signal });
+// GET /api/users — one page of people by name (search by name or e-mail, role, active), with any sign-in lock running.
+export function listPeople(query: PersonListQuery = {}, signal?: AbortSignal): Promise<PersonPage> {
+  return api.get<PersonPage>('/users', { query, signal });
 }
 
 // POST /api/users — a new person; the answer carries their one-time password, this once.

@@ -66,7 +66,7 @@ export const healthy: HealthStatus = { status: 'ok', db: 'ok', demo: false, mail
 export const healthyDemo: HealthStatus = { status: 'ok', db: 'ok', demo: true, mailSink: true };
 
 export function makeUser(overrides: Partial<SessionUser> = {}): SessionUser {
-  return { id: 7, email: 'r.okafor@kestrel-valley.example', name: 'Ruth Okafor', roles: ['tester'], siteIds: [], allSites: true, active: true, demo: false, lastSignInAt: null, ...overrides };
+  return { id: 7, email: 'r.okafor@kestrel-valley.example', name: 'Ruth Okafor', roles: ['tester'], siteIds: [], allSites: true, active: true, demo: false, mustChangePassword: false, lastSignInAt: null, ...overrides };
 }
 
 export function storeToken(token: string | null): void {

@@ -18,6 +18,7 @@ const person = (over: Partial<PersonView> = {}): PersonView => ({
   allSites: false,
   active: true,
   demo: false,
+  mustChangePassword: false,
   lastSignInAt: null,
   lockedUntil: null,
   ...over,
@@ -28,11 +29,14 @@ function signedInAs(roles: Role[], script: Record<string, ScriptedResponse | ((r
   return scriptFetch({
     'GET /api/auth/me': { body: makeUser({ id: 1, roles, name: 'Ada Admin' }) },
     'GET /api/health': { body: healthy },
-    'GET /api/users': { body: [person()] },
+    'GET /api/users': { body: pageOf([person()]) },
     'GET /api/sites': { body: [{ id: 2, name: 'Harrow Cross', timeZone: 'Europe/London' }] },
     ...script,
   });
 }
+
+const pageOf = (items: PersonView[], total = items.length) => ({ items, total, page: 1, pageSize: 25 });
+const isList = (r: RecordedRequest) => r.method === 'GET' && r.url.split('?')[0] === '/api/users';
 
 const inDialog = (selector: string) => document.body.querySelector(selector);
 
@@ -49,7 +53,7 @@ describe('AdminPeoplePage (/admin/people)', () => {
   afterEach(resetClientState);
 
   it('lists people with roles, sites and state', async () => {
-    signedInAs(['admin'], { 'GET /api/users': { body: [person(), person({ id: 22, name: 'Bo Lane', email: 'b@x.example', roles: ['manager', 'admin'], allSites: true, siteIds: [], lockedUntil: '2026-07-01T10:00:00.000Z' }), person({ id: 23, name: 'Cy Old', email: 'c@x.example', active: false })] } });
+    signedInAs(['admin'], { 'GET /api/users': { body: pageOf([person(), person({ id: 22, name: 'Bo Lane', email: 'b@x.example', roles: ['manager', 'admin'], allSites: true, siteIds: [], lockedUntil: '2026-07-01T10:00:00.000Z' }), person({ id: 23, name: 'Cy Old', email: 'c@x.example', active: false })]) } });
     const { wrapper } = await mountApp('/admin/people');
 
     expect(rowText(wrapper, 21)).toContain('Test engineer');
@@ -88,7 +92,7 @@ describe('AdminPeoplePage (/admin/people)', () => {
     await vi.waitFor(() => expect(inDialog('[data-test="otp-dialog"]')).toBeNull(), { timeout: 5000 });
     expect(document.body.innerHTML).not.toContain(ONE_TIME);
     // The list is loaded again after the creation, and lists no password.
-    expect(requests.filter((r) => r.method === 'GET' && r.url === '/api/users').length).toBe(2);
+    expect(requests.filter(isList).length).toBe(2);
   });
 
   it('shows the server’s field error on the e-mail field and no password when the e-mail is taken', async () => {
@@ -142,7 +146,7 @@ describe('AdminPeoplePage (/admin/people)', () => {
     const me = person({ id: 1, name: 'Ada Admin', email: 'ada@x.example', roles: ['admin'] });
     const locked = person({ id: 24, name: 'Lee Locked', email: 'l@x.example', lockedUntil: '2026-07-01T10:00:00.000Z' });
     const { requests } = signedInAs(['admin'], {
-      'GET /api/users': { body: [me, person(), locked] },
+      'GET /api/users': { body: pageOf([me, person(), locked]) },
       'PATCH /api/users/21': { body: person({ active: false }) },
       'POST /api/users/24/unlock': { body: { ...locked, lockedUntil: null } },
     });
@@ -172,5 +176,27 @@ describe('AdminPeoplePage (/admin/people)', () => {
     const { wrapper } = await mountApp('/admin/people');
 
     expect(wrapper.get('[data-test="nav-admin"]').text()).toContain('Administration');
+  });
+
+  it('asks the server for one page, pages on, and a search by name or e-mail starts again at page 1', async () => {
+    const { requests } = signedInAs(['admin'], {
+      'GET /api/users': (r) => ({ body: r.url.includes('q=moss') ? pageOf([person()]) : pageOf([person(), person({ id: 22, name: 'Bo Lane', email: 'b@x.example' })], 60) }),
+    });
+    const { wrapper } = await mountApp('/admin/people');
+    const first = new URL(requests.filter(isList)[0].url, 'http://x');
+    expect(first.searchParams.get('page')).toBe('1');
+    expect(first.searchParams.get('pageSize')).toBe('25');
+    expect(wrapper.get('[data-test="page-of"]').text()).toBe('page 1 of 3');
+
+    await wrapper.get('[data-test="next-page"]').trigger('click');
+    await vi.waitFor(() => expect(new URL(requests.filter(isList).at(-1)!.url, 'http://x').searchParams.get('page')).toBe('2'), { timeout: 5000 });
+
+    await wrapper.get('input[data-test="people-search"]').setValue('moss');
+    await vi.waitFor(() => expect(requests.filter(isList).at(-1)!.url).toContain('q=moss'), { timeout: 5000 });
+    const searched = new URL(requests.filter(isList).at(-1)!.url, 'http://x');
+    expect(searched.searchParams.get('page')).toBe('1');
+    await settle();
+    expect(wrapper.find('[data-test="person-row-22"]').exists()).toBe(false);
+    expect(wrapper.find('[data-test="person-row-21"]').exists()).toBe(true);
   });
 });
