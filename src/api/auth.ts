@@ -1,6 +1,7 @@
 // Sign-in, the current user and the server's health — the API calls the shell needs before anything else.
 // The answers' types live in shared/schemas/responses (the server's views are checked against the same schemas).
 import type { HealthAnswer, LoginAnswer, SessionUser } from '../../shared/schemas/responses';
+import type { PasswordChange } from '../../shared/schemas/auth';
 import { api } from './client';
 
 export type { Role } from '../../shared/schemas/enums';
@@ -16,6 +17,11 @@ export function login(email: string, password: string): Promise<LoginAnswer> {
 // GET /api/auth/me — the user the stored token belongs to.
 export function me(): Promise<SessionUser> {
   return api.get<SessionUser>('/auth/me');
+}
+
+// POST /api/auth/password — replace one's own password (a one-time password first of all); answers the user.
+export function changePassword(body: PasswordChange): Promise<SessionUser> {
+  return api.post<SessionUser>('/auth/password', body);
 }
 
 // GET /api/health — is the server up, is the demo data loaded, does the mail sink run (no sign-in needed).

@@ -44,6 +44,10 @@ export function createAppRouter(options: AppRouterOptions = {}): Router {
       return true;
     }
     if (!session.isSignedIn) return signInLocation(to);
+    // A one-time password allows nothing but choosing a new one.
+    if (session.mustChangePassword && to.name !== 'password') {
+      return { name: 'password', query: to.name === 'desk' ? {} : { redirect: to.fullPath } };
+    }
     // `to.meta` merges parent and child meta, so roles set on a parent route also guard its children.
     const required = to.meta.roles;
     if (required?.length && !session.hasRole(...required)) {

@@ -112,4 +112,12 @@ export const routes: RouteRecordRaw[] = [
       },
     ],
   },
+  // Outside the shell: the shell's own requests are refused until the password is chosen.
+  {
+    // Choosing a new password: forced after signing in with a one-time password, open to everyone signed in.
+    path: '/password',
+    name: 'password',
+    component: () => import('../pages/PasswordPage.vue'),
+    meta: { title: 'Choose your password' },
+  },
 ];

@@ -4,7 +4,8 @@ import { computed, ref } from 'vue';
 import { ApiError, readStoredToken, writeStoredToken } from '../api/client';
 import type { Role } from '../../shared/schemas/enums';
 import type { SessionUser } from '../../shared/schemas/responses';
-import { login, me } from '../api/auth';
+import type { PasswordChange } from '../../shared/schemas/auth';
+import { changePassword as postPassword, login, me } from '../api/auth';
 
 export const useSessionStore = defineStore('session', () => {
   const token = ref<string | null>(readStoredToken());
@@ -30,6 +31,16 @@ export const useSessionStore = defineStore('session', () => {
     restoreError.value = null;
     restoring = null;
     return answer.user;
+  }
+
+  /** Signed in with a one-time password: a new one must be chosen before any other page. */
+  const mustChangePassword = computed(() => user.value?.mustChangePassword === true);
+
+  // Replace one's own password; the answer is the user with the duty cleared. A refusal is thrown as ApiError.
+  async function changePassword(body: PasswordChange): Promise<SessionUser> {
+    const updated = await postPassword(body);
+    user.value = updated;
+    return updated;
   }
 
   // Forget the token and the user (the server keeps no session: a JWT simply stops being sent).
@@ -61,5 +72,5 @@ export const useSessionStore = defineStore('session', () => {
     return restoring;
   }
 
-  return { token, user, restoreError, isSignedIn, hasRole, signIn, signOut, restore };
+  return { token, user, restoreError, isSignedIn, mustChangePassword, hasRole, signIn, signOut, restore, changePassword };
 });
