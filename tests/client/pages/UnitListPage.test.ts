@@ -159,6 +159,28 @@ describe('UnitListPage (/units)', () => {
     expect(admin.wrapper.find('[data-test="import-units"]').exists()).toBe(true);
   });
 
+  it('offers the reading-sets import to a tester and an admin, not to an engineer', async () => {
+    signedInWithFleet(() => ({ items: [unitItem()], total: 1 }));
+    const engineer = await mountApp('/units');
+    expect(engineer.wrapper.find('[data-test="import-reading-sets"]').exists()).toBe(false);
+    engineer.wrapper.unmount();
+
+    for (const role of ['tester', 'admin'] as const) {
+      storeToken('valid');
+      scriptFetch({
+        'GET /api/auth/me': { body: makeUser({ roles: [role] }) },
+        'GET /api/health': { body: healthy },
+        'GET /api/sites': { body: sites },
+        'GET /api/designs': { body: designs },
+        'GET /api/units': { body: { items: [unitItem()], total: 1 } },
+      });
+      const page = await mountApp('/units');
+      expect(page.wrapper.find('[data-test="import-reading-sets"]').exists()).toBe(true);
+      expect(page.wrapper.find('[data-test="import-units"]').exists()).toBe(role === 'admin');
+      page.wrapper.unmount();
+    }
+  });
+
   it('shows the cautions under the table, where recommendations appear', async () => {
     signedInWithFleet(() => ({ items: [unitItem()], total: 1 }));
     const { wrapper } = await mountApp('/units');
