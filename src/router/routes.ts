@@ -97,6 +97,13 @@ export const routes: RouteRecordRaw[] = [
         meta: { title: 'Outbox', roles: ['admin', 'manager'], nav: { label: 'Outbox', icon: 'outbox', requiresMailSink: true } },
       },
       {
+        // Choosing a new password: forced after signing in with a one-time password, open to everyone signed in.
+        path: 'password',
+        name: 'password',
+        component: () => import('../pages/PasswordPage.vue'),
+        meta: { title: 'Choose your password' },
+      },
+      {
         path: 'forbidden',
         name: 'forbidden',
         component: () => import('../pages/ForbiddenPage.vue'),
@@ -111,13 +118,5 @@ export const routes: RouteRecordRaw[] = [
         meta: { title: 'Not found' },
       },
     ],
-  },
-  // Outside the shell: the shell's own requests are refused until the password is chosen.
-  {
-    // Choosing a new password: forced after signing in with a one-time password, open to everyone signed in.
-    path: '/password',
-    name: 'password',
-    component: () => import('../pages/PasswordPage.vue'),
-    meta: { title: 'Choose your password' },
   },
 ];
