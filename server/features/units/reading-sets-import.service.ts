@@ -18,6 +18,9 @@ import { addUnitReadingSet } from './units.service.js';
 // saved, then each set created by the same service as POST /api/units/:unitId/reading-sets (each audited), all in the
 // request's transaction.
 
+/** Sets listed in a dry run's preview. */
+const PREVIEW_SETS = 200;
+
 /** Units by serial (lower-case key) for the serials a file names. */
 async function unitsBySerial(m: EntityManager, serials: string[]): Promise<Map<string, number>> {
   const found = new Map<string, number>();
@@ -52,13 +55,14 @@ export async function importReadingSets(
       headers: located.headers,
       columns: sheetColumnHeaders(READING_SET_SHEET_FIELDS, located),
       total: result.total,
-      sets: result.sets.map((s) => ({
+      setCount: result.sets.length,
+      sets: result.sets.slice(0, PREVIEW_SETS).map((s) => ({
         serial: s.serial,
         kind: s.kind,
         takenAt: s.takenAt,
         rows: s.rows.length,
         firstRow: s.rows[0] ?? 0,
-        ok: s.body !== null && s.rows.every((r) => !Object.keys(fields).some((k) => k === `row ${r}` || k.startsWith(`row ${r}.`))),
+        ok: s.body !== null,
       })),
       fields,
     } satisfies ReadingSetsImportPreview;

@@ -61,6 +61,8 @@ export const readingSetsImportPreviewSchema = z.strictObject({
   columns: z.strictObject(Object.fromEntries(READING_SET_SHEET_FIELDS.map((f) => [f, z.string().nullable()])) as Record<(typeof READING_SET_SHEET_FIELDS)[number], z.ZodNullable<z.ZodString>>),
   /** Reading rows in the file. */
   total: z.number().int().nonnegative(),
+  /** Reading sets the rows make, and the first of them (at most 200). */
+  setCount: z.number().int().nonnegative(),
   sets: z.array(
     z.strictObject({
       serial: z.string(),

@@ -20,6 +20,7 @@ function preview(over: Partial<ReadingSetsImportPreview>): ReadingSetsImportPrev
     headers: ['Serial', 'Kind', 'Taken at', 'Quantity', 'Configuration', 'Phase', 'Value', 'Unit'],
     columns: { ...noColumns, serial: 'Serial', kind: 'Kind', takenAt: 'Taken at', quantity: 'Quantity', configuration: 'Configuration', phase: 'Phase', value: 'Value', unit: 'Unit' },
     total: 3,
+    setCount: 2,
     sets: [
       { serial: 'T-1', kind: 'factory', takenAt: '2011-03-14', rows: 2, firstRow: 2, ok: true },
       { serial: 'T-2', kind: 'routine', takenAt: '2020-06-01', rows: 1, firstRow: 4, ok: false },
@@ -72,7 +73,7 @@ describe('ReadingSetsImportDialog', () => {
     const { requests } = scriptFetch({
       'POST /api/units/reading-sets/import': (r) =>
         (r.body as FormData).get('dryRun') === 'true'
-          ? { body: preview({ sets: [preview({}).sets[0]], fields: {} }) }
+          ? { body: preview({ setCount: 1, sets: [preview({}).sets[0]], fields: {} }) }
           : { status: 201, body: answer },
     });
     const wrapper = render();

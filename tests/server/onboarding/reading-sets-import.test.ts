@@ -125,6 +125,7 @@ describe('POST /api/units/reading-sets/import', () => {
     expect(preview.sheet).toBe('Readings');
     expect(preview.headerRow).toBe(2);
     expect(preview.columns.takenAt).toBe('Taken at');
+    expect(preview.setCount).toBe(2);
     expect(preview.sets.map((s) => [s.serial, s.kind, s.rows, s.ok])).toEqual([
       [u.serial, 'factory', 1, true],
       [u.serial, 'routine', 1, false],
