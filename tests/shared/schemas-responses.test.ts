@@ -96,7 +96,7 @@ describe('answers of the event routes', () => {
   it('rejects an event file without its e-mail log or with a notification in an unknown state', () => {
     const { notifications: _, ...withoutLog } = eventDetail();
     expect(eventDetailSchema.safeParse(withoutLog).error?.issues[0].path).toEqual(['notifications']);
-    const mail = { id: 1, screeningId: 61, to: 'ops@kestrel-valley.example', subject: 'KVP-HX-T2: CONDITIONAL', status: 'bounced', attempts: 1, lastError: null, sentAt: null, createdAt: '2026-07-03T09:00:00.000Z' };
+    const mail = { id: 1, screeningId: 61, kind: 'screening', to: 'ops@kestrel-valley.example', subject: 'KVP-HX-T2: CONDITIONAL', status: 'bounced', attempts: 1, lastError: null, sentAt: null, createdAt: '2026-07-03T09:00:00.000Z' };
     expect(eventDetailSchema.safeParse(eventDetail({ notifications: [mail as never] })).error?.issues[0].path).toEqual(['notifications', 0, 'status']);
   });
 
@@ -122,8 +122,11 @@ describe('answers of the sign-in, health and outbox routes', () => {
     expect(healthAnswerSchema.safeParse({ status: 'ok', db: 'ok', demo: true, mailSink: true }).success).toBe(true);
     expect(healthAnswerSchema.safeParse({ status: 'degraded', db: 'down', demo: false, mailSink: false }).success).toBe(true);
     expect(healthAnswerSchema.safeParse({ status: 'fine', db: 'ok', demo: false, mailSink: false }).success).toBe(false);
-    const message = { to: 'ops@kestrel-valley.example', subject: 'KVP-HX-T2: CONDITIONAL', text: 'Screening…', receivedAt: '2026-07-03T09:01:00.000Z', attachments: [{ filename: 'report.pdf', contentType: 'application/pdf', size: 48213 }] };
+    const message = { id: 4, to: 'ops@kestrel-valley.example', subject: 'KVP-HX-T2: CONDITIONAL', text: 'Screening…', receivedAt: '2026-07-03T09:01:00.000Z', attachments: [{ filename: 'report.pdf', contentType: 'application/pdf', size: 48213 }] };
     expect(outboxMessageSchema.safeParse(message).success).toBe(true);
+    // Without its id an attachment cannot be opened from the outbox.
+    const { id: _id, ...withoutId } = message;
+    expect(outboxMessageSchema.safeParse(withoutId).error?.issues[0].path).toEqual(['id']);
   });
 });
 
