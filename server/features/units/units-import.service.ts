@@ -36,13 +36,16 @@ const PREVIEW_ROWS = 50;
 
 type CellValue = ExcelJS.CellValue;
 
-/** A cell's value as the text a person sees in it (a formula's result, rich text joined, a date as YYYY-MM-DD). */
+/**
+ * A cell's value as the text a person sees in it (a formula's result, rich text joined, a date as YYYY-MM-DD). A date
+ * cell with a time of day keeps it (YYYY-MM-DDTHH:MM:SS.sssZ): a workbook has no time zone, so its clock reads as UTC.
+ */
 function cellText(value: CellValue): string {
   if (value === null || value === undefined) return '';
   if (typeof value === 'string') return value;
   if (typeof value === 'number') return String(value);
   if (typeof value === 'boolean') return value ? 'true' : 'false';
-  if (value instanceof Date) return value.toISOString().slice(0, 10);
+  if (value instanceof Date) return value.getTime() % 86_400_000 === 0 ? value.toISOString().slice(0, 10) : value.toISOString();
   if ('richText' in value) return value.richText.map((t) => t.text).join('');
   if ('formula' in value || 'sharedFormula' in value) return cellText((value.result ?? null) as CellValue);
   if ('hyperlink' in value) return typeof value.text === 'string' ? value.text : cellText(value.text as CellValue);

@@ -75,6 +75,18 @@ describe('POST /api/units/reading-sets/import', () => {
     }
   });
 
+  it('keeps the time of day of a date cell: two routine sets of one day stay two sets', async () => {
+    const u = await makeUnit(opened.env.db);
+    const file = await workbook([
+      [u.serial, 'routine', new Date('2021-05-04T09:30:00Z') as never, 'capacitance', 'CH', null, 4520, 'pF', null, null],
+      [u.serial, 'routine', new Date('2021-05-04T14:00:00Z') as never, 'capacitance', 'CH', null, 4522, 'pF', null, null],
+    ]);
+    const res = await post(file, 'same-day.xlsx');
+    expect(res.status).toBe(201);
+    const sets = await setsOf(u.id);
+    expect(sets.map((s) => s.takenAt.toISOString())).toEqual(['2021-05-04T09:30:00.000Z', '2021-05-04T14:00:00.000Z']);
+  });
+
   it('answers 400 listing every bad row (decimal comma, unknown serial) and writes nothing', async () => {
     const u = await makeUnit(opened.env.db);
     const file = await workbook([
