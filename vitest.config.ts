@@ -20,7 +20,7 @@ export default defineConfig({
       {
         plugins: [vue({ template: { transformAssetUrls } }), quasar()],
         // Mounting a page cold (transform + Quasar) can take seconds on a loaded 2-core machine: generous limits.
-        test: { name: 'client', environment: 'happy-dom', include: ['tests/client/**/*.test.ts'], testTimeout: 30000, hookTimeout: 60000 },
+        test: { name: 'client', environment: 'happy-dom', include: ['tests/client/**/*.test.ts'], setupFiles: ['tests/client/setup.ts'], testTimeout: 30000, hookTimeout: 60000 },
       },
       {
         test: {
