@@ -133,3 +133,19 @@ export async function typeInDocument(testId: string, value: string): Promise<voi
   input.dispatchEvent(new Event('input'));
   await settle();
 }
+
+/** An element of a dialog (teleported to the body) by its data-test name, or all of them. */
+export const inBody = (testId: string) => document.body.querySelector(`[data-test="${testId}"]`) as HTMLElement | null;
+export const allInBody = (testId: string) => [...document.body.querySelectorAll(`[data-test="${testId}"]`)] as HTMLElement[];
+
+/** Picks a file in the (only) file input on the page, as the browser's file chooser would. */
+export async function pickFileInBody(file: File): Promise<void> {
+  await settle();
+  const input = document.body.querySelector('input[type="file"]') as HTMLInputElement;
+  Object.defineProperty(input, 'files', { value: [file], configurable: true, writable: true });
+  input.dispatchEvent(new Event('change'));
+  await settle();
+}
+
+/** The non-file fields of a recorded multipart request. */
+export const formFieldsOf = (r: RecordedRequest) => Object.fromEntries([...(r.body as FormData).entries()].filter(([k]) => k !== 'file'));

@@ -1,4 +1,4 @@
-import { In, type EntityManager } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import {
   locateReadingSetSheet,
   readingSheetSerials,
@@ -6,12 +6,11 @@ import {
   READING_SET_SHEET_FIELDS,
   type ReadingSetSheetMapping,
 } from '../../../shared/imports/reading-sets-sheet.js';
-import { refKey, sheetColumnHeaders } from '../../../shared/imports/units-sheet.js';
+import { sheetColumnHeaders } from '../../../shared/imports/units-sheet.js';
 import type { ReadingSetsImportAnswer, ReadingSetsImportPreview } from '../../../shared/schemas/responses/units-io.js';
 import { AppError, badRequest } from '../../common/app-error.js';
 import type { Clock } from '../../common/clock.js';
-import { Unit } from './unit.entity.js';
-import { readSheetFile } from './units-import.service.js';
+import { readSheetFile, unitIdsBySerial } from './units-import.service.js';
 import { addUnitReadingSet } from './units.service.js';
 
 // Reading sets of many units from one .xlsx or CSV file (one reading a row): every row checked before anything is
@@ -22,14 +21,6 @@ import { addUnitReadingSet } from './units.service.js';
 const PREVIEW_SETS = 200;
 
 /** Units by serial (lower-case key) for the serials a file names. */
-async function unitsBySerial(m: EntityManager, serials: string[]): Promise<Map<string, number>> {
-  const found = new Map<string, number>();
-  for (let i = 0; i < serials.length; i += 1000) {
-    const units = await m.getRepository(Unit).find({ select: { id: true, serial: true }, where: { serial: In(serials.slice(i, i + 1000)) } });
-    for (const u of units) found.set(refKey(u.serial), u.id);
-  }
-  return found;
-}
 
 /**
  * POST /api/units/reading-sets/import: rows grouped into one set per (serial, kind, takenAt); every problem listed
@@ -44,7 +35,7 @@ export async function importReadingSets(
 ): Promise<ReadingSetsImportAnswer | ReadingSetsImportPreview> {
   const read = await readSheetFile(file, 'A reading-sets import', 'readings');
   const located = locateReadingSetSheet(read.rows, opts.mapping);
-  const result = readReadingSetRows(located, await unitsBySerial(m, readingSheetSerials(located)));
+  const result = readReadingSetRows(located, await unitIdsBySerial(m, readingSheetSerials(located)));
   const fields = { ...read.fields, ...result.fields };
   if (opts.dryRun) {
     return {

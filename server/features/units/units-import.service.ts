@@ -108,13 +108,18 @@ function sheetRowsAsCsv(rows: readonly SheetRow[]): string {
   return `${lines.join('\n')}\n`;
 }
 
-async function serialsTaken(m: EntityManager, serials: string[]): Promise<Set<string>> {
-  const taken = new Set<string>();
+/** The ids of the units with these serials, keyed by refKey(serial); looked up 1 000 serials a query. */
+export async function unitIdsBySerial(m: EntityManager, serials: string[]): Promise<Map<string, number>> {
+  const found = new Map<string, number>();
   for (let i = 0; i < serials.length; i += 1000) {
-    const found = await m.getRepository(Unit).find({ select: { id: true, serial: true }, where: { serial: In(serials.slice(i, i + 1000)) } });
-    for (const u of found) taken.add(refKey(u.serial));
+    const units = await m.getRepository(Unit).find({ select: { id: true, serial: true }, where: { serial: In(serials.slice(i, i + 1000)) } });
+    for (const u of units) found.set(refKey(u.serial), u.id);
   }
-  return taken;
+  return found;
+}
+
+async function serialsTaken(m: EntityManager, serials: string[]): Promise<Set<string>> {
+  return new Set((await unitIdsBySerial(m, serials)).keys());
 }
 
 /**

@@ -7,7 +7,7 @@ import ReadingSetsImportDialog from '../../../src/components/unit/ReadingSetsImp
 import { quasarOptions } from '../../../src/quasar-options';
 import type { ReadingSetsImportPreview } from '../../../src/api/units-io';
 import { READING_SET_SHEET_FIELDS } from '../../../shared/imports/reading-sets-sheet-fields';
-import { resetClientState, scriptFetch, settle, type RecordedRequest } from '../helpers';
+import { allInBody, formFieldsOf, inBody, pickFileInBody, resetClientState, scriptFetch, settle } from '../helpers';
 
 const noColumns = Object.fromEntries(READING_SET_SHEET_FIELDS.map((f) => [f, null])) as ReadingSetsImportPreview['columns'];
 
@@ -34,18 +34,10 @@ function render(): VueWrapper {
   return mount(ReadingSetsImportDialog, { props: { modelValue: true }, global: { plugins: [[Quasar, quasarOptions]] }, attachTo: document.body });
 }
 
-const inDialog = (testId: string) => document.body.querySelector(`[data-test="${testId}"]`) as HTMLElement | null;
-const allInDialog = (testId: string) => [...document.body.querySelectorAll(`[data-test="${testId}"]`)] as HTMLElement[];
-
-async function pickFile(file: File): Promise<void> {
-  await settle();
-  const input = document.body.querySelector('input[type="file"]') as HTMLInputElement;
-  Object.defineProperty(input, 'files', { value: [file], configurable: true, writable: true });
-  input.dispatchEvent(new Event('change'));
-  await settle();
-}
-
-const formOf = (r: RecordedRequest) => Object.fromEntries([...(r.body as FormData).entries()].filter(([k]) => k !== 'file'));
+const inDialog = inBody;
+const allInDialog = allInBody;
+const pickFile = pickFileInBody;
+const formOf = formFieldsOf;
 
 describe('ReadingSetsImportDialog', () => {
   afterEach(() => {
