@@ -21,3 +21,17 @@ export function uploadUnitSweep(unitId: number, readingSetId: number, fields: Sw
   const { baselineTapPosition: _postFaultOnly, ...rest } = fields;
   return api.upload<SweepMeta>(`/units/${unitId}/sweeps`, { file, name: file.name }, { ...rest, readingSetId: String(readingSetId) });
 }
+
+/** DELETE /api/sweeps/:id — the answer: the trace removed and any screened events sent back to testing. */
+export interface RemovedSweep {
+  id: number;
+  readingSetId: number;
+  removed: true;
+  staleEventIds: number[];
+  note: string | null;
+}
+
+// DELETE /api/sweeps/:id — remove a trace of a unit's set (e.g. uploaded to the wrong set); 409 once a decided screening used it.
+export function removeUnitSweep(sweepId: number): Promise<RemovedSweep> {
+  return api.delete(`/sweeps/${sweepId}`);
+}

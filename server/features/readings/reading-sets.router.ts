@@ -1,7 +1,7 @@
 import { route, type RouteDef } from '../../route-def.js';
-import { readingSetParams } from '../../common/params.js';
+import { readingSetParams, sweepParams } from '../../common/params.js';
 import { sessionPatchSchema } from '../../../shared/schemas/fleet.js';
-import { correctUnitReadingSet, markReference } from './reading-sets.service.js';
+import { correctUnitReadingSet, markReference, removeUnitSweep } from './reading-sets.service.js';
 
 export const readingSetRoutes: RouteDef[] = [
   // PATCH /api/reading-sets/:readingSetId — correct a unit's factory, commissioning or routine set (as a session's
@@ -21,5 +21,14 @@ export const readingSetRoutes: RouteDef[] = [
     access: ['tester', 'admin'],
     params: readingSetParams,
     handler: ({ m, clock, user, params }) => markReference(m, clock, user.id, params.readingSetId),
+  }),
+  // DELETE /api/sweeps/:sweepId — remove a trace of a unit's factory, commissioning or routine set; 409 once a decided
+  // screening used the set
+  route({
+    method: 'delete',
+    path: '/sweeps/:sweepId',
+    access: ['tester', 'admin'],
+    params: sweepParams,
+    handler: ({ m, clock, user, params }) => removeUnitSweep(m, clock, user.id, params.sweepId),
   }),
 ];

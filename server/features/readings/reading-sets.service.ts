@@ -12,6 +12,8 @@ import { Unit } from '../units/unit.entity.js';
 import { readingSetConditions } from '../units/units.service.js';
 import { applyReadingSetPatch } from './reading-set-correction.js';
 import { ReadingSet } from './reading-set.entity.js';
+import { SweepTrace } from './sweep-trace.entity.js';
+import { sweepMeta } from './sweeps.service.js';
 import { loadCaseReadingSets, unmarkOtherReferences } from './readings.service.js';
 
 /** A factory, commissioning or routine set of a unit, with the unit's row locked (corrections and reference marks queue). */
@@ -97,4 +99,24 @@ export async function markReference(m: EntityManager, clock: Clock, userId: numb
   const after = await repo.findOneByOrFail({ id: set.id });
   const values = (await loadCaseReadingSets(m, [after])).get(after.id);
   return { ...readingSetConditions(after), values, unmarkedIds, ...stale } satisfies MarkedReference;
+}
+
+/**
+ * Removes a sweep trace of a unit's factory, commissioning or routine set (DELETE /api/sweeps/:sweepId), e.g. a file
+ * uploaded to the wrong set: 409 when a decided screening used the set (its inputs never change); audited with the
+ * trace's description and checksum; screened events whose case changed go back to testing.
+ */
+export async function removeUnitSweep(m: EntityManager, clock: Clock, userId: number, sweepId: number) {
+  const trace = await m.getRepository(SweepTrace).findOne({ where: { id: sweepId } });
+  if (!trace) throw notFound('Sweep trace');
+  const set = await unitSet(m, trace.readingSetId, 'The trace cannot be removed here');
+  if (await usedByDecidedScreening(m, set)) {
+    throw new AppError('invalid_status', 'A decided screening used this reading set: its traces never change. Upload the trace to a new set instead.', 409);
+  }
+  const cases = await screenedCases(m, set.unitId);
+  const before = sweepMeta(trace);
+  await m.getRepository(SweepTrace).delete(trace.id);
+  await audit(m, clock, { userId, action: 'delete', entity: 'sweep_trace', entityId: trace.id, before, note: 'Sweep trace removed' });
+  const stale = await staleEvents(m, clock, cases, userId, 'A sweep trace removed from a unit reading set');
+  return { id: trace.id, readingSetId: set.id, removed: true as const, ...stale };
 }

@@ -155,5 +155,33 @@ describe('UnitFilePage (/units/:id)', () => {
     expect(wrapper.find('[data-test="session-pre-fault-gas"]').exists()).toBe(false);
     expect(wrapper.get('[data-test="session-references"]').text()).toMatch(/checked as you type against/);
   });
-});
 
+  it('lets a tester remove a sweep trace of a set after confirming, then reads the unit again (engineers see no remove)', async () => {
+    const trace = { id: 70, readingSetId: 21, label: 'HV-A-open', testType: 'open-circuit' as const, terminals: null, winding: null, phase: null, tapPosition: '9b', baselineTapPosition: null, demagnetised: null, pointCount: 1000, minHz: 1000, maxHz: 1000000, sha256: 'cd'.repeat(32), fileName: null, createdAt: '2019-05-02T12:00:00.000Z' };
+    const base = unitDetail();
+    const withTrace = { ...base, readingSets: base.readingSets.map((set) => (set.id === 21 ? { ...set, sweeps: [trace] } : set)) };
+
+    signedInAs(['engineer'], withTrace);
+    const reader = await mountApp('/units/3');
+    expect(reader.wrapper.find('[data-test="sweep-remove"]').exists()).toBe(false);
+    reader.wrapper.unmount();
+    resetClientState();
+
+    storeToken('valid');
+    const removed = { id: 70, readingSetId: 21, removed: true, staleEventIds: [], note: null };
+    const { requests } = scriptFetch({
+      'GET /api/auth/me': { body: makeUser({ roles: ['tester'] }) },
+      'GET /api/health': { body: healthy },
+      'GET /api/units/3': { body: withTrace },
+      'DELETE /api/sweeps/70': { body: removed },
+    });
+    const { wrapper } = await mountApp('/units/3');
+    await wrapper.get('[data-test="sweep-remove"]').trigger('click');
+    await settle();
+    const confirm = [...document.body.querySelectorAll('button')].find((b) => b.textContent?.includes('Remove the trace'));
+    expect(confirm?.textContent).toContain('Remove the trace');
+    confirm!.click();
+    await vi.waitFor(() => expect(requests.map((r) => `${r.method} ${r.url}`)).toContain('DELETE /api/sweeps/70'));
+    await vi.waitFor(() => expect(requests.filter((r) => r.url === '/api/units/3').length).toBeGreaterThanOrEqual(2));
+  });
+});

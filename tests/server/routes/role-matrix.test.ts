@@ -75,6 +75,7 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   // Not api.md rows: correcting a unit's factory, commissioning or routine set, and marking it as the unit's reference.
   ['PATCH /reading-sets/:id', ['tester']],
   ['POST /reading-sets/:id/reference', ['tester']],
+  ['DELETE /sweeps/:id', ['tester']],
   ['GET /follow-ups', 'signed in'],
   ['GET /criteria', 'signed in'],
   ['GET /criteria/:version', 'signed in'],

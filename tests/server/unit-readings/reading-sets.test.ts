@@ -3,6 +3,8 @@ import { AuditEntry } from '../../../server/common/audit-entry.entity.js';
 import { FaultEvent } from '../../../server/features/events/fault-event.entity.js';
 import { Reading } from '../../../server/features/readings/reading.entity.js';
 import { ReadingSet } from '../../../server/features/readings/reading-set.entity.js';
+import { SweepTrace } from '../../../server/features/readings/sweep-trace.entity.js';
+import { sweepCsv } from '../../helpers/sweep-csv.js';
 import { correctionsFlow } from '../corrections/flow.js';
 
 const f = correctionsFlow();
@@ -191,5 +193,43 @@ describe('POST /api/reading-sets/:readingSetId/reference', () => {
     expect((await stored(setId)).isReference).toBe(false);
     expect((await mark(setId, f.as.admin)).status).toBe(200);
     expect((await stored(setId)).isReference).toBe(true);
+  });
+});
+
+describe('DELETE /api/sweeps/:sweepId', () => {
+  const upload = (unitId: number, setId: number) =>
+    f.api().post(`/api/units/${unitId}/sweeps`).set(f.as.tester).field('label', 'HV-A-open').field('testType', 'open-circuit').field('readingSetId', String(setId)).attach('file', Buffer.from(sweepCsv()), 'base.csv');
+  const remove = (id: number, who = f.as.tester) => f.api().delete(`/api/sweeps/${id}`).set(who);
+  const traces = (setId: number) => f.env.db.getRepository(SweepTrace).findBy({ readingSetId: setId });
+
+  it('removes a trace uploaded to a unit set, audited with its description and checksum', async () => {
+    const { unitId, setId } = await unitWithSet();
+    const up = await upload(unitId, setId).expect(201);
+    const res = await remove(up.body.id);
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ id: up.body.id, readingSetId: setId, removed: true, staleEventIds: [] });
+    expect(await traces(setId)).toEqual([]);
+    const rows = await f.env.db.getRepository(AuditEntry).findBy({ entity: 'sweep_trace', entityId: String(up.body.id), action: 'delete' });
+    expect(rows).toHaveLength(1);
+    expect(rows[0].before).toMatchObject({ label: 'HV-A-open', testType: 'open-circuit', sha256: up.body.sha256 });
+    expect(rows[0].note).toBe('Sweep trace removed');
+  });
+
+  it('answers 409 for a trace of a set a decided screening used, and keeps it', async () => {
+    const { unitId, eventId, factoryId } = await unitWithSet({}, { session: true });
+    const up = await upload(unitId, factoryId).expect(201);
+    await f.decide(eventId, { outcome: 'release', reason: 'Readings unchanged.' });
+    const res = await remove(up.body.id);
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toMatch(/Upload the trace to a new set instead/);
+    expect((await traces(factoryId)).map((t) => t.id)).toContain(up.body.id);
+  });
+
+  it('answers 404 for an unknown trace and refuses protection, manager and engineer with 403', async () => {
+    expect((await remove(987654321)).status).toBe(404);
+    const { unitId, setId } = await unitWithSet();
+    const up = await upload(unitId, setId).expect(201);
+    for (const who of [f.as.protection, f.as.manager, f.as.engineer]) expect((await remove(up.body.id, who)).status).toBe(403);
+    expect(await traces(setId)).toHaveLength(1);
   });
 });
