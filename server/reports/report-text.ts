@@ -7,11 +7,11 @@ import { CAUTIONS, corroboratingMethods, describeRequired, isDutyOnlyPath } from
 import { criteriaV1, type Criteria } from '../../shared/screening/criteria.js';
 import { levelRank } from '../../shared/screening/levels.js';
 import { decisiveReason } from '../../shared/screening/reasons.js';
+import { recommendationHeadWord as headWordOf, screeningHeadline, type Headline } from '../../shared/screening/headline.js';
 import { INTERNAL_PROTECTIONS, isInternalProtection } from '../../shared/screening/protections.js';
 import {
   LEVEL_WORD,
   QUANTITY_LABELS,
-  RECOMMENDATION_WORD,
   basisLabel,
   faultTypeWord,
   inSentence,
@@ -111,9 +111,12 @@ export function recommendationMeaning(d: ScreeningReportData): string {
 
 /** The recommendation word with what it means for a unit in service ("NO-GO, take out of service for tests"). */
 export function recommendationHeadWord(d: ScreeningReportData): string {
-  const word = RECOMMENDATION_WORD[d.result.recommendation];
-  if (!stayedInService(d)) return word;
-  return d.result.recommendation === 'no-go' ? `${word}, take out of service for tests` : `${word} (in service)`;
+  return headWordOf(d.result.recommendation, stayedInService(d));
+}
+
+/** The one headline of this screening (shared/screening/headline.ts: the same on the screen's banner, the PDF and the mail). */
+export function headlineOf(d: ScreeningReportData): Headline {
+  return screeningHeadline({ result: d.result, unit: d.unit, siteName: d.site.name, inService: stayedInService(d) });
 }
 
 /** The cautions to print: the stored result's sentences, then any current caution they lack (older results stored fewer). */
