@@ -73,24 +73,74 @@ const DATE_ONLY = /^\d{4}-\d{2}-\d{2}$/;
  * "2026-11-28 03:12 +00:00 Europe/London" (`withZone` false: "2026-11-28 03:12"); a date-only string stays as it is;
  * empty → "—"; text that is no instant is returned as it is.
  */
-export function formatInstant(iso: string | null | undefined, timeZone: string | null | undefined, withZone = true): string {
+export function formatInstant(
+  iso: string | null | undefined,
+  timeZone: string | null | undefined,
+  withZone = true,
+  locale: string | null = null,
+): string {
   if (!iso) return '—';
-  if (DATE_ONLY.test(iso)) return iso;
+  if (DATE_ONLY.test(iso)) return locale ? formatDay(iso, timeZone, locale) : iso;
   const date = new Date(iso);
   if (Number.isNaN(date.getTime())) return iso;
   const zone = validZone(timeZone);
-  const w = wallClock(date, zone);
-  const text = `${w.year}-${pad2(w.month)}-${pad2(w.day)} ${pad2(w.hour)}:${pad2(w.minute)}`;
+  const lang = validLocale(locale);
+  let text: string;
+  if (lang) {
+    text = new Intl.DateTimeFormat(lang, { timeZone: zone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit' }).format(date);
+  } else {
+    const w = wallClock(date, zone);
+    text = `${w.year}-${pad2(w.month)}-${pad2(w.day)} ${pad2(w.hour)}:${pad2(w.minute)}`;
+  }
   return withZone ? `${text} ${offsetText(zoneOffsetMinutes(date, zone))} ${zone}` : text;
 }
 
+/**
+ * A site's date format: a BCP 47 locale the runtime knows ("en-GB", "de-DE", "en-US"), or null for the international
+ * ISO form (2026-11-28 03:12), which is the default. An unknown locale falls back to the ISO form.
+ */
+export function validLocale(locale: string | null | undefined): string | null {
+  if (!locale) return null;
+  try {
+    return Intl.DateTimeFormat.supportedLocalesOf([locale]).length ? locale : null;
+  } catch {
+    return null;
+  }
+}
+
+/** The date formats a site can choose (null: ISO), with an example of each. */
+export const SITE_LOCALES: readonly { locale: string | null; label: string }[] = [
+  { locale: null, label: 'International, ISO 8601 (2026-11-28 15:12)' },
+  { locale: 'en-GB', label: 'English, UK (28/11/2026, 15:12)' },
+  { locale: 'en-US', label: 'English, US (11/28/2026, 03:12 PM)' },
+  { locale: 'en-AU', label: 'English, Australia (28/11/2026, 03:12 pm)' },
+  { locale: 'en-CA', label: 'English, Canada (2026-11-28, 03:12 p.m.)' },
+  { locale: 'de-DE', label: 'Deutsch (28.11.2026, 15:12)' },
+  { locale: 'fr-FR', label: 'Français (28/11/2026 15:12)' },
+  { locale: 'es-ES', label: 'Español (28/11/2026, 15:12)' },
+  { locale: 'it-IT', label: 'Italiano (28/11/2026, 15:12)' },
+  { locale: 'nl-NL', label: 'Nederlands (28-11-2026, 15:12)' },
+  { locale: 'pt-BR', label: 'Português, Brasil (28/11/2026, 15:12)' },
+  { locale: 'sv-SE', label: 'Svenska (2026-11-28 15:12)' },
+  { locale: 'pl-PL', label: 'Polski (28.11.2026, 15:12)' },
+  { locale: 'zh-CN', label: '中文 (2026/11/28 15:12)' },
+  { locale: 'ja-JP', label: '日本語 (2026/11/28 15:12)' },
+];
+
 /** The date part on the site's wall clock ("2026-11-28"); a date-only string stays as it is; empty → "—". */
-export function formatDay(iso: string | null | undefined, timeZone: string | null | undefined): string {
+export function formatDay(iso: string | null | undefined, timeZone: string | null | undefined, locale: string | null = null): string {
   if (!iso) return '—';
-  if (DATE_ONLY.test(iso)) return iso;
+  const lang = validLocale(locale);
+  if (DATE_ONLY.test(iso)) {
+    if (!lang) return iso;
+    // A calendar date: shown as written, whatever the zone.
+    return new Intl.DateTimeFormat(lang, { timeZone: 'UTC', year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date(`${iso}T12:00:00Z`));
+  }
   const date = new Date(iso);
   if (Number.isNaN(date.getTime())) return iso;
-  const w = wallClock(date, validZone(timeZone));
+  const zone = validZone(timeZone);
+  if (lang) return new Intl.DateTimeFormat(lang, { timeZone: zone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(date);
+  const w = wallClock(date, zone);
   return `${w.year}-${pad2(w.month)}-${pad2(w.day)}`;
 }
 

@@ -15,6 +15,7 @@ import {
   sweepWindingSchema,
   windingsSchema,
 } from './case.js';
+import { validLocale } from '../format.js';
 import { parseDateOrInstant } from '../lists.js';
 import { ROW_KEYS } from '../readings/rows.js';
 import { EVENT_SORTS, EVENT_STATUSES, FOLLOW_UP_DUE, RECOMMENDATIONS, UNIT_READING_SET_KINDS, UNIT_SORTS } from './enums.js';
@@ -45,6 +46,15 @@ export const siteBodySchema = z.object({
       },
       { message: 'not an IANA time zone (e.g. Europe/London)' },
     ),
+  /** How the site's dates are written (BCP 47, e.g. en-GB); empty or null: the international ISO form. */
+  locale: z
+    .string()
+    .trim()
+    .max(35)
+    .transform((s) => s || null)
+    .nullable()
+    .optional()
+    .refine((l) => l == null || validLocale(l) !== null, { message: 'not a known locale (e.g. en-GB, de-DE, en-US)' }),
   /** Where decisions on the site's units are mailed; empty or null: none. */
   controlRoomEmail: z
     .string()

@@ -1,6 +1,6 @@
 // One time format for the app, the mail and the PDF: ISO date and time on the site's wall clock, offset, zone name.
 import { describe, expect, it } from 'vitest';
-import { formatCoarse, formatDay, formatFigure, formatInstant, ordinal, wholeYears } from '../../shared/format.js';
+import { formatCoarse, formatDay, formatFigure, formatInstant, ordinal, SITE_LOCALES, validLocale, wholeYears } from '../../shared/format.js';
 
 describe('formatInstant', () => {
   it('writes the wall clock of the zone with its offset and name, winter and summer', () => {
@@ -40,5 +40,36 @@ describe('figures in words', () => {
     expect(formatCoarse(8.66)).toBe('8.7');
     expect(formatCoarse(0.987)).toBe('0.99');
     expect([1, 2, 3, 4, 11, 12, 22].map((n) => ordinal(n))).toEqual(['1st', '2nd', '3rd', '4th', '11th', '12th', '22nd']);
+  });
+});
+
+// The site's date format. Reference: the runtime's ICU data through Intl.DateTimeFormat (ECMA-402), the same library
+// the browser uses; the expected strings are what ICU's CLDR patterns give for these locales.
+describe("dates in the site's locale format", () => {
+  const at = '2026-11-28T15:12:00Z';
+  it('keeps the ISO form when the site names no locale', () => {
+    expect(formatInstant(at, 'Europe/London', true, null)).toBe('2026-11-28 15:12 +00:00 Europe/London');
+    expect(formatDay(at, 'Europe/London', null)).toBe('2026-11-28');
+  });
+  it('writes day-month-year for en-GB and month-day-year for en-US, on the site wall clock, zone still named', () => {
+    expect(formatInstant(at, 'Europe/London', true, 'en-GB')).toBe('28/11/2026, 15:12 +00:00 Europe/London');
+    expect(formatInstant(at, 'America/Chicago', false, 'en-US')).toBe('11/28/2026, 09:12 AM');
+    expect(formatInstant(at, 'Europe/Berlin', false, 'de-DE')).toBe('28.11.2026, 16:12');
+    expect(formatDay(at, 'Europe/Berlin', 'de-DE')).toBe('28.11.2026');
+  });
+  it('shows a calendar date as written, whatever the zone', () => {
+    expect(formatDay('2026-11-28', 'Pacific/Auckland', 'en-GB')).toBe('28/11/2026');
+    expect(formatInstant('2026-11-28', 'America/Los_Angeles', true, 'en-US')).toBe('11/28/2026');
+  });
+  it('falls back to the ISO form for a locale the runtime does not know', () => {
+    expect(validLocale('xx-NOPE')).toBeNull();
+    expect(validLocale('not a locale')).toBeNull();
+    expect(formatInstant(at, 'UTC', false, 'not a locale')).toBe('2026-11-28 15:12');
+  });
+  it("every offered format is known to the runtime and its label's example is what it prints", () => {
+    for (const { locale, label } of SITE_LOCALES) {
+      const example = label.slice(label.lastIndexOf('(') + 1, -1);
+      expect(formatInstant(at, 'UTC', false, locale)).toBe(example);
+    }
   });
 });

@@ -135,7 +135,7 @@ export async function getEvent(m: EntityManager, id: number) {
   const people = Object.fromEntries(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
   return {
     ...eventView(e),
-    unit: { ...unitView(unit), site: { id: unit.site.id, name: unit.site.name, timeZone: unit.site.timeZone }, design: designView(unit.design) },
+    unit: { ...unitView(unit), site: { id: unit.site.id, name: unit.site.name, timeZone: unit.site.timeZone, locale: unit.site.locale }, design: designView(unit.design) },
     throughFault: await eventThroughFault(m, e, unit),
     sessions: sessions.map((s) => ({ ...readingSetConditions(s), values: values.get(s.id), sweeps: sweeps.filter((t) => t.readingSetId === s.id).map(sweepMeta) })),
     screenings: screenings.map((s) => ({

@@ -12,6 +12,10 @@ export class Site {
   @Column({ type: 'varchar', length: 64 })
   timeZone!: string;
 
+  /** How the site's dates are written: a BCP 47 locale (en-GB, de-DE…); null: the international ISO form. */
+  @Column({ type: 'varchar', length: 35, nullable: true })
+  locale!: string | null;
+
   /** Where decisions on the site's units are mailed (optional). */
   @Column({ type: 'varchar', length: 254, nullable: true })
   controlRoomEmail!: string | null;

@@ -6,7 +6,7 @@ import { assertUnique, createAudited, updateAudited, type AuditedKind } from '..
 import type { Clock } from '../../common/clock.js';
 import { Site } from './site.entity.js';
 
-const view = (s: Site) => ({ id: s.id, name: s.name, timeZone: s.timeZone, controlRoomEmail: s.controlRoomEmail }) satisfies SiteView;
+const view = (s: Site) => ({ id: s.id, name: s.name, timeZone: s.timeZone, locale: s.locale, controlRoomEmail: s.controlRoomEmail }) satisfies SiteView;
 
 /** All sites by name. */
 export async function listSites(m: EntityManager) {

@@ -105,7 +105,7 @@ export async function getUnit(m: EntityManager, id: number) {
   const unitFaults = events.map((e) => ({ id: e.id, ...caseFault(e) }));
   return {
     ...unitView(u),
-    site: { id: u.site.id, name: u.site.name, timeZone: u.site.timeZone },
+    site: { id: u.site.id, name: u.site.name, timeZone: u.site.timeZone, locale: u.site.locale },
     design: designView(u.design),
     readingSets: sets.map((s) => ({
       ...readingSetConditions(s),

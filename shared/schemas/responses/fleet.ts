@@ -27,6 +27,8 @@ export const siteViewSchema = z.strictObject({
   name: z.string(),
   /** IANA time zone, e.g. Europe/London: the site's dates are shown in it. */
   timeZone: z.string(),
+  /** How the site's dates are written (BCP 47); null: ISO form. */
+  locale: z.string().nullable(),
   /** Where decisions are mailed (on the sites routes). */
   controlRoomEmail: z.string().nullable().optional(),
 });

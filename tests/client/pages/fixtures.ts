@@ -97,7 +97,7 @@ export function unitDetail(overrides: Partial<UnitDetail> = {}): UnitDetail {
   const { siteName: _s, siteTimeZone: _t, designReference: _d, ...unit } = unitItem();
   return {
     ...unit,
-    site: { id: 1, name: 'Harrow Cross', timeZone: 'Europe/London' },
+    site: { id: 1, name: 'Harrow Cross', timeZone: 'Europe/London', locale: null },
     design: design40,
     readingSets: [
       readingSet({
