@@ -30,6 +30,20 @@ describe('sites', () => {
     expect(res.body.error.fields.timeZone).toMatch(/IANA/);
   });
 
+  it("keeps a site's date format (a locale the runtime knows, or none for the ISO form) and refuses an unknown one", async () => {
+    const created = await api().post('/api/sites').set(as.admin).send({ name: `Locale ${uniq()}`, timeZone: 'Europe/Berlin', locale: 'de-DE' });
+    expect(created.status).toBe(201);
+    expect(created.body.locale).toBe('de-DE');
+    const plain = await api().post('/api/sites').set(as.admin).send({ name: `Plain ${uniq()}`, timeZone: 'UTC' });
+    expect(plain.body.locale).toBeNull();
+    const bad = await api().patch(`/api/sites/${created.body.id}`).set(as.admin).send({ locale: 'xx-NOPE' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.locale).toMatch(/not a known locale/);
+    const cleared = await api().patch(`/api/sites/${created.body.id}`).set(as.admin).send({ locale: '' });
+    expect(cleared.status).toBe(200);
+    expect(cleared.body).toMatchObject({ locale: null, timeZone: 'Europe/Berlin' });
+  });
+
   it('answers 409 for a duplicate name', async () => {
     const s = await makeSite(opened.env.db);
     const res = await api().post('/api/sites').set(as.admin).send({ name: s.name, timeZone: 'UTC' });
