@@ -1,5 +1,6 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
+import { fileTypeProblem, type UploadType } from '../../shared/uploads/file-types.js';
 import { AppError } from './app-error.js';
 
 /** Upload limits, all under MariaDB's default 16 MiB max_allowed_packet. */
@@ -33,3 +34,22 @@ export function extensionOf(name: string): string {
 }
 
 export const unsupportedType = (message: string) => new AppError('unsupported_file_type', message, 415, { file: message });
+
+/**
+ * 415 naming the field `file`, the file and the types this uploader takes, for a name (or, without an extension, a
+ * MIME type) outside its list in shared/uploads/file-types.ts: the list the client's picker and check read too.
+ */
+export function refuseOtherTypes(type: UploadType, file: { originalname: string; mimetype?: string }): void {
+  const problem = fileTypeProblem(type, utf8Name(file.originalname), file.mimetype);
+  if (problem !== null) throw unsupportedType(problem);
+}
+
+/** The multipart parser reads a file name's bytes as Latin-1; browsers send UTF-8: decode again when that is valid. */
+export function utf8Name(name: string): string {
+  if (!/[\x80-\xff]/.test(name) || /[^\x00-\xff]/.test(name)) return name;
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(Buffer.from(name, 'latin1'));
+  } catch {
+    return name;
+  }
+}

@@ -5,11 +5,15 @@ import type { AttachmentView } from '../../../shared/schemas/responses/index.js'
 import { notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
-import { unsupportedType } from '../../common/upload.js';
+import { refuseOtherTypes, unsupportedType, utf8Name } from '../../common/upload.js';
+import { UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 import { FaultEvent } from '../events/fault-event.entity.js';
 import { Finding } from '../screenings/finding.entity.js';
 import { AttachmentContent } from './attachment-content.entity.js';
 import { Attachment } from './attachment.entity.js';
+
+/** An upload as the routes give it: its name, the browser's MIME type (a file without an extension), its bytes. */
+type UploadedFile = { originalname: string; mimetype?: string; buffer: Buffer };
 
 const CONTENT_TYPES: Record<string, string> = {
   'comtrade-cfg': 'text/plain',
@@ -21,21 +25,12 @@ const CONTENT_TYPES: Record<string, string> = {
 };
 
 /** Stores a relay record on an event after checking its extension against its content (415 otherwise); checksum kept. */
-export async function addEventAttachment(m: EntityManager, clock: Clock, userId: number, eventId: number, file: { originalname: string; buffer: Buffer }) {
+export async function addEventAttachment(m: EntityManager, clock: Clock, userId: number, eventId: number, file: UploadedFile) {
+  refuseOtherTypes(UPLOAD_TYPES.relayRecord, file);
   const check = detectRelayRecord(file.originalname, new Uint8Array(file.buffer));
   if ('error' in check) throw unsupportedType(check.error);
   if (!(await m.getRepository(FaultEvent).exists({ where: { id: eventId } }))) throw notFound('Event');
   return storeAttachment(m, clock, userId, { ownerType: 'event', ownerId: eventId }, { eventId }, file, check.kind, CONTENT_TYPES[check.kind]);
-}
-
-/** The multipart parser reads a file name's bytes as Latin-1; browsers send UTF-8: decode again when that is valid. */
-function utf8Name(name: string): string {
-  if (!/[\x80-\xff]/.test(name) || /[^\x00-\xff]/.test(name)) return name;
-  try {
-    return new TextDecoder('utf-8', { fatal: true }).decode(Buffer.from(name, 'latin1'));
-  } catch {
-    return name;
-  }
 }
 
 /** Saves a checked upload with its SHA-256 and bytes, audited with `auditAfter` (the owner's ids) added. */
@@ -64,9 +59,10 @@ export function attachmentView(a: Attachment) {
 }
 
 /** Stores a photo (JPEG, PNG, WebP) or PDF on an inspection finding, its type judged by its bytes (415 otherwise). */
-export async function addFindingAttachment(m: EntityManager, clock: Clock, userId: number, findingId: number, file: { originalname: string; buffer: Buffer }) {
+export async function addFindingAttachment(m: EntityManager, clock: Clock, userId: number, findingId: number, file: UploadedFile) {
   const finding = await m.getRepository(Finding).findOne({ where: { id: findingId } });
   if (!finding) throw notFound('Finding');
+  refuseOtherTypes(UPLOAD_TYPES.findingFile, file);
   const check = detectFindingFile(new Uint8Array(file.buffer));
   if ('error' in check) throw unsupportedType(check.error);
   return storeAttachment(m, clock, userId, { ownerType: 'finding', ownerId: findingId }, { findingId, eventId: finding.eventId }, file, check.kind, check.contentType);

@@ -6,7 +6,8 @@ import type { SweepMeta } from '../../../shared/schemas/responses/index.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
-import { extensionOf, unsupportedType } from '../../common/upload.js';
+import { refuseOtherTypes, unsupportedType, utf8Name } from '../../common/upload.js';
+import { UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 import { SweepTrace } from './sweep-trace.entity.js';
 
 export interface SweepFields {
@@ -21,14 +22,27 @@ export interface SweepFields {
   baselineTapPosition?: string;
 }
 
-/** Checks an uploaded sweep file (extension, text content) and parses its points; 415 / 400 naming the problem. */
-export function parseSweepUpload(file: { originalname: string; buffer: Buffer }): { points: number[][]; minHz: number; maxHz: number } {
-  const ext = extensionOf(file.originalname);
-  if (!['.csv', '.txt'].includes(ext)) throw unsupportedType(`A sweep file must be a .csv (or .txt) file, not "${ext || 'no extension'}".`);
-  if (!looksLikeCsvText(new Uint8Array(file.buffer))) throw unsupportedType('The file is not comma-separated text (frequencyHz,magnitudeDb[,phaseDeg]).');
+/**
+ * Checks an uploaded sweep file (type by name, then text content) and parses its points; 415 / 400 naming the field
+ * `file` (or the line) and what is expected.
+ */
+export function parseSweepUpload(file: { originalname: string; mimetype?: string; buffer: Buffer }): { points: number[][]; minHz: number; maxHz: number } {
+  refuseOtherTypes(UPLOAD_TYPES.sweep, file);
+  if (!looksLikeCsvText(new Uint8Array(file.buffer))) {
+    throw unsupportedType(`${utf8Name(file.originalname)} is not comma-separated text: a sweep file has one point a line, frequencyHz,magnitudeDb[,phaseDeg].`);
+  }
   const parsed = parseSweepCsv(file.buffer.toString('utf8'));
-  if (!parsed.ok) throw new AppError('invalid_file', 'The sweep file has errors; nothing was saved.', 400, parsed.fields);
+  if (!parsed.ok) throw fileProblems('The sweep file', parsed.fields);
   return parsed;
+}
+
+/** 400 for a file whose content is wrong: every problem in `fields`, the first one (and how many more) in the message. */
+function fileProblems(what: string, fields: Record<string, string>): AppError {
+  const entries = Object.entries(fields);
+  const [key, problem] = entries[0] ?? ['file', 'it cannot be read'];
+  const more = entries.length > 1 ? ` (and ${entries.length - 1} more problem${entries.length > 2 ? 's' : ''})` : '';
+  const where = key === 'file' ? '' : `${key}: `;
+  return new AppError('invalid_file', `${what} was not saved: ${where}${problem}${more}.`, 400, fields);
 }
 
 /** Stores one trace on a reading set (inside the caller's transaction), audited. */
