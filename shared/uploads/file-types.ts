@@ -102,3 +102,34 @@ export function fileTypeProblem(type: UploadType, fileName: string, mimeType?: s
   const without = ext === '' ? ' (it has no extension)' : '';
   return `${name}${without} is not ${type.noun}: pick ${article(list)} ${list} file.`;
 }
+
+/** The columns of a sweep file in words (the parser's error keys name them: "row 4.magnitudeDb"). */
+export const SWEEP_FILE_COLUMNS: Record<string, string> = {
+  frequencyHz: 'frequency (Hz)',
+  magnitudeDb: 'magnitude (dB)',
+  phaseDeg: 'phase (deg)',
+};
+
+/**
+ * Where a problem in an uploaded file is, in words, from the key the parsers give it: "row 7.hvKV" → "Row 7, HV (kV)"
+ * with `labels` naming the columns; `row` is the word for a numbered line ("line" for a text file).
+ */
+export function problemPlace(key: string, labels: Record<string, string> = {}, row = 'Row'): string {
+  const at = /^row (\d+)(?:\.(\w+))?$/.exec(key);
+  if (at) return at[2] ? `${row} ${at[1]}, ${labels[at[2]] ?? at[2]}` : `${row} ${at[1]}`;
+  const col = /^(?:columns|mapping)\.(\w+)$/.exec(key);
+  if (col) return labels[col[1]] ?? col[1];
+  const words: Record<string, string> = { file: 'File', header: 'Header', more: 'More' };
+  return words[key] ?? labels[key] ?? key;
+}
+
+/** Problems of a file sorted by their row (file-wide ones first, "more" last), each with its place in words. */
+export function fileProblemList(fields: Record<string, string>, labels: Record<string, string> = {}, row = 'Row'): { key: string; place: string; message: string }[] {
+  const rank = (key: string) => {
+    const m = /^row (\d+)/.exec(key);
+    return m ? Number(m[1]) : key === 'more' ? Number.MAX_SAFE_INTEGER : 0;
+  };
+  return Object.entries(fields)
+    .map(([key, message]) => ({ key, place: problemPlace(key, labels, row), message }))
+    .sort((a, b) => rank(a.key) - rank(b.key));
+}

@@ -2,6 +2,7 @@
 // ApiError, and a notification — the success text when given, the failure unless the component shows it in place.
 import { ref, shallowRef, type Ref, type ShallowRef } from 'vue';
 import { useQuasar } from 'quasar';
+import { problemPlace } from '../../shared/uploads/file-types';
 import { type ApiError, toApiError } from '../api/client';
 
 export interface MutationOptions<R> {
@@ -22,6 +23,18 @@ export interface Mutation<A extends unknown[], R> {
   reset: () => void;
 }
 
+/**
+ * The server's message with its field messages that it does not already say ("… (Row 3, value: decimal comma; Row 5, unit: pF or nF)."),
+ * at most three of them, so a notification loses nothing a person needs to fix the input.
+ */
+export function errorText(e: ApiError): string {
+  const extra = Object.entries(e.fields ?? {}).filter(([, text]) => !e.message.includes(text));
+  if (!extra.length) return e.message;
+  const shown = extra.slice(0, 3).map(([field, text]) => `${problemPlace(field)}: ${text}`);
+  const more = extra.length > 3 ? `; and ${extra.length - 3} more` : '';
+  return `${e.message.replace(/[.\s]+$/, '')} (${shown.join('; ')}${more}).`;
+}
+
 export function useMutation<A extends unknown[], R>(fn: (...args: A) => Promise<R>, options: MutationOptions<R> = {}): Mutation<A, R> {
   const $q = useQuasar();
   const saving = ref(false);
@@ -36,7 +49,7 @@ export function useMutation<A extends unknown[], R>(fn: (...args: A) => Promise<
     } catch (caught) {
       const e = toApiError(caught);
       error.value = e;
-      if (!options.inline) $q.notify({ type: 'negative', message: `${options.failure ?? 'The change failed'}: ${e.message}` });
+      if (!options.inline) $q.notify({ type: 'negative', message: `${options.failure ?? 'The change failed'}: ${errorText(e)}` });
       return undefined;
     } finally {
       saving.value = false;

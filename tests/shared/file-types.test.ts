@@ -1,7 +1,7 @@
 // The uploaders' type lists: picker filter, the words of the help and the refusal, and the check by name (and by MIME
 // type for a file without an extension).
 import { describe, expect, it } from 'vitest';
-import { acceptAttribute, describeTypes, fileExtension, fileTypeProblem, UPLOAD_TYPES } from '../../shared/uploads/file-types';
+import { acceptAttribute, describeTypes, fileExtension, fileProblemList, fileTypeProblem, problemPlace, SWEEP_FILE_COLUMNS, UPLOAD_TYPES } from '../../shared/uploads/file-types';
 
 describe('fileExtension', () => {
   it('gives the lower-case last extension with its dot, and nothing for a name without one', () => {
@@ -55,5 +55,23 @@ describe('fileTypeProblem', () => {
     );
     // A listed MIME type does not excuse a wrong extension: a .xls reported as text/csv is still refused.
     expect(fileTypeProblem(UPLOAD_TYPES.sweep, 'trace.xls', 'text/csv')).not.toBeNull();
+  });
+});
+
+describe('problemPlace and fileProblemList', () => {
+  it('names a row and its column in words, a mapped column by its label, and the file-wide keys', () => {
+    expect(problemPlace('row 4.magnitudeDb', SWEEP_FILE_COLUMNS, 'line')).toBe('line 4, magnitude (dB)');
+    expect(problemPlace('row 7', {}, 'Row')).toBe('Row 7');
+    expect(problemPlace('row 7.hvKV', { hvKV: 'HV (kV)' })).toBe('Row 7, HV (kV)');
+    expect(problemPlace('mapping.site', { site: 'Site (name)' })).toBe('Site (name)');
+    expect(problemPlace('header')).toBe('Header');
+    expect(problemPlace('file')).toBe('File');
+    expect(problemPlace('unknownThing')).toBe('unknownThing');
+  });
+
+  it('sorts by row number (10 after 9), file-wide problems first and "more" last', () => {
+    const list = fileProblemList({ more: '12 more rows with problems', 'row 10.value': 'not a number', 'row 9.unit': 'pF or nF', file: 'no rows' });
+    expect(list.map((p) => p.key)).toEqual(['file', 'row 9.unit', 'row 10.value', 'more']);
+    expect(list[1]).toEqual({ key: 'row 9.unit', place: 'Row 9, unit', message: 'pF or nF' });
   });
 });

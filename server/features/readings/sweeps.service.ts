@@ -7,7 +7,7 @@ import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
 import { refuseOtherTypes, unsupportedType, utf8Name } from '../../common/upload.js';
-import { UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
+import { fileProblemList, SWEEP_FILE_COLUMNS, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 import { SweepTrace } from './sweep-trace.entity.js';
 
 export interface SweepFields {
@@ -36,13 +36,13 @@ export function parseSweepUpload(file: { originalname: string; mimetype?: string
   return parsed;
 }
 
-/** 400 for a file whose content is wrong: every problem in `fields`, the first one (and how many more) in the message. */
+/** 400 for a sweep file whose content is wrong: every problem in `fields`, the first (and how many more) in the message. */
 function fileProblems(what: string, fields: Record<string, string>): AppError {
-  const entries = Object.entries(fields);
-  const [key, problem] = entries[0] ?? ['file', 'it cannot be read'];
-  const more = entries.length > 1 ? ` (and ${entries.length - 1} more problem${entries.length > 2 ? 's' : ''})` : '';
-  const where = key === 'file' ? '' : `${key}: `;
-  return new AppError('invalid_file', `${what} was not saved: ${where}${problem}${more}.`, 400, fields);
+  const list = fileProblemList(fields, SWEEP_FILE_COLUMNS, 'line');
+  const first = list[0] ?? { key: 'file', place: 'File', message: 'it cannot be read' };
+  const more = list.length > 1 ? ` (and ${list.length - 1} more problem${list.length > 2 ? 's' : ''})` : '';
+  const where = first.key === 'file' ? '' : `${first.place.charAt(0).toLowerCase()}${first.place.slice(1)}: `;
+  return new AppError('invalid_file', `${what} was not saved: ${where}${first.message}${more}.`, 400, fields);
 }
 
 /** Stores one trace on a reading set (inside the caller's transaction), audited. */
