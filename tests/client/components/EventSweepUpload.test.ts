@@ -5,6 +5,7 @@ import { Quasar, QSelect } from 'quasar';
 import { quasarOptions } from '../../../src/quasar-options';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import EventSweepUpload from '../../../src/components/event/EventSweepUpload.vue';
+import { acceptAttribute, UPLOAD_TYPES } from '../../../shared/uploads/file-types';
 import { resetClientState, scriptFetch, settle } from '../helpers';
 
 function render(baselineLabels: string[] | null = ['HV-A-open', 'HV-C-open']) {
@@ -114,5 +115,57 @@ describe('EventSweepUpload', () => {
     await wrapper.get('[data-test="sweep-upload"]').trigger('submit');
     await vi.waitFor(() => expect(wrapper.text()).toContain('Some fields are invalid.'));
     expect(wrapper.findAllComponents(QSelect).find((c) => c.props('label') === 'Phase')!.text()).toContain('A, B or C');
+  });
+
+  it('offers the sweep types in the picker and says at once that a workbook is not a sweep file, sending nothing', async () => {
+    const { requests } = scriptFetch({});
+    const wrapper = render();
+    const input = wrapper.get('input[type="file"]').element as HTMLInputElement;
+    expect(input.accept).toBe(acceptAttribute(UPLOAD_TYPES.sweep));
+    expect(wrapper.text()).toContain('CSV (.csv) or text (.txt), one point a line');
+
+    await pickFile(wrapper, new File(['PK'], 'HV-A.xlsx', { type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet' }));
+    expect(wrapper.get('[data-test="sweep-upload"]').text()).toContain('HV-A.xlsx is not a sweep file: pick a CSV (.csv) or text (.txt) file.');
+
+    await wrapper.get('input[data-test="sweep-label"]').setValue('HV-A-open');
+    await pick(wrapper, 'sweep-test-type', 'open-circuit');
+    await wrapper.get('[data-test="sweep-upload"]').trigger('submit');
+    await settle();
+    expect(requests).toHaveLength(0);
+
+    await pickFile(wrapper, sweepCsv());
+    expect(wrapper.text()).not.toContain('is not a sweep file');
+  });
+
+  it('shows the server’s message about the file and every problem it found, by line and column in words', async () => {
+    const message = 'The sweep file was not saved: line 4, magnitude (dB): not a number (and 1 more problem).';
+    scriptFetch({
+      'POST /api/sessions/31/sweeps': {
+        status: 400,
+        body: { error: { code: 'invalid_file', message, fields: { 'row 4.magnitudeDb': 'not a number', 'row 9.frequencyHz': 'not above the row before' } } },
+      },
+    });
+    const wrapper = render();
+    await wrapper.get('input[data-test="sweep-label"]').setValue('HV-A-open');
+    await pick(wrapper, 'sweep-test-type', 'open-circuit');
+    await pickFile(wrapper, sweepCsv());
+    await wrapper.get('[data-test="sweep-upload"]').trigger('submit');
+    await vi.waitFor(() => expect(wrapper.find('[data-test="sweep-error"]').exists()).toBe(true));
+    const shown = wrapper.get('[data-test="sweep-error"]');
+    expect(shown.text()).toContain(message);
+    expect(shown.findAll('li').map((li) => li.text())).toEqual(['Line 4, magnitude (dB): not a number', 'Line 9, frequency (Hz): not above the row before']);
+  });
+
+  it('shows a refusal of the file type under the file, once', async () => {
+    const message = 'trace.csv is not comma-separated text: a sweep file has one point a line, frequencyHz,magnitudeDb[,phaseDeg].';
+    scriptFetch({ 'POST /api/sessions/31/sweeps': { status: 415, body: { error: { code: 'unsupported_file_type', message, fields: { file: message } } } } });
+    const wrapper = render();
+    await wrapper.get('input[data-test="sweep-label"]').setValue('HV-A-open');
+    await pick(wrapper, 'sweep-test-type', 'open-circuit');
+    await pickFile(wrapper, sweepCsv());
+    await wrapper.get('[data-test="sweep-upload"]').trigger('submit');
+    await vi.waitFor(() => expect(wrapper.text()).toContain(message));
+    expect(wrapper.text().split(message)).toHaveLength(2);
+    expect(wrapper.find('[data-test="sweep-error"]').exists()).toBe(false);
   });
 });
