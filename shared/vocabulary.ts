@@ -313,3 +313,264 @@ export const WINDINGS_LABELS: Record<Windings, string> = {
 
 /** Winding conductor material. */
 export const CONDUCTOR_LABELS: Record<Conductor, string> = { Cu: 'Copper (Cu)', Al: 'Aluminium (Al)' };
+
+// ---------------------------------------------------------------------------------------------------------------------
+// Records and their fields in words (the audit trail, corrections)
+
+/** A count with its noun: "1 entry", "4 entries", "no entries". */
+export function countWords(n: number, one: string, many: string): string {
+  if (n === 0) return `no ${many}`;
+  return `${n} ${n === 1 ? one : many}`;
+}
+
+/** What each role is called (as the administration names them). */
+export const ROLE_WORDS: Record<string, string> = {
+  protection: 'Protection engineer',
+  tester: 'Test engineer',
+  manager: 'Operations manager',
+  engineer: 'Asset engineer',
+  admin: 'Administrator',
+};
+
+/** The kinds of mail Gapsight sends (`notification.kind`). */
+export const NOTIFICATION_KIND_LABELS: Record<string, string> = { screening: 'Screening mail', decision: 'Decision mail' };
+
+/** Sweep test types (sweep field `testType`). */
+export const SWEEP_TEST_LABELS: Record<'open-circuit' | 'short-circuit' | 'capacitive-interwinding' | 'inductive-interwinding', string> = {
+  'open-circuit': 'Open circuit',
+  'short-circuit': 'Short circuit',
+  'capacitive-interwinding': 'Capacitive inter-winding',
+  'inductive-interwinding': 'Inductive inter-winding',
+};
+
+/** Kinds of stored file: relay records on an event, photos and documents on a finding (`attachment.kind`). */
+export const ATTACHMENT_KIND_LABELS: Record<string, string> = {
+  'comtrade-cfg': 'COMTRADE configuration (.cfg)',
+  'comtrade-dat': 'COMTRADE data (.dat)',
+  'comtrade-cff': 'COMTRADE combined file (.cff)',
+  csv: 'CSV table',
+  text: 'Text file',
+  pdf: 'PDF document',
+  jpeg: 'JPEG photo',
+  png: 'PNG image',
+  webp: 'WebP image',
+};
+
+/** A file's content type in words ("PDF document"); an unknown type as it is. */
+export function contentTypeWord(t: string): string {
+  const words: Record<string, string> = {
+    'application/pdf': 'PDF document',
+    'text/plain': 'text',
+    'text/csv': 'CSV table',
+    'image/jpeg': 'JPEG photo',
+    'image/png': 'PNG image',
+    'image/webp': 'WebP image',
+    'application/octet-stream': 'binary data',
+  };
+  return words[t.split(';')[0].trim().toLowerCase()] ?? t;
+}
+
+/** The records an audit entry can be about (`audit.entity`), as a noun inside a sentence. */
+export const ENTITY_WORDS: Record<string, string> = {
+  fault_event: 'fault event',
+  reading_set: 'reading set',
+  screening: 'screening',
+  follow_up: 'follow-up',
+  finding: 'finding',
+  attachment: 'file',
+  sweep_trace: 'sweep trace',
+  notification: 'e-mail',
+  user: 'person',
+  unit: 'unit',
+  design: 'design family',
+  site: 'site',
+  decision: 'decision',
+};
+
+const EVENT_FIELDS: Record<string, string> = {
+  id: 'Fault event',
+  unitId: 'Unit',
+  createdById: 'Logged by',
+  createdAt: 'Logged at',
+  occurredAt: 'Fault time',
+  type: 'Fault type',
+  side: 'Faulted side',
+  location: 'Location',
+  currentIs: 'Shot currents are',
+  faultedPhases: 'Faulted phases',
+  shots: 'Shots',
+  transformerTripped: 'Transformer tripped',
+  protectionOperated: 'Protections operated',
+  notes: 'Notes',
+  status: 'Status',
+  energisedAt: 'Re-energised at',
+  restrictions: 'Restrictions',
+  restrictionsLiftedAt: 'Restrictions lifted at',
+  reason: 'Reason',
+};
+
+const READING_SET_FIELDS: Record<string, string> = {
+  id: 'Reading set',
+  unitId: 'Unit',
+  kind: 'Kind of tests',
+  eventId: 'Fault event',
+  isReference: 'Reference set',
+  takenAt: 'Taken at',
+  temperatureC: 'Insulation temperature (°C)',
+  topOilC: 'Top oil (°C)',
+  bottomOilC: 'Bottom oil (°C)',
+  ambientC: 'Ambient (°C)',
+  humidityPercent: 'Humidity (%)',
+  tapPosition: 'Tap position',
+  instrument: 'Instrument',
+  instrumentSerial: 'Instrument serial number',
+  testKV: 'Test voltage (kV)',
+  testFrequencyHz: 'Test frequency (Hz)',
+  hoursDeenergised: 'Hours de-energised',
+  hoursDeEnergised: 'Hours de-energised',
+  demagnetised: 'Core demagnetised',
+  windingTemperatureC: 'Winding temperature (°C)',
+  notes: 'Notes',
+  createdById: 'Entered by',
+  createdAt: 'Entered at',
+  capacitancePF: 'Capacitance (pF)',
+  capacitanceModes: 'Capacitance by test mode',
+  dissipationPercent: 'Dissipation / power factor (%)',
+  reactance: 'Leakage reactance',
+  threePhaseEquivalent: 'Three-phase equivalent impedance',
+  excitationCurrentMA: 'Excitation current (mA)',
+  excitationKV: 'Excitation test voltage (kV)',
+  windingResistanceOhm: 'Winding resistance (Ω)',
+  resistanceTemperatureC: 'Resistance measured at (°C)',
+  turnsRatio: 'Turns ratio',
+  dissolvedGasPPM: 'Dissolved gases (ppm)',
+  dissipationByFrequency: 'Dissipation over frequency',
+  bushings: 'Bushings',
+  readings: 'Readings',
+  file: 'File',
+  rows: 'Rows',
+  sha256: 'Checksum (SHA-256)',
+};
+
+const UNIT_FIELDS: Record<string, string> = {
+  id: 'Unit',
+  serial: 'Serial number',
+  position: 'Position',
+  siteId: 'Site',
+  designId: 'Design family',
+  year: 'Year built',
+  phases: 'Phases',
+  hvKV: 'HV rating (kV)',
+  lvKV: 'LV rating (kV)',
+  ratedKVA: 'Rating (kVA)',
+  impedancePercent: 'Impedance (%)',
+  systemImpedancePercent: 'System impedance (%)',
+  conductor: 'Conductor',
+  lastEventId: 'Last fault event',
+  lastEventAt: 'Last fault time',
+  lastEventStatus: 'Last fault status',
+  lastRecommendation: 'Last recommendation',
+};
+
+const DESIGN_FIELDS: Record<string, string> = {
+  id: 'Design family',
+  reference: 'Reference',
+  maker: 'Maker',
+  windings: 'Windings',
+  vectorGroup: 'Vector group',
+  phases: 'Phases',
+  hvKV: 'HV rating (kV)',
+  lvKV: 'LV rating (kV)',
+  tvKV: 'TV rating (kV)',
+  coolingStages: 'Cooling stages',
+  impedancePercent: 'Impedance (%)',
+  impedanceBaseKVA: 'Impedance base (kVA)',
+  conductor: 'Conductor',
+  requiredCapacitance: 'Required capacitance measurements',
+  notes: 'Notes',
+};
+
+const SITE_FIELDS: Record<string, string> = { id: 'Site', name: 'Name', timeZone: 'Time zone', locale: 'Date format (locale)', controlRoomEmail: 'Control room e-mail' };
+
+const USER_FIELDS: Record<string, string> = {
+  id: 'Person',
+  email: 'E-mail',
+  name: 'Name',
+  roles: 'Roles',
+  siteIds: 'Sites',
+  allSites: 'All sites',
+  active: 'Active',
+  demo: 'Demo account',
+  mustChangePassword: 'Must change the password',
+  lastSignInAt: 'Last sign-in',
+  lockedUntil: 'Sign-in locked until',
+  failedSignIns: 'Failed sign-ins',
+};
+
+const OTHER_FIELDS: Record<string, Record<string, string>> = {
+  follow_up: { eventId: 'Fault event', task: 'Task', dueAt: 'Due', closedAt: 'Closed at', result: 'Result' },
+  finding: { eventId: 'Fault event', classification: 'Classification', text: 'Text' },
+  screening: {
+    eventId: 'Fault event',
+    recommendation: 'Recommendation',
+    criteriaVersion: 'Criteria set',
+    comparison: 'Comparison run',
+    missing: 'Tests missing',
+    unreliable: 'Unreliable readings',
+  },
+  decision: {
+    id: 'Decision',
+    screeningId: 'Screening',
+    managerId: 'Signed by',
+    outcome: 'Outcome',
+    restrictions: 'Restrictions',
+    reason: 'Reason',
+    againstRecommendation: 'Against the recommendation',
+    signedAt: 'Signed at',
+    recommendation: 'Recommendation',
+  },
+  sweep_trace: {
+    readingSetId: 'Reading set',
+    label: 'Label',
+    testType: 'Test type',
+    winding: 'Winding',
+    phase: 'Phase',
+    tapPosition: 'Tap position',
+    baselineTapPosition: 'Baseline tap position',
+    demagnetised: 'Core demagnetised',
+    pointCount: 'Points',
+    sha256: 'Checksum (SHA-256)',
+    fileName: 'File',
+    description: 'Description',
+  },
+  attachment: { eventId: 'Fault event', findingId: 'Finding', name: 'File name', kind: 'Type', contentType: 'Content type', size: 'Size (bytes)', sha256: 'Checksum (SHA-256)' },
+  notification: { kind: 'Mail', eventId: 'Fault event', screeningId: 'Screening', to: 'To', resentFrom: 'Resent from mail' },
+};
+
+/** Field labels by record (`audit.entity`): every field a correction or an audited change can touch. */
+export const FIELD_LABELS: Record<string, Record<string, string>> = {
+  fault_event: EVENT_FIELDS,
+  reading_set: READING_SET_FIELDS,
+  unit: UNIT_FIELDS,
+  design: DESIGN_FIELDS,
+  site: SITE_FIELDS,
+  user: USER_FIELDS,
+  ...OTHER_FIELDS,
+};
+
+/** "dissolvedGasPPM" → "Dissolved gas ppm": the last resort for a field no label names. */
+function humanise(key: string): string {
+  const words = key
+    .replace(/_/g, ' ')
+    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
+    .replace(/([A-Z]+)([A-Z][a-z])/g, '$1 $2')
+    .trim()
+    .split(/\s+/)
+    .map((w, i) => (/^[A-Z0-9]{2,}$/.test(w) ? w : i === 0 ? w.charAt(0).toUpperCase() + w.slice(1).toLowerCase() : w.toLowerCase()));
+  return words.join(' ');
+}
+
+/** A field of a record in words ("Dissolved gases (ppm)", "Protections operated"); a field no label names is spelt out. */
+export function fieldLabel(entity: string, key: string): string {
+  return FIELD_LABELS[entity]?.[key] ?? EVENT_FIELDS[key] ?? READING_SET_FIELDS[key] ?? humanise(key);
+}
