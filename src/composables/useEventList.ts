@@ -1,11 +1,13 @@
 // The events list: one page of events from the server with its filters, sort and paging (loaded through
 // useRouteResource, keyed by the whole query). Days typed in the filters are days of the browser's own calendar.
-import { computed, reactive, ref } from 'vue';
+import { computed, getCurrentInstance, reactive, ref } from 'vue';
+import { useRoute } from 'vue-router';
 import { listEvents, type EventListItem, type EventListQuery } from '../api/events';
 import type { FaultType } from '../../shared/schemas/case';
-import type { EventSort, EventStatus } from '../../shared/schemas/enums';
+import { EVENT_SORTS, type EventSort, type EventStatus } from '../../shared/schemas/enums';
 import { zoneDayBound } from '../../shared/lists';
 import { useRouteResource } from './useRouteResource';
+import { tableStateFromQuery, type TableUrlState } from './useServerTable';
 
 export interface EventFilters {
   /** Part of a unit serial. */
@@ -26,11 +28,19 @@ export function browserZone(): string {
   return Intl.DateTimeFormat().resolvedOptions().timeZone || 'UTC';
 }
 
-export function useEventList(initial: Partial<EventFilters> = {}) {
+export const DEFAULT_EVENT_SORT: EventSort = '-occurredAt';
+
+/**
+ * The events list. It starts on the sort, page and page size kept in the page's URL (`?sort=status&page=2`, written
+ * by useServerTable), so Back to the list or a shared link shows the same view; `table` overrides them.
+ */
+export function useEventList(initial: Partial<EventFilters> = {}, table?: Partial<TableUrlState<EventSort>>) {
+  const route = getCurrentInstance() ? useRoute() : undefined;
+  const start = { ...tableStateFromQuery(route?.query ?? {}, EVENT_SORTS, DEFAULT_EVENT_SORT), ...table };
   const filters = reactive<EventFilters>({ ...EMPTY_EVENT_FILTERS, ...initial });
-  const sort = ref<EventSort>('-occurredAt');
-  const page = ref(1);
-  const pageSize = ref(25);
+  const sort = ref<EventSort>(start.sort);
+  const page = ref(start.page);
+  const pageSize = ref(start.pageSize);
 
   /** The filters as the page's URL keeps them (days as typed). */
   const filterQuery = computed<Record<string, string>>(() => {

@@ -4,6 +4,7 @@ import { computed, reactive, ref } from 'vue';
 import { listUnits, type UnitListItem, type UnitListQuery, type UnitSort } from '../api/units';
 import type { Recommendation } from '../../shared/schemas/result';
 import { useRouteResource } from './useRouteResource';
+import { DEFAULT_PAGE_SIZE, type TableUrlState } from './useServerTable';
 
 export interface UnitFilters {
   q: string;
@@ -12,12 +13,15 @@ export interface UnitFilters {
   recommendation: Recommendation | null;
 }
 
-// State and loaders of the fleet table: a change of filter, sort, page or page size loads that page.
-export function useUnits(initial: Partial<UnitFilters> = {}) {
+export const DEFAULT_UNIT_SORT: UnitSort = 'serial';
+
+// State and loaders of the fleet table: a change of filter, sort, page or page size loads that page. The fleet page
+// starts from the view kept in its URL (`table`, see useServerTable).
+export function useUnits(initial: Partial<UnitFilters> = {}, table: Partial<TableUrlState<UnitSort>> = {}) {
   const filters = reactive<UnitFilters>({ q: '', siteId: null, designId: null, recommendation: null, ...initial });
-  const sort = ref<UnitSort>('serial');
-  const page = ref(1);
-  const pageSize = ref(25);
+  const sort = ref<UnitSort>(table.sort ?? DEFAULT_UNIT_SORT);
+  const page = ref(table.page ?? 1);
+  const pageSize = ref(table.pageSize ?? DEFAULT_PAGE_SIZE);
 
   const filterQuery = computed<UnitListQuery>(() => ({
     q: (filters.q ?? '').trim() || undefined,
