@@ -1,4 +1,5 @@
-// Renders a pdfmake document definition to a PDF Buffer in Node with pdfmake 0.3's bundled Roboto (no network).
+// Renders a pdfmake document definition to a PDF Buffer in Node with pdfmake 0.3's bundled Roboto and a symbol font for
+// the arrows Roboto lacks (no network).
 //
 // pdfmake 0.3 in Node: `require('pdfmake')` is one shared instance (module.exports = new pdfmake()). Fonts are registered
 // on it with addFonts({ Roboto: { normal: <path>, bold, italics, bolditalics } }) — the paths of the TTF files it ships in
@@ -8,11 +9,14 @@ import { createRequire } from 'node:module';
 import path from 'node:path';
 import pdfmake from 'pdfmake';
 import type { TDocumentDefinitions } from 'pdfmake/interfaces.js';
+import { PDF_SYMBOL_FONT } from './report-text.js';
 
 const require = createRequire(import.meta.url);
 
-/** The Roboto faces pdfmake ships (they have ≥ ≤ √ δ Ω, unlike the Roboto Condensed subsets). */
-export function bundledRobotoFonts(): { Roboto: { normal: string; bold: string; italics: string; bolditalics: string } } {
+type Faces = { normal: string; bold: string; italics: string; bolditalics: string };
+
+/** The Roboto faces pdfmake ships (they have ≥ ≤ √ δ Ω, unlike the Roboto Condensed subsets; no arrows). */
+export function bundledRobotoFonts(): { Roboto: Faces } {
   const dir = path.join(path.dirname(require.resolve('pdfmake/package.json')), 'fonts', 'Roboto');
   return {
     Roboto: {
@@ -24,13 +28,27 @@ export function bundledRobotoFonts(): { Roboto: { normal: string; bold: string; 
   };
 }
 
+/**
+ * The font of the symbols Roboto lacks (→ ↑ ↓ ← ↔ ✓ ✕ ⚠; `PDF_SYMBOL_CHARACTERS`): Font Awesome Free Solid as
+ * @quasar/extras ships it (fonts under the SIL OFL 1.1, see its LICENSE.txt), one face for every style.
+ */
+export function bundledSymbolFont(): Record<typeof PDF_SYMBOL_FONT, Faces> {
+  const file = path.join(path.dirname(require.resolve('@quasar/extras/package.json')), 'exports', 'fontawesome-v7', 'fa-solid-900.woff2');
+  return { [PDF_SYMBOL_FONT]: { normal: file, bold: file, italics: file, bolditalics: file } } as Record<typeof PDF_SYMBOL_FONT, Faces>;
+}
+
+/** Every font the PDF embeds, by the name the document definition uses. */
+export function bundledPdfFonts(): Record<string, Faces> {
+  return { ...bundledRobotoFonts(), ...bundledSymbolFont() };
+}
+
 let configured = false;
 
 /** Registers the fonts and the access policies on pdfmake's shared instance, once per process. */
 function setUp(): void {
   if (configured) return;
-  const fonts = bundledRobotoFonts();
-  const allowed = new Set(Object.values(fonts.Roboto).map((p) => path.resolve(p)));
+  const fonts = bundledPdfFonts();
+  const allowed = new Set(Object.values(fonts).flatMap((faces) => Object.values(faces).map((p) => path.resolve(p))));
   pdfmake.addFonts(fonts);
   pdfmake.setUrlAccessPolicy(() => false);
   pdfmake.setLocalAccessPolicy((p: string) => allowed.has(path.resolve(p)));

@@ -530,3 +530,55 @@ export function followUpTimingNote(d: ScreeningReportData): string | null {
 }
 
 export const PDF_ATTACHED_LINE = 'The PDF screening report is attached.';
+
+// ---------------------------------------------------------------------------------------------------------------------
+// The PDF's words: sources, code names, symbols
+
+/** A source that cites a published document by its number (IEEE C57.152, IEEE 62, IEC 60076-18, IEC 60599, DL/T 911, …). */
+const PUBLISHED_CLAUSE = /\b(?:IEEE|IEC|DL\/T|CIGRE|ANSI|IEC\/IEEE)\s*C?\d/;
+const FROM_MEMORY = /\s*\(from memory\)/g;
+
+/**
+ * A source as the PDF's indicator table names it: each part (split at "; ") that cites a published document is named
+ * without the qualifier "(from memory)"; parts that cite none (utility or common practice) keep it. The full wording,
+ * qualifier included, is printed in the report's criteria detail (`sourcesInDetail`).
+ */
+export function sourceInTable(source: string): string {
+  return source
+    .split(/;\s+/)
+    .map((part) => (PUBLISHED_CLAUSE.test(part) ? part.replace(FROM_MEMORY, '') : part))
+    .join('; ');
+}
+
+/** The sources the table shortened (a qualifier taken off), each once, in their full wording, in the order met. */
+export function sourcesInDetail(indicators: readonly Indicator[]): string[] {
+  const out = new Set<string>();
+  for (const i of indicators) if (sourceInTable(i.source) !== i.source) out.add(i.source);
+  return [...out];
+}
+
+const DOTTED_CODE = /\b[a-z][A-Za-z0-9]*(?:\.[A-Za-z0-9-]+)+/g;
+
+/** Indicator keys written in an engine text ("judged on its duration: duty.thermalDurationPercent") put in words. */
+export function codesInWords(text: string): string {
+  return text.replace(DOTTED_CODE, (code) => {
+    const label = indicatorLabel(code);
+    return label === code ? code : inSentence(label);
+  });
+}
+
+/** A field name the PDF has no label for ("someNewField"), in words ("some new field"). */
+export function fieldInWords(field: string): string {
+  const words = field
+    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
+    .replace(/[._-]+/g, ' ')
+    .trim()
+    .toLowerCase();
+  return words.charAt(0).toUpperCase() + words.slice(1);
+}
+
+/** The font pdf.ts registers for the symbols Roboto lacks (Font Awesome Free Solid, SIL OFL 1.1, from @quasar/extras). */
+export const PDF_SYMBOL_FONT = 'GapsightSymbols';
+
+/** The characters printed in `PDF_SYMBOL_FONT` (arrows and marks Roboto has no glyph for; checked with fontkit in a test). */
+export const PDF_SYMBOL_CHARACTERS = '←↑→↓↔↕✓✔✕✖⚠';

@@ -12,26 +12,32 @@ import {
   basisWords,
   cautionsOf,
   caveatsInWords,
-  decisiveReason,
+  codesInWords,
   dutyInWords,
   dutyOnlyWithoutTests,
   engineRevisionOf,
   faultInWords,
+  fieldInWords,
   followUpTimingNote,
+  headlineOf,
   indicatorValueText,
   itemWords,
   levelColour,
   onDutyOnlyPath,
   protectionSummary,
-  recommendationHeadWord,
+  PDF_SYMBOL_CHARACTERS,
+  PDF_SYMBOL_FONT,
   recommendationMeaning,
   rulesInWords,
   shotsInWords,
+  sourceInTable,
+  sourcesInDetail,
   testsInWords,
   unreliableItems,
   windingCurrentInWords,
 } from './report-text.js';
-import { indicatorLabel, LEVEL_WORD, methodWord, RECOMMENDATION_WORD } from '../../shared/vocabulary.js';
+import { faultTypeWord, indicatorLabel, LEVEL_WORD, methodWord, RECOMMENDATION_WORD, STATUS_LABELS } from '../../shared/vocabulary.js';
+import { reasonInWords } from '../../shared/screening/headline.js';
 import { formatInstant, formatSignificant } from '../../shared/format.js';
 
 const LEVEL_ORDER: Record<Level, number> = { critical: 0, investigate: 1, watch: 2, ok: 3 };
@@ -115,6 +121,9 @@ const tableLayout = {
 
 const heading = (text: string): Content => ({ text, style: 'h2' });
 
+/** An event status in words, in a sentence ("screened"); an unknown status as it is. */
+const statusWord = (status: string): string => STATUS_LABELS[status as keyof typeof STATUS_LABELS]?.word.toLowerCase() ?? status;
+
 const CURRENT_BASIS_WORDS: Record<string, string> = {
   winding: 'given as winding current',
   'line-converted': 'line current converted by the vector group',
@@ -181,18 +190,17 @@ function throughFaultTable(tf: ThroughFault): Content {
       { text: 'Quantity', style: 'th' },
       { text: 'Value', style: 'th', alignment: 'right' },
       { text: 'Unit', style: 'th' },
-      { text: 'Field', style: 'th' },
     ],
   ];
   const record = tf as Record<string, unknown>;
   for (const f of fields) {
-    rows.push([f.label, { text: f.value ?? fieldValue(record[f.key]), alignment: 'right' }, f.unit, { text: f.key, style: 'mono' }]);
+    rows.push([f.label, { text: f.value ?? fieldValue(record[f.key]), alignment: 'right' }, f.unit]);
   }
   for (const [k, v] of Object.entries(record)) {
     if (known.has(k)) continue;
-    rows.push([k, { text: fieldValue(v), alignment: 'right' }, '', { text: k, style: 'mono' }]);
+    rows.push([fieldInWords(k), { text: fieldValue(v), alignment: 'right' }, '']);
   }
-  return { table: { headerRows: 1, widths: ['*', 70, 60, 110], body: rows }, layout: tableLayout, style: 'table' };
+  return { table: { headerRows: 1, widths: ['*', 80, 70], body: rows }, layout: tableLayout, style: 'table' };
 }
 
 function indicatorTable(indicators: readonly Indicator[], tf: ThroughFault | null): Content {
@@ -211,17 +219,17 @@ function indicatorTable(indicators: readonly Indicator[], tf: ThroughFault | nul
     ],
   ];
   for (const i of sorted) {
-    const valueText = indicatorValueText(i, tf);
+    const valueText = codesInWords(indicatorValueText(i, tf));
     const asWords = i.value === null || valueText === THERMAL_REGION_DUTY;
-    const extra = [i.reference ? `vs ${i.reference}` : '', i.value !== null && i.note && !i.lowConfidence ? i.note : ''].filter(Boolean).join(' · ');
-    const low = i.lowConfidence ? [{ text: `LOW CONFIDENCE: ${i.note ?? 'judged under a known doubt'}`, style: 'small', bold: true, color: PALETTE.watch }] : [];
+    const extra = [i.reference ? `vs ${i.reference}` : '', i.value !== null && i.note && !i.lowConfidence ? codesInWords(i.note) : ''].filter(Boolean).join(' · ');
+    const low = i.lowConfidence ? [{ text: `LOW CONFIDENCE: ${i.note ? codesInWords(i.note) : 'judged under a known doubt'}`, style: 'small', bold: true, color: PALETTE.watch }] : [];
     const basis = basisWords(i);
     rows.push([
-      { stack: [{ text: indicatorLabel(i.key), bold: i.level !== 'ok' }, { text: i.key, style: 'mono' }] },
+      { text: indicatorLabel(i.key), bold: i.level !== 'ok' },
       { stack: [{ text: valueText, alignment: asWords ? 'left' : 'right', ...(asWords ? { style: 'small' } : {}) }, ...(extra ? [{ text: extra, style: 'small' }] : []), ...low] },
       levelCell(i.level),
-      { text: i.rule, style: 'small' },
-      { text: i.source, style: 'small' },
+      { text: codesInWords(i.rule), style: 'small' },
+      { text: sourceInTable(i.source), style: 'small' },
       { stack: [{ text: methodWord(i.method), style: 'small' }, ...(basis ? [{ text: basis, style: 'small', italics: true, color: PALETTE.slate }] : [])] },
     ]);
   }
@@ -232,22 +240,36 @@ function indicatorTable(indicators: readonly Indicator[], tf: ThroughFault | nul
   };
 }
 
-/** Characters the bundled Roboto lacks, with what is printed instead (checked against the font's cmap in a test). */
-export const PDF_GLYPH_SUBSTITUTES: Record<string, string> = { '→': '›' };
+const SYMBOL_RUN = new RegExp(`([${PDF_SYMBOL_CHARACTERS}]+)`, 'u');
 
-/** Copies a value, replacing missing glyphs in every string (functions, e.g. the footer, are kept as they are). */
-function withPrintableGlyphs<T>(v: T): T {
-  if (typeof v === 'string') return v.replace(/[→]/g, (ch) => PDF_GLYPH_SUBSTITUTES[ch] ?? ch) as T;
-  if (Array.isArray(v)) return v.map(withPrintableGlyphs) as T;
+/** A text split into runs: the symbols Roboto lacks in the symbol font, the rest as it is ("a → b": "a ", →, " b"). */
+function symbolRuns(text: string): (string | { text: string; font: string })[] {
+  return text
+    .split(SYMBOL_RUN)
+    .map((part, k) => (k % 2 === 1 ? { text: part, font: PDF_SYMBOL_FONT } : part))
+    .filter((part) => part !== '');
+}
+
+const hasSymbol = (v: unknown): v is string => typeof v === 'string' && [...v].some((ch) => PDF_SYMBOL_CHARACTERS.includes(ch));
+
+/**
+ * Copies a definition's content, printing every symbol Roboto lacks (arrows, ticks) in the symbol font, as written: a
+ * string that holds one becomes inline runs (a `text` value becomes an array, any other string a `{ text: [...] }`
+ * node). Strings without such a symbol, and functions (the footer), are kept as they are.
+ */
+function withSymbolFont<T>(v: T, key?: string): T {
+  if (hasSymbol(v)) return (key === 'text' ? symbolRuns(v) : { text: symbolRuns(v) }) as T;
+  if (Array.isArray(v)) return v.map((x) => withSymbolFont(x)) as T;
   if (v && typeof v === 'object' && Object.getPrototypeOf(v) === Object.prototype) {
-    return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, withPrintableGlyphs(x)])) as T;
+    return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, withSymbolFont(x, k)])) as T;
   }
   return v;
 }
 
 /** The document definition of the screening report for one stored screening. Pure. */
 export function buildReportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
-  return withPrintableGlyphs(reportDocDefinition(d));
+  const def = reportDocDefinition(d);
+  return { ...def, content: withSymbolFont(def.content) };
 }
 
 function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
@@ -257,29 +279,11 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
   const recLevel = RECOMMENDATION_LEVEL[rec];
   const recColour = levelColour(recLevel);
   const word = RECOMMENDATION_WORD[rec];
-  const headWord = recommendationHeadWord(d);
+  const headline = headlineOf(d);
   const position = d.unit.position ? ` · ${d.unit.position}` : '';
   const content: Content[] = [];
 
-  // Title block
-  content.push({ text: 'Gapsight screening report', style: 'title' });
-  content.push({ text: `${d.unit.serial}${position} · ${d.site.name}`, style: 'subtitle' });
-  const computedBy = d.screening.computedBy ? `${d.screening.computedBy.name} <${d.screening.computedBy.email}>` : '—';
-  const mva = d.unit.ratedKVA / 1000;
-  const titleRows: [string, string][] = [
-    ['Unit', `${d.unit.serial}${position} — design ${d.unit.designReference}; ${formatSignificant(mva, 4)} MVA ${formatSignificant(d.unit.hvKV, 4)}/${formatSignificant(d.unit.lvKV, 4)} kV, ${formatSignificant(d.unit.impedancePercent, 4)} % Z`],
-    ['Site', `${d.site.name} (time zone ${d.site.timeZone})`],
-    ['Event', `#${d.event.id}: ${d.event.type} fault, ${d.event.side.toUpperCase()} side, ${formatInstant(d.event.occurredAt, tz)} — status ${d.event.status}`],
-    ['Computed', `${formatInstant(d.screening.computedAt, tz)} by ${computedBy}`],
-    ['Computed with', `${rulesInWords(d)}${engineRevisionOf(r) < 2 ? ' — stored before rules revision 2 (line currents, no basis per finding); re-screen to apply it' : ''}`],
-    ['Screening', `#${d.screening.id}${d.screening.comparison ? ' (comparison run)' : ''}`],
-    ['Event file', d.eventUrl],
-  ];
-  content.push({
-    table: { widths: [80, '*'], body: titleRows.map(([k, v]) => [{ text: k, style: 'label' }, { text: v }]) },
-    layout: 'noBorders',
-    margin: [0, 4, 0, 6],
-  });
+  content.push({ text: 'Gapsight screening report', style: 'title', margin: [0, 0, 0, 4] });
   if (d.screening.comparison) {
     content.push({
       table: {
@@ -291,7 +295,8 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
     });
   }
 
-  // Verdict banner: icon + word + meaning + one-line reason, white on the recommendation's colour
+  // Verdict banner, the same headline as the screen's banner and the mail (shared/screening/headline.ts): icon, word,
+  // unit, what the word means, and the decisive reason, white on the recommendation's colour.
   content.push({
     table: {
       widths: [34, '*'],
@@ -301,18 +306,37 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
           {
             fillColor: recColour,
             color: '#ffffff',
-            margin: [4, 6, 6, 6],
+            margin: [4, 5, 6, 6],
             stack: [
-              { text: `Recommendation: ${headWord}`, fontSize: headWord === word ? 20 : 16, bold: true },
+              { text: 'RECOMMENDATION', fontSize: 7, characterSpacing: 0.8 },
+              { text: headline.title, fontSize: headline.title.length > 48 ? 14 : 17, bold: true },
               { text: `${word}: ${recommendationMeaning(d)}.`, fontSize: 10, margin: [0, 2, 0, 0] },
-              { text: decisiveReason(r), fontSize: 10, bold: true, margin: [0, 2, 0, 0] },
+              { text: headline.reason, fontSize: 10, bold: true, margin: [0, 2, 0, 0] },
             ],
           },
         ],
       ],
     },
     layout: 'noBorders',
-    margin: [0, 2, 0, 8],
+    margin: [0, 2, 0, 6],
+  });
+
+  // Title block
+  const computedBy = d.screening.computedBy ? `${d.screening.computedBy.name} <${d.screening.computedBy.email}>` : '—';
+  const mva = d.unit.ratedKVA / 1000;
+  const titleRows: [string, string][] = [
+    ['Unit', `${d.unit.serial}${position} — design ${d.unit.designReference}; ${formatSignificant(mva, 4)} MVA ${formatSignificant(d.unit.hvKV, 4)}/${formatSignificant(d.unit.lvKV, 4)} kV, ${formatSignificant(d.unit.impedancePercent, 4)} % Z`],
+    ['Site', `${d.site.name} (time zone ${d.site.timeZone})`],
+    ['Event', `#${d.event.id}: ${faultTypeWord(d.event.type)} fault, ${d.event.side.toUpperCase()} side, ${formatInstant(d.event.occurredAt, tz)} — status ${statusWord(d.event.status)}`],
+    ['Computed', `${formatInstant(d.screening.computedAt, tz)} by ${computedBy}`],
+    ['Computed with', `${rulesInWords(d)}${engineRevisionOf(r) < 2 ? ' — stored before rules revision 2 (line currents, no basis per finding); re-screen to apply it' : ''}`],
+    ['Screening', `#${d.screening.id}${d.screening.comparison ? ' (comparison run)' : ''}`],
+    ['Event file', d.eventUrl],
+  ];
+  content.push({
+    table: { widths: [80, '*'], body: titleRows.map(([k, v]) => [{ text: k, style: 'label' }, { text: v }]) },
+    layout: 'noBorders',
+    margin: [0, 0, 0, 4],
   });
 
   // Protection and fault
@@ -333,7 +357,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
 
   // Reasons
   content.push(heading('Reasons'));
-  content.push(r.reasons.length ? { ol: [...r.reasons] } : { text: 'No reason recorded.', italics: true });
+  content.push(r.reasons.length ? { ol: r.reasons.map((x) => codesInWords(reasonInWords(x))) } : { text: 'No reason recorded.', italics: true });
 
   // Missing and unreliable
   content.push(heading('Missing and unreliable items'));
@@ -344,10 +368,10 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
         : 'None: the required set is complete and consistent.',
     });
   }
-  if (r.missing.length) content.push({ text: [{ text: 'Missing: ', bold: true }, r.missing.map((m) => `${itemWords(m)} (${m})`).join(', ')] });
+  if (r.missing.length) content.push({ text: [{ text: 'Missing: ', bold: true }, r.missing.map(itemWords).join(', ')] });
   if (r.unreliable.length) {
     content.push({ text: 'Unreliable (not judged; a required one counts as missing) — repeat as stated:', bold: true, margin: [0, 2, 0, 0] });
-    content.push({ ul: unreliableItems(d).map((u) => ({ text: [{ text: `${u.words} (${u.item})`, bold: true }, `: ${u.instruction}`] })) });
+    content.push({ ul: unreliableItems(d).map((u) => ({ text: [{ text: u.words, bold: true }, `: ${codesInWords(u.instruction)}`] })) });
   }
   const tests = testsInWords(d);
   content.push({ text: [{ text: 'Tests done: ', bold: true }, tests.done.length ? tests.done.join('; ') : 'no post-fault tests yet'], margin: [0, 2, 0, 0] });
@@ -363,6 +387,17 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
   if (r.indicators.some((i) => i.basis !== undefined)) content.push({ text: BASIS_LEGEND, style: 'small', color: PALETTE.muted, margin: [0, 0, 0, 3] });
   else content.push({ text: `Basis per indicator not recorded: ${rulesInWords(d)}.`, style: 'small', color: PALETTE.muted, margin: [0, 0, 0, 3] });
   content.push(r.indicators.length ? indicatorTable(r.indicators, r.throughFault) : { text: 'No indicators computed.', italics: true });
+  const detail = sourcesInDetail(r.indicators);
+  if (detail.length) {
+    content.push({ text: 'Criteria detail: the sources as the criteria set words them', bold: true, margin: [0, 6, 0, 1] });
+    content.push({
+      text: 'The table names the published documents; "from memory" means the figure was cited as remembered, not checked against the document’s text.',
+      style: 'small',
+      color: PALETTE.muted,
+      margin: [0, 0, 0, 2],
+    });
+    content.push({ ul: detail.map((x) => ({ text: x, style: 'small' })) });
+  }
 
   // Follow-ups
   content.push(heading('Follow-ups (proposed)'));
@@ -390,7 +425,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
     pageSize: 'A4',
     pageMargins: [40, 40, 40, 44],
     info: {
-      title: `Gapsight screening report — ${d.unit.serial} (${d.site.name}) — ${headWord}`,
+      title: `Gapsight screening report — ${headline.title}`,
       author: 'Gapsight',
       subject: `Screening #${d.screening.id}, event #${d.event.id}`,
       keywords: `screening ${d.screening.id}`,

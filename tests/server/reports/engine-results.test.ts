@@ -4,7 +4,6 @@ import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces.js';
 import { parseCase, type GapsightCase } from '../../../shared/schemas/case.js';
 import { criteriaV2, screenCase } from '../../../shared/screening/index.js';
 import { CAUTIONS } from '../../../shared/screening/verdict.js';
@@ -12,6 +11,9 @@ import { buildManagerMail } from '../../../server/reports/manager-mail.js';
 import { buildReportDocDefinition } from '../../../server/reports/screening-report.js';
 import type { ScreeningReportData } from '../../../server/reports/report-data.js';
 import { caseReport } from './report-fixtures.js';
+import { pdfRuns, pdfText } from './pdf-text.js';
+import { itemWords } from '../../../server/reports/report-text.js';
+import { bundledPdfFonts } from '../../../server/reports/pdf.js';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
 const casesDir = path.join(root, 'examples/cases');
@@ -43,18 +45,6 @@ function withoutTests(c: GapsightCase): GapsightCase {
   return rest;
 }
 const VARIANTS = { 'as recorded': (c: GapsightCase) => c, 'stayed in service': inService, 'stayed in service, no post-fault tests': withoutTests } as const;
-
-function pdfText(def: TDocumentDefinitions): string {
-  const out: string[] = [];
-  const walk = (v: unknown): void => {
-    if (typeof v === 'string') out.push(v);
-    else if (Array.isArray(v)) v.forEach(walk);
-    else if (v && typeof v === 'object') Object.values(v).forEach(walk);
-  };
-  walk(def.content);
-  if (typeof def.footer === 'function') walk(def.footer(1, 1, { width: 595, height: 842, orientation: 'portrait' }) as Content);
-  return out.join('\n');
-}
 
 const occurrences = (text: string, part: string) => text.split(part).length - 1;
 
@@ -99,7 +89,8 @@ describe('mail and PDF on the results the engine computes now (every example cas
         for (const u of r.unreliable) {
           expect(u).toMatch(/^\S+$/); // named by its case field
           expect(mail.text).toMatch(/^Outstanding: .*\(unreliable: \S/m);
-          expect(pdf).toContain(`(${u})\n: `);
+          expect(pdf).toContain(`${itemWords(u)}: `); // in words, with its instruction
+          expect(pdf).not.toContain(`(${u})`);
         }
 
         if (variant !== 'as recorded' && c.fault) {
@@ -116,16 +107,16 @@ describe('mail and PDF on the results the engine computes now (every example cas
     }
   }
 
-  it('prints only characters the bundled Roboto can draw, for every example and variant', async () => {
+  it('prints only characters the embedded fonts can draw (each run in its own font), for every example and variant', async () => {
     const fontkitModule = (await import('fontkit')) as unknown as { openSync?: (p: string) => unknown; default?: { openSync(p: string): unknown } };
     const openSync = fontkitModule.openSync ?? fontkitModule.default!.openSync;
-    const { createRequire } = await import('node:module');
-    const require = createRequire(import.meta.url);
-    const fontPath = require.resolve('pdfmake/package.json').replace(/package\.json$/, 'fonts/Roboto/Roboto-Regular.ttf');
-    const font = openSync(fontPath) as { hasGlyphForCodePoint(cp: number): boolean };
-    const text = caseFiles.flatMap((f) => Object.values(VARIANTS).map((v) => pdfText(buildReportDocDefinition(screened(v(loadCase(f))))))).join('\n');
-    const missing = new Set([...text].filter((ch) => ch.codePointAt(0)! > 127 && !font.hasGlyphForCodePoint(ch.codePointAt(0)!)));
+    const faces = new Map(
+      Object.entries(bundledPdfFonts()).map(([name, f]) => [name, [...new Set(Object.values(f))].map((p) => openSync(p) as { hasGlyphForCodePoint(cp: number): boolean })]),
+    );
+    const runs = caseFiles.flatMap((f) => Object.values(VARIANTS).flatMap((v) => pdfRuns(buildReportDocDefinition(screened(v(loadCase(f)))))));
+    const missing = new Set(runs.flatMap((r) => [...r.text].filter((ch) => !(faces.get(r.font) ?? []).length || faces.get(r.font)!.some((f) => !f.hasGlyphForCodePoint(ch.codePointAt(0)!))).map((ch) => `${ch} in ${r.font}`)));
     expect([...missing]).toEqual([]);
-    expect(text).toContain('× rated winding current');
+    expect(runs.map((r) => r.text).join('\n')).toContain('× rated winding current');
+    expect(runs.some((r) => r.text.includes('→'))).toBe(true); // arrows printed, in the symbol font
   });
 });

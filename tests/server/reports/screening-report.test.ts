@@ -1,11 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import type { Content, TDocumentDefinitions } from 'pdfmake/interfaces.js';
-import { renderPdf } from '../../../server/reports/pdf.js';
-import { buildReportDocDefinition, PDF_GLYPH_SUBSTITUTES } from '../../../server/reports/screening-report.js';
+import type { Content } from 'pdfmake/interfaces.js';
+import { bundledPdfFonts, renderPdf } from '../../../server/reports/pdf.js';
+import { codesInWords, sourceInTable } from '../../../server/reports/report-text.js';
+import { buildReportDocDefinition } from '../../../server/reports/screening-report.js';
 import { CAUTIONS } from '../../../shared/screening/verdict.js';
+import { indicatorLabel } from '../../../shared/vocabulary.js';
+import { pdfRuns, pdfText as allText } from './pdf-text.js';
 
-// What the PDF prints for a text: characters the bundled font lacks are substituted.
-const printed = (s: string) => [...s].map((ch) => PDF_GLYPH_SUBSTITUTES[ch] ?? ch).join('');
+const escapeRe = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 import {
   deltaMeasuredReport,
   doubtsReport,
@@ -19,23 +21,6 @@ import {
   storedRevision1Report,
   thermalRegionReport,
 } from './report-fixtures.js';
-
-const PRESENTATION_KEYS = new Set(['style', 'color', 'fillColor', 'alignment', 'lineColor', 'lineCap', 'type', 'widths', 'layout', 'font']);
-
-/** Every string in a document definition (text nodes, table cells, lists, footer of page 2 of 7). */
-function allText(def: TDocumentDefinitions): string {
-  const out: string[] = [];
-  const walk = (v: unknown): void => {
-    if (typeof v === 'string') out.push(v);
-    else if (Array.isArray(v)) v.forEach(walk);
-    else if (v && typeof v === 'object') {
-      for (const [k, x] of Object.entries(v)) if (!PRESENTATION_KEYS.has(k)) walk(x);
-    }
-  };
-  walk(def.content);
-  if (typeof def.footer === 'function') walk(def.footer(2, 7, { width: 595, height: 842, orientation: 'portrait' }) as Content);
-  return out.join('\n');
-}
 
 describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
   it('renders to a PDF Buffer with the bundled Roboto', async () => {
@@ -59,7 +44,7 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
   it('has the title block: report name, unit, site, event, computed at and by, criteria version', () => {
     const text = allText(buildReportDocDefinition(recentEventReport()));
     expect(text).toContain('Gapsight screening report');
-    expect(text).toContain('KVP-HX-T2 · T2 · Harrow Cross');
+    expect(text).toContain('CONDITIONAL — KVP-HX-T2 (Harrow Cross, T2)');
     expect(text).toMatch(/#318: three-phase fault, LV side, 2026-11-28 03:12 \+00:00 Europe\/London/);
     expect(text).toContain('2026-11-29 14:05 +00:00 Europe/London by Priya Natarajan <priya.natarajan@kestrel-valley.example>');
     expect(text).toMatch(/Computed with\ncriteria set 1, rules revision \d/);
@@ -75,18 +60,24 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
   it('has a verdict banner with the recommendation word (never colour alone) and the one-line reason', () => {
     const def = buildReportDocDefinition(recentEventReport());
     const text = allText(def);
-    expect(text).toContain('Recommendation: CONDITIONAL');
+    expect(text).toContain('RECOMMENDATION\nCONDITIONAL — KVP-HX-T2 (Harrow Cross, T2)\n');
     expect(text).toContain('CHL capacitance shifted +3.42 % against the 2009-03-18 baseline (investigate from 3 %)');
     expect(JSON.stringify(def.content)).toContain('"canvas"');
     const noGo = allText(buildReportDocDefinition(internalFaultReport()));
-    expect(noGo).toContain('Recommendation: NO-GO');
+    expect(noGo).toMatch(/RECOMMENDATION\nNO-GO — \S+ \(Quarry Lane, T1\)\n/);
     expect(noGo).toContain('Internal fault suspected');
   });
 
-  it('prints every through-fault field with its unit, the cumulative I²t labelled as a Gapsight tally', () => {
+  it('prints every through-fault field with its unit in words (no column of field names), the cumulative I²t labelled as a Gapsight tally', () => {
     const d = recentEventReport();
-    const text = allText(buildReportDocDefinition(d));
-    for (const field of Object.keys(d.result.throughFault!)) expect(text).toContain(field);
+    const def = buildReportDocDefinition(d);
+    const text = allText(def);
+    const lines = text.split('\n');
+    for (const field of Object.keys(d.result.throughFault!)) expect(lines).not.toContain(field);
+    expect(lines).not.toContain('Field');
+    const table = (def.content as Content[]).find((c) => typeof c === 'object' && c !== null && 'table' in c && JSON.stringify(c).includes('Mechanical segment start')) as { table: { body: unknown[][] } };
+    expect(table.table.body.length - 1).toBeGreaterThanOrEqual(Object.keys(d.result.throughFault!).length);
+    expect(table.table.body[0]).toHaveLength(3);
     expect(text).toContain('Cumulative I²t — Gapsight tally (not an IEEE figure)');
     expect(text).toContain('× rated');
     expect(text).toContain('(× rated)²·s');
@@ -98,19 +89,21 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
     const d = recentEventReport();
     d.result = { ...d.result, missing: ['sweep'], unreliable: ['reactance.B'] };
     const text = allText(buildReportDocDefinition(d));
-    for (const r of d.result.reasons) expect(text).toContain(printed(r));
+    for (const r of d.result.reasons) expect(text).toContain(r);
     for (const f of d.result.followUps) expect(text).toContain(f);
-    expect(text).toContain('sweep (sweep)');
-    expect(text).toContain('reactance phase B (reactance.B)');
+    expect(text).toContain('Missing: sweep\n');
+    expect(text).toContain('reactance phase B: ');
+    expect(text).not.toContain('(reactance.B)');
   });
 
-  it('has every indicator key in the indicator table, with the level word, rule, source and method; a null value shows its note', () => {
+  it('has every indicator in the indicator table by its name, with the level word, rule, source and method; a null value shows its note', () => {
     const d = recentEventReport();
     const text = allText(buildReportDocDefinition(d));
     for (const i of d.result.indicators) {
-      expect(text).toContain(i.key);
-      expect(text).toContain(printed(i.rule));
-      expect(text).toContain(i.source);
+      expect(text).toContain(indicatorLabel(i.key));
+      expect(text.split('\n')).not.toContain(i.key);
+      expect(text).toContain(codesInWords(i.rule));
+      expect(text).toContain(sourceInTable(i.source));
     }
     expect(text).toContain('INVESTIGATE');
     expect(text).toContain('OK');
@@ -171,9 +164,9 @@ describe('PDF screening report under rules revision 2', () => {
     const text = allText(buildReportDocDefinition(deltaMeasuredReport()));
     expect(text).toContain('5.8 × rated winding current, 28 % of the design force');
     expect(text).toContain('Winding current: line current converted by the vector group, factor 1.732.');
-    expect(text).toContain('Largest shot current (winding current)\n5.775\n× rated\ncurrentPerUnit');
-    expect(text).toContain('Winding-current factor (winding = factor × line per unit)\n1.732\n\nwindingCurrentFactor');
-    expect(text).toContain('Current basis: line current converted by the vector group\nline-converted\n\ncurrentBasis');
+    expect(text).toContain('Largest shot current (winding current)\n5.775\n× rated\n');
+    expect(text).toContain('Winding-current factor (winding = factor × line per unit)\n1.732\n\n');
+    expect(text).toContain('Current basis: line current converted by the vector group\nline-converted\n\n');
 
     const assumed = allText(buildReportDocDefinition(lineAssumedReport()));
     expect(assumed).toContain('Winding current: line current used as it is — the winding current could not be derived; enter it or attach the relay record.');
@@ -185,28 +178,29 @@ describe('PDF screening report under rules revision 2', () => {
     const d = thermalRegionReport();
     const text = allText(buildReportDocDefinition(d));
     expect(text).toContain('0.35 s of the 85.9 s the curve allows (0.41 %), within the thermal curve');
-    expect(text).toContain('Event duty (of the mechanical limit; high-duty events only)\nnot applied\n\neventDutyPercent');
-    expect(text).toContain("Shot time (of the thermal curve's allowed time; below the high-duty threshold)\n0.4072\n%\nthermalDurationPercent");
+    expect(text).toContain('Event duty (of the mechanical limit; high-duty events only)\nnot applied\n\n');
+    expect(text).toContain("Shot time (of the thermal curve's allowed time; below the high-duty threshold)\n0.4072\n%\n");
     expect(text).toContain('not applied: thermal region (below the high-duty threshold), see the time against the curve'); // duty.eventDutyPercent row
     expect(text).not.toContain('3.35'); // eventDutyPercent, not told for a thermal-region event
     expect(text).not.toContain('of the mechanical limit (I²t');
 
     const high = allText(buildReportDocDefinition(deltaMeasuredReport()));
     expect(high).toContain('Event duty 4.4 % of the mechanical limit (I²t 10.3 of K = 236 (× rated)²·s)');
-    expect(high).toContain('Event duty (of the mechanical limit; high-duty events only)\n4.378\n%\neventDutyPercent');
-    expect(high).toContain("Shot time (of the thermal curve's allowed time; below the high-duty threshold)\n— (high duty)\n\nthermalDurationPercent");
+    expect(high).toContain('Event duty (of the mechanical limit; high-duty events only)\n4.378\n%\n');
+    expect(high).toContain("Shot time (of the thermal curve's allowed time; below the high-duty threshold)\n— (high duty)\n\n");
   });
 
   it('gives every indicator its basis in words, marks low-confidence items with their note, and explains the words', () => {
     const text = allText(buildReportDocDefinition(doubtsReport()));
     expect(text).toContain('Method / basis');
-    expect(text).toMatch(/capacitance\.CHL\.shiftPercent[\s\S]*?capacitance\nagainst own baseline\n/);
-    expect(text).toMatch(/capacitance\.CHL\.shiftFromPreviousPercent[\s\S]*?capacitance\nagainst own previous test\n/);
-    expect(text).toMatch(/ratio\.A\.deviationFromNameplatePercent[\s\S]*?turns ratio\nstate \(absolute value\)\n/);
-    expect(text).toMatch(/duty\.eventDutyPercent[\s\S]*?through-fault duty\nduty\n/);
+    const row = (key: string, method: string, basis: string) => new RegExp(`${escapeRe(indicatorLabel(key))}\\n[^]*?${escapeRe(method)}\\n${escapeRe(basis)}\\n`);
+    expect(text).toMatch(row('capacitance.CHL.shiftPercent', 'capacitance', 'against own baseline'));
+    expect(text).toMatch(row('capacitance.CHL.shiftFromPreviousPercent', 'capacitance', 'against own previous test'));
+    expect(text).toMatch(row('ratio.A.deviationFromNameplatePercent', 'turns ratio', 'state (absolute value)'));
+    expect(text).toMatch(row('duty.eventDutyPercent', 'through-fault duty', 'duty'));
     expect(text).toContain('LOW CONFIDENCE: temperature correction uncertain (insulation 12 °C and 31 °C)');
     expect(text).toContain('Basis: against own baseline / previous test = a change of this unit');
-    expect(allText(buildReportDocDefinition(thermalRegionReport()))).toMatch(/sweep\.hv\.AC\.class[\s\S]*?frequency-response sweep\nphase A vs C\n/);
+    expect(allText(buildReportDocDefinition(thermalRegionReport()))).toMatch(row('sweep.hv.AC.class', 'frequency-response sweep', 'phase A vs C'));
     expect(allText(buildReportDocDefinition(thermalRegionReport()))).toContain('Sweep HV phase A vs C DL/T 911 class');
     // Revision 1: no basis recorded, said once above the table.
     expect(allText(buildReportDocDefinition(storedRevision1Report()))).toContain('Basis per indicator not recorded: criteria set 1, rules revision 1.');
@@ -214,17 +208,17 @@ describe('PDF screening report under rules revision 2', () => {
 
   it('lists the unreliable items with their repeat instructions', () => {
     const text = allText(buildReportDocDefinition(doubtsReport()));
-    expect(text).toContain('reactance phase A (reactance.A)\n: tap mismatch (baseline at tap 9b, post-fault at 11): repeat at tap 9b');
+    expect(text).toContain('reactance phase A: tap mismatch (baseline at tap 9b, post-fault at 11): repeat at tap 9b');
     expect(text).toContain(
-      'excitation current (excitationCurrentMA)\n: all phases moved the same way on a core not demagnetised (residual magnetism likely): demagnetise and repeat; take excitation and sweeps before DC tests',
+      'excitation current: all phases moved the same way on a core not demagnetised (residual magnetism likely): demagnetise and repeat; take excitation and sweeps before DC tests',
     );
-    expect(text).toContain('CL capacitance (capacitance.CL)\n: implausible against the reference — check the unit of measure and the connection');
-    expect(text).toContain('sweep HV-B-short (sweep.HV-B-short)\n: tap mismatch (baseline trace 9b, post-fault 11): repeat at tap 9b');
+    expect(text).toContain('CL capacitance: implausible against the reference — check the unit of measure and the connection');
+    expect(text).toContain('sweep HV-B-short: tap mismatch (baseline trace 9b, post-fault 11): repeat at tap 9b');
   });
 
   it('a unit in service with a no-go reads "take out of service for tests", never "do not re-energise"', () => {
     const text = allText(buildReportDocDefinition(inServiceNoGoReport()));
-    expect(text).toContain('Recommendation: NO-GO, take out of service for tests');
+    expect(text).toMatch(/RECOMMENDATION\nNO-GO, take out of service for tests — \S+ \(/);
     expect(text).toContain('NO-GO: take out of service for tests.');
     expect(text).not.toMatch(/do not re-?energi[sz]e/i);
     // A unit that tripped keeps the hold wording.
@@ -233,7 +227,7 @@ describe('PDF screening report under rules revision 2', () => {
 
   it('a duty-only go says it rests on the duty figures alone, with no post-fault tests', () => {
     const text = allText(buildReportDocDefinition(dutyOnlyGoReport()));
-    expect(text).toContain('Recommendation: GO (in service)');
+    expect(text).toMatch(/RECOMMENDATION\nGO \(in service\) — \S+ \(/);
     expect(text).toContain('GO: may stay in service (with the follow-ups below) — this go rests on the duty figures alone, with no post-fault tests.');
     expect(text).toContain('None required: the unit stayed in service and the fault was below the high-duty threshold (duty-only path).');
     expect(text).toContain('This go rests on the duty figures alone, with no post-fault tests.');
@@ -254,28 +248,20 @@ describe('PDF screening report under rules revision 2', () => {
   });
 });
 
-describe('the report text and the bundled Roboto font', () => {
-  it('uses only characters the font can draw', async () => {
+describe('the report text and the embedded fonts', () => {
+  it('uses only characters the font of each run can draw, on every example and revision-2 fixture', async () => {
     const fontkitModule = (await import('fontkit')) as unknown as { openSync?: (p: string) => unknown; default?: { openSync(p: string): unknown } };
-    const fontkit = { openSync: (p: string) => (fontkitModule.openSync ?? fontkitModule.default!.openSync)(p) };
-    const { createRequire } = await import('node:module');
-    const require = createRequire(import.meta.url);
-    // The TTF pdfmake ships (pdfmake's package exports do not list it, so resolve its folder from package.json).
-    const fontPath = require.resolve('pdfmake/package.json').replace(/package\.json$/, 'fonts/Roboto/Roboto-Regular.ttf');
-    const font = fontkit.openSync(fontPath) as unknown as { hasGlyphForCodePoint(cp: number): boolean };
-    const strings: string[] = [];
-    const walk = (v: unknown) => {
-      if (typeof v === 'string') strings.push(v);
-      else if (Array.isArray(v)) v.forEach(walk);
-      else if (v && typeof v === 'object') Object.values(v).forEach(walk);
-    };
+    const openSync = fontkitModule.openSync ?? fontkitModule.default!.openSync;
+    const faces = new Map(
+      Object.entries(bundledPdfFonts()).map(([name, f]) => [name, [...new Set(Object.values(f))].map((p) => openSync(p) as { hasGlyphForCodePoint(cp: number): boolean })]),
+    );
     const cases = ['clean-go', 'conditional', 'duty-only-go', 'high-duty-missing', 'no-go-internal', 'no-go-readings', 'sisters-no-baseline', 'sweeps'];
     const revision2 = [lineAssumedReport(), deltaMeasuredReport(), thermalRegionReport(), inServiceNoGoReport(), dutyOnlyGoReport(), doubtsReport()];
     const stored = [storedRevision1Report(), storedRevision1InServiceReport()];
-    for (const data of [recentEventReport(), internalFaultReport(), ...cases.map(exampleCaseReport), ...revision2, ...stored]) walk(buildReportDocDefinition(data));
+    const runs = [recentEventReport(), internalFaultReport(), ...cases.map(exampleCaseReport), ...revision2, ...stored].flatMap((d) => pdfRuns(buildReportDocDefinition(d)));
     // The new wording itself (× ² · —) is among the strings checked.
-    expect(strings.join('\n')).toContain('× rated winding current');
-    const missing = new Set([...strings.join('')].filter((ch) => ch.charCodeAt(0) > 127 && !font.hasGlyphForCodePoint(ch.codePointAt(0)!)));
+    expect(runs.map((r) => r.text).join('\n')).toContain('× rated winding current');
+    const missing = new Set(runs.flatMap((r) => [...r.text].filter((ch) => !(faces.get(r.font) ?? []).length || faces.get(r.font)!.some((f) => !f.hasGlyphForCodePoint(ch.codePointAt(0)!))).map((ch) => `${ch} in ${r.font}`)));
     expect([...missing]).toEqual([]);
   });
 });
