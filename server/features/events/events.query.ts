@@ -4,6 +4,8 @@ import type { Recommendation } from '../../../shared/schemas/enums.js';
 import type { eventListQuerySchema } from '../../../shared/schemas/fleet.js';
 import type { EventDetail, EventListPage, EventView } from '../../../shared/schemas/responses/index.js';
 import type { GapsightResult } from '../../../shared/schemas/result.js';
+import { auditSentence, type AuditWordsContext } from '../../../shared/audit-words.js';
+import { sessionInSentence } from '../../../shared/session-name.js';
 import { dutyWithPriorFaults } from '../../../shared/screening/duty-history.js';
 import { notFound } from '../../common/app-error.js';
 import { AuditEntry } from '../../common/audit-entry.entity.js';
@@ -133,6 +135,17 @@ export async function getEvent(m: EntityManager, id: number) {
   const userIds = [...new Set([e.createdById, ...sessions.map((s) => s.createdById), ...screenings.map((s) => s.computedById), ...decisions.map((d) => d.managerId), ...decisions.map((d) => d.restrictionsLiftedById), ...followUps.map((f) => f.closedById), ...findings.map((f) => f.recordedById), ...auditRows.map((a) => a.userId)].filter((x): x is number => typeof x === 'number'))];
   const users = userIds.length ? await m.getRepository(User).find({ where: { id: In(userIds) } }) : [];
   const people = Object.fromEntries(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
+  // The audit trail in words: people by name, sessions by time and tester, follow-ups by task, on the site's clock.
+  const zone = unit.site.timeZone;
+  const auditWords: AuditWordsContext = {
+    timeZone: zone,
+    person: (uid) => people[uid]?.name,
+    readingSet: (sid) => {
+      const s = sessions.find((x) => String(x.id) === sid);
+      return s ? sessionInSentence({ takenAt: s.takenAt.toISOString(), createdById: s.createdById }, zone, (uid) => (uid != null ? people[uid]?.name : null)) : null;
+    },
+    followUp: (fid) => followUps.find((f) => String(f.id) === fid)?.task,
+  };
   return {
     ...eventView(e),
     unit: { ...unitView(unit), site: { id: unit.site.id, name: unit.site.name, timeZone: unit.site.timeZone, locale: unit.site.locale }, design: designView(unit.design) },
@@ -175,7 +188,19 @@ export async function getEvent(m: EntityManager, id: number) {
       sentAt: n.sentAt?.toISOString() ?? null,
       createdAt: n.createdAt.toISOString(),
     })),
-    audit: auditRows.map((a) => ({ id: a.id, at: a.at.toISOString(), userId: a.userId, action: a.action, entity: a.entity, entityId: a.entityId, before: a.before, after: a.after, highlighted: a.highlighted, note: a.note })),
+    audit: auditRows.map((a) => ({
+      id: a.id,
+      at: a.at.toISOString(),
+      userId: a.userId,
+      action: a.action,
+      entity: a.entity,
+      entityId: a.entityId,
+      before: a.before,
+      after: a.after,
+      highlighted: a.highlighted,
+      note: a.note,
+      summary: auditSentence(a, auditWords),
+    })),
     people,
     energisedAt: e.energisedAt?.toISOString() ?? null,
     activeRestrictions: decisions[0]?.outcome === 'release-with-restrictions' && !decisions[0].restrictionsLiftedAt ? decisions[0].restrictions : null,

@@ -90,6 +90,8 @@ export const auditRowSchema = z.strictObject({
   after: z.unknown(),
   highlighted: z.boolean(),
   note: z.string().nullable(),
+  /** The entry as one sentence: who, what, the outcome and the reason, in words. */
+  summary: z.string(),
 });
 export type AuditRow = z.infer<typeof auditRowSchema>;
 

@@ -141,6 +141,17 @@ describe('sessions, imports and sweeps', () => {
     expect(detail.body.sessions).toHaveLength(1);
     expect(detail.body.sessions[0].sweeps).toHaveLength(1);
     expect(detail.body.audit.map((a: { action: string }) => a.action)).toEqual(expect.arrayContaining(['create', 'update', 'import']));
+    // Each entry in words: the person by name, the session by its time and tester, no code names.
+    const summaries: string[] = detail.body.audit.map((a: { summary: string }) => a.summary);
+    const tester = detail.body.people[String(detail.body.sessions[0].createdById)].name;
+    expect(summaries).toEqual(
+      expect.arrayContaining([
+        expect.stringMatching(/ logged the fault of \d{1,2} [A-Z][a-z]{2} \d{4} \d{2}:\d{2}: /),
+        expect.stringMatching(/ moved the event from logged to testing \(/),
+        expect.stringMatching(new RegExp(`^${tester} imported 3 rows of readings from “readings\\.csv” into the tests of 29 Nov 2026 \\d{2}:\\d{2} by ${tester}\\.$`)),
+      ]),
+    );
+    for (const s of summaries) expect(s).not.toMatch(/\b[a-z]+_[a-z]+\b|\b[a-z]+[A-Z][A-Za-z]*\b/);
   });
 
   it('rejects a CSV with bad rows as a whole, lists every bad row, and changes nothing', async () => {
