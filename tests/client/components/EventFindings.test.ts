@@ -6,6 +6,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import EventFindings from '../../../src/components/event/EventFindings.vue';
 import type { EventFinding } from '../../../src/api/findings';
 import { quasarOptions } from '../../../src/quasar-options';
+import { acceptAttribute, UPLOAD_TYPES } from '../../../shared/uploads/file-types';
 import { captureDownloads, resetClientState, scriptFetch, settle, storeToken } from '../helpers';
 
 const photo = { id: 5, name: 'winding.png', contentType: 'image/png', kind: 'png', size: 2048, sha256: 'a'.repeat(64), createdAt: '2026-12-01T10:00:00.000Z' };
@@ -77,5 +78,52 @@ describe('EventFindings', () => {
   it('offers no file picker to someone who may not record findings', () => {
     const wrapper = render([finding([])], false);
     expect(wrapper.find('[data-test="finding-file-input"]').exists()).toBe(false);
+  });
+
+  it('filters the picker by the photo and PDF types and names a .heic photo at once, sending nothing', async () => {
+    const { requests } = scriptFetch({});
+    const wrapper = render([finding([])]);
+    const input = wrapper.get('[data-test="finding-file-input"]').element as HTMLInputElement;
+    expect(input.accept).toBe(acceptAttribute(UPLOAD_TYPES.findingFile));
+    expect(wrapper.text()).toContain('JPEG (.jpg, .jpeg), PNG (.png), WebP (.webp) or PDF (.pdf); 10 MB at most');
+    Object.defineProperty(input, 'files', { value: [new File(['x'], 'bushing.heic', { type: 'image/heic' })], configurable: true });
+    input.dispatchEvent(new Event('change'));
+    await settle();
+    expect(requests).toHaveLength(0);
+    expect(wrapper.get('[data-test="finding-file-error-40"]').text()).toBe(
+      'bushing.heic is not a photo or PDF: pick a JPEG (.jpg, .jpeg), PNG (.png), WebP (.webp) or PDF (.pdf) file.',
+    );
+  });
+
+  it('shows the server’s refusal beside the finding’s picker, as the server words it', async () => {
+    const message = 'photos and documents must be JPEG, PNG, WebP or PDF files: this file is text';
+    scriptFetch({ 'POST /api/findings/40/attachments': { status: 415, body: { error: { code: 'unsupported_file_type', message, fields: { file: message } } } } });
+    const wrapper = render([finding([])]);
+    const input = wrapper.get('[data-test="finding-file-input"]').element as HTMLInputElement;
+    Object.defineProperty(input, 'files', { value: [new File(['hello'], 'photo.jpg')], configurable: true });
+    input.dispatchEvent(new Event('change'));
+    await vi.waitFor(() => expect(wrapper.find('[data-test="finding-file-error-40"]').exists()).toBe(true));
+    expect(wrapper.get('[data-test="finding-file-error-40"]').text()).toBe(`photo.jpg was not added: ${message}`);
+  });
+
+  it('asks before a closed tab loses a half-typed finding, and not once it is recorded', async () => {
+    scriptFetch({ 'POST /api/events/7/findings': { status: 201, body: { id: 41 } } });
+    const wrapper = render([]);
+    const quiet = new Event('beforeunload', { cancelable: true });
+    window.dispatchEvent(quiet);
+    expect(quiet.defaultPrevented).toBe(false);
+
+    await wrapper.get('textarea[data-test="finding-text"]').setValue('Tank wall bulge on the LV side.');
+    const dirty = new Event('beforeunload', { cancelable: true });
+    window.dispatchEvent(dirty);
+    expect(dirty.defaultPrevented).toBe(true);
+
+    await wrapper.get('[data-test="finding-other"]').trigger('click');
+    await wrapper.get('[data-test="finding-form"]').trigger('submit');
+    await vi.waitFor(() => expect(wrapper.emitted('changed')).toHaveLength(1));
+    const after = new Event('beforeunload', { cancelable: true });
+    window.dispatchEvent(after);
+    expect(after.defaultPrevented).toBe(false);
+    wrapper.unmount();
   });
 });
