@@ -78,6 +78,8 @@ describe('EventFilePage (/events/:id)', () => {
     expect(sessions[0].text()).toContain('2026-07-02 09:30 +01:00 Europe/London');
     expect(sessions[0].text()).toContain('top oil 33.0 °C');
     expect(sessions[0].text()).toContain('by Ruth Okafor');
+    // Named by its time on the site's clock and its tester, not by its database id.
+    expect(sessions[0].get('h3').text()).toBe('Tests of 2 Jul 2026 09:30 by Ruth Okafor');
     const values = sessions[0].findAll('[data-test="value-row"]').map((r) => r.text());
     expect(values).toContain('CapacitanceCHL5405pF');
     expect(values).toContain('Dissipation factorCH0.3%');
@@ -93,7 +95,8 @@ describe('EventFilePage (/events/:id)', () => {
     const { wrapper } = await mountApp('/events/11');
 
     const section = wrapper.get('[data-test="screenings"]');
-    expect(section.get('[data-test="not-screened"]').text()).toContain('Enter the post-fault readings, then run the screening');
+    expect(section.get('[data-test="not-screened"]').text()).toContain('No screening yet');
+    expect(section.get('[data-test="next-step"]').text()).toContain('The test engineer is expected to finish the post-fault readings and run the screening');
     expect(section.find('[data-test="verdict-banner"]').exists()).toBe(false);
     expect(section.find('[data-test="recommendation-badge"]').exists()).toBe(false);
     expect(section.get('[data-test="cautions"]').text()).toContain('decision support for qualified staff');
@@ -349,7 +352,7 @@ describe('EventFilePage (/events/:id)', () => {
     expect(fileName()).toBe('gapsight-case-event-11.json');
   });
 
-  it('keeps the audit trail (who, when, what) in an expansion item', async () => {
+  it('keeps the audit trail (when, and what happened in words) in an expansion item', async () => {
     signedInAs(['engineer']);
     const { wrapper } = await mountApp('/events/11');
 
@@ -358,8 +361,8 @@ describe('EventFilePage (/events/:id)', () => {
     await audit.get('.q-item').trigger('click');
     await settle();
     const row = wrapper.get('[data-test="audit-row"]').text();
-    expect(row).toContain('Dara Whitcombe');
-    expect(row).toContain('2026-07-01 05:00 +01:00 Europe/London');
-    expect(row).toContain('Created fault event 11');
+    expect(row).toContain('2026-07-01 05:00');
+    expect(row).toContain('Dara Whitcombe logged the fault of 1 Jul 2026 05:00.');
+    expect(audit.text()).toContain('1 entry');
   });
 });

@@ -249,7 +249,19 @@ export function eventDetail(overrides: Partial<EventDetail> = {}): EventDetail {
       { id: 51, name: 'HX-T2-feeder4.cfg', contentType: 'text/plain', kind: 'comtrade-cfg', size: 2048, sha256: 'ab'.repeat(32), createdAt: '2026-07-01T05:00:00.000Z' },
     ],
     audit: [
-      { id: 91, at: '2026-07-01T04:00:00.000Z', userId: 5, action: 'create', entity: 'fault_event', entityId: '11', before: null, after: {}, highlighted: false, note: null },
+      {
+        id: 91,
+        at: '2026-07-01T04:00:00.000Z',
+        userId: 5,
+        action: 'create',
+        entity: 'fault_event',
+        entityId: '11',
+        before: null,
+        after: {},
+        highlighted: false,
+        note: null,
+        summary: 'Dara Whitcombe logged the fault of 1 Jul 2026 05:00.',
+      },
     ],
     people: {
       '5': { id: 5, name: 'Dara Whitcombe', email: 'd.whitcombe@kestrel-valley.example' },
