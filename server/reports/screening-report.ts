@@ -124,6 +124,9 @@ const heading = (text: string): Content => ({ text, style: 'h2' });
 /** An event status in words, in a sentence ("screened"); an unknown status as it is. */
 const statusWord = (status: string): string => STATUS_LABELS[status as keyof typeof STATUS_LABELS]?.word.toLowerCase() ?? status;
 
+/** The current basis in the value column, in short words (the code, e.g. "line-converted", is never printed). */
+const CURRENT_BASIS_VALUE: Record<string, string> = { winding: 'winding', 'line-converted': 'converted', 'line-assumed': 'line as winding' };
+
 const CURRENT_BASIS_WORDS: Record<string, string> = {
   winding: 'given as winding current',
   'line-converted': 'line current converted by the vector group',
@@ -148,7 +151,12 @@ function throughFaultFields(tf: ThroughFault): { key: keyof ThroughFault & strin
       unit: '',
       value: !revision2 ? '— (rules revision 1)' : tf.windingCurrentFactor === null || tf.windingCurrentFactor === undefined ? '— (unknown)' : undefined,
     },
-    { key: 'currentBasis', label: `Current basis: ${!revision2 ? 'line current (rules revision 1)' : CURRENT_BASIS_WORDS[tf.currentBasis ?? ''] ?? String(tf.currentBasis)}`, unit: '', value: !revision2 ? '—' : undefined },
+    {
+      key: 'currentBasis',
+      label: `Current basis: ${!revision2 ? 'line current (rules revision 1)' : CURRENT_BASIS_WORDS[tf.currentBasis ?? ''] ?? String(tf.currentBasis)}`,
+      unit: '',
+      value: !revision2 ? '—' : CURRENT_BASIS_VALUE[tf.currentBasis ?? ''] ?? String(tf.currentBasis),
+    },
     { key: 'maxCurrentPerUnit', label: 'Design maximum current', unit: '× rated' },
     { key: 'forceRatioPercent', label: 'Force ratio (of the design force)', unit: '%' },
     { key: 'segmentStartPerUnit', label: 'Mechanical segment start', unit: '× rated' },
@@ -308,7 +316,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
             color: '#ffffff',
             margin: [4, 5, 6, 6],
             stack: [
-              { text: 'RECOMMENDATION', fontSize: 7, characterSpacing: 0.8 },
+              { text: 'RECOMMENDATION', fontSize: 7 },
               { text: headline.title, fontSize: headline.title.length > 48 ? 14 : 17, bold: true },
               { text: `${word}: ${recommendationMeaning(d)}.`, fontSize: 10, margin: [0, 2, 0, 0] },
               { text: headline.reason, fontSize: 10, bold: true, margin: [0, 2, 0, 0] },
