@@ -7,6 +7,7 @@ import UnitImportDialog from '../../../src/components/unit/UnitImportDialog.vue'
 import { quasarOptions } from '../../../src/quasar-options';
 import type { UnitImportPreview } from '../../../src/api/units-io';
 import { UNIT_SHEET_FIELDS } from '../../../shared/imports/units-sheet-fields';
+import { acceptAttribute, UPLOAD_TYPES } from '../../../shared/uploads/file-types';
 import { allInBody, formFieldsOf, inBody, pickFileInBody, resetClientState, scriptFetch, settle } from '../helpers';
 
 const noColumns = Object.fromEntries(UNIT_SHEET_FIELDS.map((f) => [f, null])) as UnitImportPreview['columns'];
@@ -99,5 +100,32 @@ describe('UnitImportDialog', () => {
     render();
     await pickFile(new File(['x'], 'big.csv'));
     await vi.waitFor(() => expect(inDialog('unit-import-read-error')?.textContent).toContain('4 MB at most'));
+  });
+
+  it('filters the picker by the spreadsheet types and names an old .xls at once, sending nothing', async () => {
+    const { requests } = scriptFetch({});
+    render();
+    await settle();
+    expect((document.body.querySelector('input[type="file"]') as HTMLInputElement).accept).toBe(acceptAttribute(UPLOAD_TYPES.spreadsheet));
+    expect(inDialog('unit-import')?.textContent).toContain('Excel (.xlsx), CSV (.csv) or text (.txt); 4 MB at most');
+    await pickFile(new File(['x'], 'fleet.xls', { type: 'application/vnd.ms-excel' }));
+    await vi.waitFor(() => expect(inDialog('unit-import-read-error')).not.toBeNull());
+    expect(inDialog('unit-import-read-error')?.textContent?.trim()).toBe('fleet.xls is not a spreadsheet: pick an Excel (.xlsx), CSV (.csv) or text (.txt) file.');
+    expect(requests).toHaveLength(0);
+  });
+
+  it('shows the server’s refusal as it words it, with the field messages it does not already say', async () => {
+    scriptFetch({
+      'POST /api/units/import': {
+        status: 400,
+        body: { error: { code: 'invalid_file', message: 'The workbook cannot be read.', fields: { file: 'the workbook cannot be read (end of central directory not found)' } } },
+      },
+    });
+    render();
+    await pickFile(new File(['x'], 'register.xlsx'));
+    await vi.waitFor(() => expect(inDialog('unit-import-read-error')).not.toBeNull());
+    const shown = inDialog('unit-import-read-error')!;
+    expect(shown.querySelector('p')?.textContent).toBe('The workbook cannot be read.');
+    expect([...shown.querySelectorAll('li')].map((li) => li.textContent?.trim())).toEqual(['File: the workbook cannot be read (end of central directory not found)']);
   });
 });
