@@ -5,6 +5,7 @@ import { Quasar, QSelect } from 'quasar';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import UnitReadingSetImport from '../../../src/components/unit/UnitReadingSetImport.vue';
 import { quasarOptions } from '../../../src/quasar-options';
+import { acceptAttribute, UPLOAD_TYPES } from '../../../shared/uploads/file-types';
 import { resetClientState, scriptFetch, settle } from '../helpers';
 
 enableAutoUnmount(afterEach);
@@ -54,9 +55,36 @@ describe('UnitReadingSetImport', () => {
     await vi.waitFor(() => expect(wrapper.find('[data-test="set-import-errors"]').exists()).toBe(true));
 
     expect(wrapper.findAll('[data-test="set-import-errors"] li').map((li) => li.text())).toEqual([
-      'row 3.value: decimal comma: use a point (3.14)',
-      'row 12.unit: pF or nF',
+      'Row 3, value: decimal comma: use a point (3.14)',
+      'Row 12, unit: pF or nF',
     ]);
     expect(wrapper.emitted('created')).toBeUndefined();
+  });
+
+  it('filters the picker by the readings types and names a PDF at once, sending nothing', async () => {
+    const { requests } = scriptFetch({});
+    const wrapper = render();
+    const input = wrapper.get('input[type="file"]').element as HTMLInputElement;
+    expect(input.accept).toBe(acceptAttribute(UPLOAD_TYPES.unitReadingSet));
+    await wrapper.get('input[data-test="set-import-taken"]').setValue('2024-05-01');
+    Object.defineProperty(input, 'files', { value: [new File(['%PDF-1.7'], 'factory-test-report.pdf', { type: 'application/pdf' })], configurable: true, writable: true });
+    input.dispatchEvent(new Event('change'));
+    await settle();
+    expect(wrapper.get('[data-test="set-import-errors"]').text()).toBe(
+      'factory-test-report.pdf is not a readings file: pick a CSV (.csv), text (.txt) or Excel (.xlsx) file.',
+    );
+    await wrapper.get('[data-test="reading-set-import"]').trigger('submit');
+    await settle();
+    expect(requests).toHaveLength(0);
+  });
+
+  it('shows the server’s refusal of the type as it words it, once', async () => {
+    const message = 'The file is not comma-separated text.';
+    scriptFetch({ 'POST /api/units/12/reading-sets/import': { status: 415, body: { error: { code: 'unsupported_file_type', message, fields: { file: message } } } } });
+    const wrapper = render();
+    await fill(wrapper);
+    await wrapper.get('[data-test="reading-set-import"]').trigger('submit');
+    await vi.waitFor(() => expect(wrapper.find('[data-test="set-import-errors"]').exists()).toBe(true));
+    expect(wrapper.get('[data-test="set-import-errors"]').text()).toBe(message);
   });
 });
