@@ -34,7 +34,7 @@ function render(list: Indicator[] = indicators) {
 }
 
 function rowOf(wrapper: ReturnType<typeof render>, key: string) {
-  const row = wrapper.findAll('[data-test="indicator-row"]').find((r) => r.get('.indicators__key').text() === key);
+  const row = wrapper.findAll('[data-test="indicator-row"]').find((r) => r.attributes('data-key') === key);
   if (!row) throw new Error(`no row ${key}`);
   return row;
 }
@@ -51,7 +51,7 @@ describe('ScreeningIndicatorTable — basis and low confidence', () => {
     expect(basis('sisters.capacitance.CHL.modifiedZ')).toBe('state (absolute value)');
     expect(basis('duty.eventDutyPercent')).toBe('duty');
     expect(basis('capacitance.CL.shiftPercent')).toBe('—');
-    expect(wrapper.findAll('thead th').map((th) => th.text().replace('arrow_upward', ''))).toContain('Compared');
+    expect(wrapper.findAll('thead th').map((th) => th.text())).toContain('Compared');
   });
 
   it('marks a low-confidence item with an icon, the words "Low confidence" and its note; other rows carry no mark', () => {
@@ -67,5 +67,35 @@ describe('ScreeningIndicatorTable — basis and low confidence', () => {
     // The level is still shown as icon and word.
     expect(row.get('[data-test="level-badge"]').text()).toContain('Watch');
     expect(rowOf(wrapper, 'reactance.A.shiftPercent').find('[data-test="indicator-low-confidence"]').exists()).toBe(false);
+  });
+});
+
+describe('ScreeningIndicatorTable — compact', () => {
+  it('names every indicator in words (no code names), flagged rows first, all rows without paging', () => {
+    const wrapper = render();
+    const rows = wrapper.findAll('[data-test="indicator-row"]');
+    expect(rows).toHaveLength(indicators.length);
+    expect(rows.map((r) => r.attributes('data-level'))).toEqual(['investigate', 'investigate', 'watch', 'watch', 'watch', 'watch', 'ok', 'ok']);
+    expect(rows[0].get('[data-test="indicator-label"]').text()).toBe('CHL capacitance shift vs baseline');
+    expect(rowOf(wrapper, 'reactance.A.shiftPercent').get('[data-test="indicator-label"]').text()).toBe('Phase A reactance shift vs baseline');
+    const text = wrapper.get('[data-test="indicator-table"]').text();
+    for (const i of indicators) expect(text).not.toContain(i.key);
+    expect(wrapper.find('.q-table__bottom').exists()).toBe(false);
+  });
+
+  it('shows the rule, source and method of a row on demand, and of every row with "Show rule and source"', async () => {
+    const wrapper = render();
+    const details = (key: string) => rowOf(wrapper, key).get('[data-test="indicator-details"]');
+    expect(details('reactance.A.shiftPercent').isVisible()).toBe(false);
+
+    await rowOf(wrapper, 'reactance.A.shiftPercent').get('[data-test="indicator-details-toggle"]').trigger('click');
+    expect(details('reactance.A.shiftPercent').isVisible()).toBe(true);
+    expect(details('reactance.A.shiftPercent').text()).toContain('Rule: rule');
+    expect(details('reactance.A.shiftPercent').text()).toContain('Source: source');
+    expect(details('reactance.A.shiftPercent').text()).toContain('Method: Leakage reactance');
+    expect(details('capacitance.CL.shiftPercent').isVisible()).toBe(false);
+
+    await wrapper.get('[data-test="indicator-all-details"]').trigger('click');
+    expect(wrapper.findAll('[data-test="indicator-details"]').every((d) => d.isVisible())).toBe(true);
   });
 });

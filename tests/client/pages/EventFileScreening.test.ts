@@ -43,7 +43,8 @@ describe('EventFilePage — screening panel', () => {
     // A result stored without engineRevision was computed with rules revision 1.
     expect(meta).toContain('criteria set 1 · rules revision 1');
     // The banner comes before the evidence.
-    const html = wrapper.get('[data-test="screenings"]').html();
+    const html = wrapper.html();
+    expect(html.indexOf('verdict-banner')).toBeGreaterThan(-1);
     expect(html.indexOf('verdict-banner')).toBeLessThan(html.indexOf('indicator-table'));
   });
 
@@ -59,7 +60,12 @@ describe('EventFilePage — screening panel', () => {
     expect(wrapper.get('[data-test="unreliable-item"]').text()).toContain('Unreliable — repeat the test: CL capacitance');
     expect(wrapper.get('[data-test="proposed-follow-ups"]').text()).toContain('Frequency-response sweep at the next outage');
     expect(wrapper.get('[data-test="screening-panel"] [data-test="cautions"]').text()).toContain('qualified staff');
-    expect(wrapper.get('[data-test="screening-through-fault"] [data-test="duty-per-unit"]').text()).toBe('9.0 × rated');
+    // The duty once, with the fault; the verdict says the largest shot in one line.
+    expect(wrapper.findAll('[data-test="duty-per-unit"]')).toHaveLength(1);
+    expect(wrapper.get('[data-test="fault-section"] [data-test="duty-per-unit"]').text()).toBe('9.0 × rated');
+    expect(wrapper.get('[data-test="verdict-duty"]').text()).toContain('Largest shot 9.0 × rated, 89 % of design force, high duty');
+    // The cautions only beside the verdict.
+    expect(wrapper.findAll('[data-test="cautions"]')).toHaveLength(1);
   });
 
   it('lists every indicator with its value, level word, rule, source and method — rows at watch or above first; a null value shows its note', async () => {
@@ -69,18 +75,21 @@ describe('EventFilePage — screening panel', () => {
     const rows = wrapper.findAll('[data-test="indicator-row"]');
     expect(rows.map((r) => r.attributes('data-level'))).toEqual(['investigate', 'watch', 'ok', 'ok']);
     const chl = rows[0];
-    expect(chl.text()).toContain('capacitance.CHL.shiftPercent');
+    expect(chl.get('[data-test="indicator-label"]').text()).toBe('CHL capacitance shift vs baseline');
+    expect(chl.text()).not.toContain('capacitance.CHL.shiftPercent');
     expect(chl.text()).toContain('3.743 %');
     expect(chl.get('[data-test="level-badge"]').text()).toContain('Investigate');
+    // Rule, source and method on demand (in the page, folded).
     expect(chl.text()).toContain('|shift| ≥ 3 %');
     expect(chl.text()).toContain('utility practice (from memory)');
-    expect(chl.text()).toContain('Capacitance');
+    expect(chl.get('[data-test="indicator-details"]').text()).toContain('Method: Capacitance');
     expect(rows[1].get('[data-test="level-badge"]').text()).toContain('Watch');
     expect(rows[1].text()).toContain('slight');
     expect(rows.map((r) => r.get('.app-level-badge__word').text())).toEqual(['Investigate', 'Watch', 'OK', 'OK']);
-    const nullRow = rows.find((r) => r.text().includes('powerFactor.CH.pf20Percent'))!;
+    const nullRow = rows.find((r) => r.attributes('data-key') === 'powerFactor.CH.pf20Percent')!;
+    expect(nullRow.get('[data-test="indicator-label"]').text()).toBe('CH power factor at 20 °C');
     expect(nullRow.get('[data-test="indicator-note"]').text()).toContain('temperature outside the 10–70 °C table');
-    const okRow = rows.find((r) => r.text().includes('capacitance.CH.shiftPercent'))!;
+    const okRow = rows.find((r) => r.attributes('data-key') === 'capacitance.CH.shiftPercent')!;
     expect(okRow.text()).toContain('0.3526 %');
   });
 
@@ -99,7 +108,7 @@ describe('EventFilePage — screening panel', () => {
     expect(wrapper.get('[data-test="decision-rules"]').text()).toContain('criteria set 2 · rules revision 2');
   });
 
-  it('shows the basis of each indicator, low-confidence marks, all five cautions and the screened duty with its winding current', async () => {
+  it('shows the basis of each indicator, low-confidence marks, all five cautions and the duty with its winding current', async () => {
     const result = screeningResult({
       engineRevision: 2,
       throughFault: { ...screeningResult().throughFault!, windingCurrentFactor: null, currentBasis: 'line-assumed', thermalDurationPercent: null },
@@ -109,16 +118,22 @@ describe('EventFilePage — screening panel', () => {
       ],
     });
     // A phase-to-ground fault measured at the delta LV terminals of the YNd1 unit: no winding-current factor.
-    signedInAs(['engineer'], screenedEvent({ type: 'phase-to-ground', screenings: [storedScreening({ criteriaVersion: 2, result })] }));
+    const event = screenedEvent({ type: 'phase-to-ground', screenings: [storedScreening({ criteriaVersion: 2, result })] });
+    event.throughFault = { ...event.throughFault!, windingCurrentFactor: null, currentBasis: 'line-assumed' };
+    signedInAs(['engineer'], event);
     const { wrapper } = await mountApp('/events/11');
 
     const rows = wrapper.findAll('[data-test="indicator-row"]');
     expect(rows.map((r) => r.get('[data-test="indicator-basis-text"]').text())).toEqual(['against own baseline', 'against own baseline']);
     expect(rows[1].get('[data-test="indicator-low-confidence"]').text()).toContain('Low confidence: winding temperature unknown');
+    // Compact beside the verdict: the first caution shown, all five behind "All cautions".
     const cautions = wrapper.get('[data-test="screening-panel"] [data-test="cautions"]').findAll('li');
     expect(cautions).toHaveLength(5);
-    const screened = wrapper.get('[data-test="screening-through-fault"]');
-    expect(screened.get('[data-test="duty-winding-reason"]').text()).toContain('ground fault measured at delta terminals');
+    expect(cautions.map((c) => c.isVisible())).toEqual([true, false, false, false, false]);
+    await wrapper.get('[data-test="cautions-all"]').trigger('click');
+    expect(cautions.every((c) => c.isVisible())).toBe(true);
+    const fault = wrapper.get('[data-test="fault-section"]');
+    expect(fault.get('[data-test="duty-winding-reason"]').text()).toContain('ground fault measured at delta terminals');
   });
 
   it('shows only watch-and-above rows when asked', async () => {
