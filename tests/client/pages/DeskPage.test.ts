@@ -115,6 +115,9 @@ describe('DeskPage', () => {
     expect(events[0].text()).toContain('KVP-QL-T1');
     expect(events[0].text()).toContain('Quarry Lane');
     expect(events[0].text()).toContain('2026-07-04 23:05 +01:00 Europe/London');
+    // The fault by its type and time, not by its database id.
+    expect(events[0].text()).toMatch(/(Three-phase|Phase-to-phase|Phase-to-phase-to-ground|Phase-to-ground) fault · 2026-07-04/);
+    expect(events[0].text()).not.toMatch(/event 14/i);
     expect(events[0].get('[data-test="status-chip"]').text()).toContain('Logged');
     expect(events[1].attributes('href')).toBe('/events/11');
     expect(queries(requests, '/api/events').map((q) => q.get('status'))).toEqual(['logged,testing']);
@@ -158,6 +161,8 @@ describe('DeskPage', () => {
     expect(items.map((f) => f.text().includes('Oil sample 24 h after re-energising'))).toEqual([true, false]);
     expect(items[0].text()).toContain('KVP-HX-T2');
     expect(items[0].text()).toContain('Harrow Cross');
+    // 03:12 UTC on 1 July is 04:12 in London.
+    expect(items[0].text()).toContain('fault of 1 Jul 2026 04:12');
     // 08:00 UTC on 2 July is 09:00 in London.
     expect(items[0].get('[data-test="follow-up-due"]').text()).toBe('due 2026-07-02 09:00 +01:00 Europe/London');
     expect(items[0].get('[data-test="follow-up-overdue"]').text()).toBe('3 days overdue');
