@@ -45,7 +45,7 @@ describe('OutboxPage (/dev/outbox)', () => {
     await items[0].get('.q-item').trigger('click');
     await settle();
     expect(items[0].get('[data-test="outbox-text"]').text()).toContain('CHL capacitance shifted +3.74 %.');
-    expect(items[0].get('[data-test="outbox-attachments"]').text()).toContain('gapsight-screening-61.pdf (application/pdf, 47 kB)');
+    expect(items[0].get('[data-test="outbox-attachments"]').text()).toContain('gapsight-screening-61.pdf (PDF document, 47 kB)');
   });
 
   it("opens a message's attachment from the server's outbox attachment route", async () => {
