@@ -13,6 +13,9 @@ export const useSessionStore = defineStore('session', () => {
   /** Set when the stored token could not be checked because the server did not answer (not when it was refused). */
   const restoreError = ref<ApiError | null>(null);
   let restoring: Promise<void> | null = null;
+  /** The server refused the token while a page was open: the page stays (its typed work with it) until the same
+   * person signs in again over it, or signs out. Nothing is sent with a token meanwhile. */
+  const expired = ref(false);
 
   const isSignedIn = computed(() => token.value !== null && user.value !== null);
 
@@ -28,6 +31,7 @@ export const useSessionStore = defineStore('session', () => {
     writeStoredToken(answer.token);
     token.value = answer.token;
     user.value = answer.user;
+    expired.value = false;
     restoreError.value = null;
     restoring = null;
     return answer.user;
@@ -48,7 +52,14 @@ export const useSessionStore = defineStore('session', () => {
     writeStoredToken(null);
     token.value = null;
     user.value = null;
+    expired.value = false;
     restoring = null;
+  }
+
+  // The token was refused mid-page: forget it (so no request sends it again) but keep the user and the page.
+  function markExpired(): void {
+    writeStoredToken(null);
+    expired.value = true;
   }
 
   // After a page load: ask the server who the stored token belongs to. Runs once; a refused token signs out.
@@ -72,5 +83,5 @@ export const useSessionStore = defineStore('session', () => {
     return restoring;
   }
 
-  return { token, user, restoreError, isSignedIn, mustChangePassword, hasRole, signIn, signOut, restore, changePassword };
+  return { token, user, restoreError, expired, isSignedIn, mustChangePassword, hasRole, signIn, signOut, markExpired, restore, changePassword };
 });

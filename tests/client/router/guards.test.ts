@@ -1,7 +1,7 @@
 import { createPinia, setActivePinia } from 'pinia';
 import { Quasar } from 'quasar';
 import { createApp } from 'vue';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { createMemoryHistory, type Router, type RouteRecordRaw } from 'vue-router';
 import type { Role } from '../../../src/api/auth';
 import { api } from '../../../src/api/client';
@@ -9,7 +9,7 @@ import { quasarOptions } from '../../../src/quasar-options';
 import { createAppRouter } from '../../../src/router';
 import { routes } from '../../../src/router/routes';
 import { useSessionStore } from '../../../src/stores/session';
-import { makeUser, resetClientState, scriptFetch, settle, storeToken } from '../helpers';
+import { inBody, makeUser, resetClientState, scriptFetch, settle, storeToken, typeInDocument } from '../helpers';
 
 const page = () => Promise.resolve({ default: { render: () => null } });
 
@@ -131,18 +131,50 @@ describe('router guards', () => {
     expect(router.currentRoute.value.params.pathMatch).toEqual(['no', 'such', 'page']);
   });
 
-  it('ends the session and returns to sign-in (redirecting back) when the server refuses the token later', async () => {
+  it('asks to sign in again over the page when the server refuses the token later, and stays on the page once signed in', async () => {
     const { fetchMock } = signedInAs('engineer');
+    const router = makeRouter();
+    await router.push('/criteria');
+    const { requests } = scriptFetch({
+      'GET /api/units': { status: 401, body: { error: { code: 'token_expired', message: 'Expired.' } } },
+      'POST /api/auth/login': { body: { token: 'fresh', user: makeUser({ roles: ['engineer'] }) } },
+    });
+
+    await expect(api.get('/units')).rejects.toMatchObject({ status: 401 });
+    await settle();
+
+    expect(fetchMock).toHaveBeenCalledTimes(1);
+    // The page stays (with whatever was typed on it); the refused token is not sent again.
+    expect(router.currentRoute.value.name).toBe('criteria');
+    expect(localStorage.getItem('gapsight.token')).toBeNull();
+    expect(useSessionStore().expired).toBe(true);
+    expect(inBody('reauth-dialog')!.textContent).toContain('Your session has ended');
+    expect(inBody('reauth-dialog')!.textContent).toContain(makeUser().email);
+
+    await typeInDocument('reauth-password', 'gapsight-demo');
+    inBody('reauth-submit')!.click();
+    await settle();
+    await vi.waitFor(() => expect(inBody('reauth-dialog')).toBeNull());
+
+    expect(requests.find((r) => r.url === '/api/auth/login')!.body).toEqual({ email: makeUser().email, password: 'gapsight-demo' });
+    expect(router.currentRoute.value.name).toBe('criteria');
+    expect(useSessionStore().expired).toBe(false);
+    expect(localStorage.getItem('gapsight.token')).toBe('fresh');
+  });
+
+  it('ends the session and returns to sign-in (redirecting back) when the user signs out instead', async () => {
+    signedInAs('engineer');
     const router = makeRouter();
     await router.push('/criteria');
     scriptFetch({ 'GET /api/units': { status: 401, body: { error: { code: 'token_expired', message: 'Expired.' } } } });
 
     await expect(api.get('/units')).rejects.toMatchObject({ status: 401 });
     await settle();
+    inBody('reauth-sign-out')!.click();
+    await settle();
 
-    expect(fetchMock).toHaveBeenCalledTimes(1);
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('sign-in'));
     expect(useSessionStore().isSignedIn).toBe(false);
-    expect(router.currentRoute.value.name).toBe('sign-in');
     expect(router.currentRoute.value.query.redirect).toBe('/criteria');
   });
 
