@@ -574,3 +574,14 @@ function humanise(key: string): string {
 export function fieldLabel(entity: string, key: string): string {
   return FIELD_LABELS[entity]?.[key] ?? EVENT_FIELDS[key] ?? READING_SET_FIELDS[key] ?? humanise(key);
 }
+
+/**
+ * Free text (an engine reason, a note) with the protection codes it quotes put in words: "Internal protection operated
+ * (differential, buchholz-trip)" → "… (differential, Buchholz trip)". Other text is left as it is.
+ */
+export function codesInWords(text: string): string {
+  return text.replace(/(^|[^\w-])([a-z]+(?:-[a-z]+)+)(?![\w-])/g, (all, lead: string, code: string) => {
+    const label = PROTECTION_LABELS[code as ProtectionCode];
+    return label === undefined ? all : `${lead}${inSentence(label)}`;
+  });
+}

@@ -3,7 +3,7 @@
 import type { ScreeningReportData } from './report-data.js';
 import { PALETTE, PDF_ATTACHED_LINE, cautionsOf, decisiveReason } from './report-text.js';
 import { escapeHtml, type ManagerMail } from './manager-mail.js';
-import { OUTCOME_LABELS, RECOMMENDATION_WORD } from '../../shared/vocabulary.js';
+import { OUTCOME_LABELS, RECOMMENDATION_WORD, codesInWords } from '../../shared/vocabulary.js';
 import { formatInstant } from '../../shared/format.js';
 import type { DecisionOutcome } from '../../shared/schemas/enums.js';
 
@@ -38,7 +38,7 @@ function sections(d: ScreeningReportData, f: DecisionMailFacts): { title: string
         f.againstRecommendation
           ? `This decision goes AGAINST the screening's ${rec} recommendation.`
           : `This decision follows the screening's ${rec} recommendation.`,
-        `Screening's reason: ${decisiveReason(d.result)}`,
+        `Screening's reason: ${codesInWords(decisiveReason(d.result))}`,
         `Screened: ${formatInstant(d.screening.computedAt, tz)}; fault: ${formatInstant(d.event.occurredAt, tz)}`,
       ],
     },

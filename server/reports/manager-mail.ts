@@ -27,7 +27,7 @@ import {
   testsInWords,
   windingCurrentInWords,
 } from './report-text.js';
-import { RECOMMENDATION_WORD } from '../../shared/vocabulary.js';
+import { RECOMMENDATION_WORD, codesInWords } from '../../shared/vocabulary.js';
 import { formatInstant } from '../../shared/format.js';
 
 export interface ManagerMail {
@@ -61,7 +61,7 @@ const GLYPH = { go: '✓', conditional: '▲', 'no-go': '✕' } as const;
 export function managerMailSubject(d: ScreeningReportData): string {
   const word = recommendationHeadWord(d);
   const prefix = d.screening.comparison ? '[Gapsight] Comparison run, not for decision: ' : '[Gapsight] ';
-  return oneLine(`${prefix}${word} — ${d.unit.serial} (${d.site.name}): ${shortReason(decisiveReason(d.result))}`);
+  return oneLine(codesInWords(`${prefix}${word} — ${d.unit.serial} (${d.site.name}): ${shortReason(decisiveReason(d.result))}`));
 }
 
 function sections(d: ScreeningReportData): { headline: string; meaning: string; reason: string; body: Section[] } {
@@ -144,7 +144,10 @@ function sections(d: ScreeningReportData): { headline: string; meaning: string; 
   body.push({ title: 'Cautions', lines: cautionsOf(r) });
   body.push({ title: 'Open the event', lines: [d.eventUrl, 'Sign the decision off in Gapsight.', PDF_ATTACHED_LINE] });
 
-  return { headline, meaning, reason, body };
+  // Engine reasons and follow-ups quote protection codes ("buchholz-trip"): the mail says them in words, like the screen.
+  const words = (l: string) => (l === d.eventUrl ? l : codesInWords(l));
+  const worded = body.map((sec) => ({ ...sec, lines: sec.lines?.map(words), items: sec.items?.map(words), after: sec.after?.map(words) }));
+  return { headline, meaning: codesInWords(meaning), reason: codesInWords(reason), body: worded };
 }
 
 function renderText(s: ReturnType<typeof sections>): string {

@@ -23,6 +23,7 @@ import {
   RECOMMENDATION_WORD,
   STATUS_LABELS,
   basisLabel,
+  codesInWords,
   inSentence,
   indicatorLabel,
   protectionWord,
@@ -111,5 +112,26 @@ describe('shared vocabulary', () => {
   it('the built-in criteria sets list the same internal protections as the leaf module: the five of the case format', () => {
     for (const criteria of BUILT_IN_CRITERIA) expect(criteria.verdict.internalProtections).toEqual([...INTERNAL_PROTECTIONS]);
     expect(INTERNAL_PROTECTIONS).toEqual(['differential', 'restricted-earth-fault', 'buchholz-trip', 'sudden-pressure', 'pressure-relief']);
+  });
+});
+
+describe('codes quoted in free text', () => {
+  it('puts the protection codes an engine reason quotes in words, and leaves other hyphenated words alone', () => {
+    expect(codesInWords('Internal protection operated (differential, buchholz-trip): investigate as an internal fault')).toBe(
+      'Internal protection operated (differential, Buchholz trip): investigate as an internal fault',
+    );
+    expect(codesInWords('pressure-relief and restricted-earth-fault')).toBe('pressure relief and restricted earth fault');
+    expect(codesInWords('phase-to-ground fault, post-fault tests, re-energising')).toBe('phase-to-ground fault, post-fault tests, re-energising');
+  });
+
+  it('leaves no protection code in the reason the engine gives for an internal fault', () => {
+    // The engine's reason on a case whose internal protections all operated.
+    const c = parseCase(JSON.parse(readFileSync(caseFiles[0], 'utf8')));
+    if (!c.ok) throw new Error(`${caseFiles[0]} is not a valid case`);
+    const internal = protectionSchema.options.filter((p) => INTERNAL_PROTECTIONS.includes(p as never));
+    const result = screenCase({ ...c.value, fault: { ...c.value.fault, protectionOperated: internal } });
+    const reasons = result.reasons.join(' | ');
+    expect(reasons).toMatch(/buchholz-trip/);
+    for (const p of protectionSchema.options.filter((x) => x.includes('-'))) expect(codesInWords(reasons)).not.toMatch(new RegExp(`\\b${p}\\b`));
   });
 });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { buildManagerMail, escapeHtml } from '../../../server/reports/manager-mail.js';
+import { buildDecisionMail } from '../../../server/reports/decision-mail.js';
 import { CAUTIONS } from '../../../shared/screening/verdict.js';
 import {
   deltaMeasuredReport,
@@ -152,6 +153,13 @@ describe("manager's e-mail (buildManagerMail)", () => {
     expect(m.html.toLowerCase()).toContain('internal fault suspected');
     expect(m.text).toContain('NO-GO: hold: do not re-energise.');
     expect(m.text).toContain('Investigate as an internal fault (internal inspection) before re-energising');
+    // The engine's reasons quote protection codes; the mail says them in words, as the screen does.
+    expect(m.text).toContain('Why: Internal protection operated (differential, Buchholz trip): investigate as an internal fault');
+    for (const code of ['buchholz-trip', 'buchholz-alarm', 'sudden-pressure', 'pressure-relief', 'restricted-earth-fault']) {
+      expect(m.text).not.toContain(code);
+      expect(m.html).not.toContain(code);
+      expect(m.subject).not.toContain(code);
+    }
   });
 
   it('is pure: the input is not changed and the same input gives the same mail', () => {
@@ -333,5 +341,21 @@ describe("manager's e-mail under rules revision 2", () => {
       }
     }
     expect(buildManagerMail(storedRevision1Report()).text).toContain('A go cannot rule out deformation that the tests taken cannot see.');
+  });
+});
+
+describe('decision e-mail words', () => {
+  it("gives the screening's reason with protections in words and keeps the cautions", () => {
+    const m = buildDecisionMail(internalFaultReport(), {
+      outcome: 'hold',
+      restrictions: null,
+      reason: 'Internal inspection first',
+      againstRecommendation: false,
+      signedAt: '2026-08-17T09:00:00.000Z',
+      signedBy: { name: 'Morgan Manager', email: 'manager@kestrel-valley.example' },
+    });
+    expect(m.text).toContain("Screening's reason: Internal protection operated (differential, Buchholz trip): investigate as an internal fault");
+    expect(m.text).not.toContain('buchholz-trip');
+    for (const c of CAUTIONS) expect(m.text).toContain(c);
   });
 });
