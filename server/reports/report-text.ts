@@ -559,12 +559,15 @@ export function sourcesInDetail(indicators: readonly Indicator[]): string[] {
 
 const DOTTED_CODE = /\b[a-z][A-Za-z0-9]*(?:\.[A-Za-z0-9-]+)+/g;
 
-/** Indicator keys written in an engine text ("judged on its duration: duty.thermalDurationPercent") put in words. */
+/** Indicator keys written in an engine text ("judged on its duration: duty.thermalDurationPercent") put in words, and
+ * the nameplate voltages a formula names by their fields ("hvKV/(√3·lvKV)": "HV kV/(√3·LV kV)"). */
 export function codesInWords(text: string): string {
-  return text.replace(DOTTED_CODE, (code) => {
-    const label = indicatorLabel(code);
-    return label === code ? code : inSentence(label);
-  });
+  return text
+    .replace(DOTTED_CODE, (code) => {
+      const label = indicatorLabel(code);
+      return label === code ? code : inSentence(label);
+    })
+    .replace(/\b(hv|lv|tv)KV\b/g, (_, side: string) => `${side.toUpperCase()} kV`);
 }
 
 /** A field name the PDF has no label for ("someNewField"), in words ("some new field"). */

@@ -229,7 +229,7 @@ function indicatorTable(indicators: readonly Indicator[], tf: ThroughFault | nul
   for (const i of sorted) {
     const valueText = codesInWords(indicatorValueText(i, tf));
     const asWords = i.value === null || valueText === THERMAL_REGION_DUTY;
-    const extra = [i.reference ? `vs ${i.reference}` : '', i.value !== null && i.note && !i.lowConfidence ? codesInWords(i.note) : ''].filter(Boolean).join(' · ');
+    const extra = [i.reference ? `vs ${codesInWords(i.reference)}` : '', i.value !== null && i.note && !i.lowConfidence ? codesInWords(i.note) : ''].filter(Boolean).join(' · ');
     const low = i.lowConfidence ? [{ text: `LOW CONFIDENCE: ${i.note ? codesInWords(i.note) : 'judged under a known doubt'}`, style: 'small', bold: true, color: PALETTE.watch }] : [];
     const basis = basisWords(i);
     rows.push([

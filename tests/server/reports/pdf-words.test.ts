@@ -73,6 +73,8 @@ const KNOWN_CODES = [
   'capacitance.CHL.shiftPercent',
   'line-converted',
   'line-assumed',
+  'hvKV',
+  'lvKV',
 ];
 
 /** A code, not a word: dotted, camelCase or hyphenated lower-case ("reactance.A", "highDuty", "buchholz-trip"). */
@@ -138,6 +140,7 @@ describe('the PDF names things in words, not codes', () => {
     expect(codesInWords('informative for a thermal-region event (judged on its duration: duty.thermalDurationPercent)')).toBe(
       "informative for a thermal-region event (judged on its duration: shot time (of the thermal curve's allowed time))",
     );
+    expect(codesInWords('nameplate ratio 2.30940 = hvKV/(√3·lvKV) (YNd1)')).toBe('nameplate ratio 2.30940 = HV kV/(√3·LV kV) (YNd1)');
     // Not a key: left as it is (addresses, version numbers).
     expect(codesInWords('priya.natarajan@kestrel-valley.example, IEEE C57.12.90, e.g. 0.35 s')).toBe('priya.natarajan@kestrel-valley.example, IEEE C57.12.90, e.g. 0.35 s');
   });
