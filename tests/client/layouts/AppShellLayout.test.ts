@@ -126,7 +126,10 @@ describe('AppShellLayout', () => {
     const { wrapper } = await mountApp('/');
 
     expect(wrapper.get('a.gs-skip-link').attributes('href')).toBe('#main-content');
-    expect(wrapper.find('main#main-content').exists()).toBe(true);
+    expect(wrapper.find('#main-content').exists()).toBe(true);
+    // One `main` landmark: the page's own (q-page), inside the skip link's target.
+    expect(document.querySelectorAll('main')).toHaveLength(1);
+    expect(wrapper.find('#main-content main.q-page').exists()).toBe(true);
   });
 
   it('states that the recommendation is decision support for qualified staff', async () => {
