@@ -5,7 +5,7 @@ import type { Indicator, Level, Method, Recommendation, ThroughFault } from '../
 import type { Criteria } from './criteria.js';
 import { capLevel, levelRank, maxLevel, raiseOneStep } from './levels.js';
 import { preFaultGas } from './gas.js';
-import { analyseSweep, compareTraces, phaseComparisons, sweepTapMismatch, sweepWinding } from './sweep.js';
+import { analyseSweep, compareTraces, NO_BASELINE_TRACE_NOTE, phaseComparisons, sweepTapMismatch, sweepWinding } from './sweep.js';
 import { thermalCurveTimeS } from './through-fault.js';
 import { CAUTIONS } from './cautions.js';
 
@@ -29,6 +29,9 @@ export const FOLLOW_UPS = {
 /** Whether the unit stayed in service through the event (it was not de-energised). */
 export const stayedInService = (c: GapsightCase): boolean => !!c.fault && c.fault.transformerTripped === false;
 
+/** Whether a required item is a sweep that was taken but has no baseline trace to compare with (so it is not judged). */
+export const lacksBaselineTrace = (item: string): boolean => /^sweep\.(hv|lv|tv)(\.[ABC])?\.no-baseline$/.test(item);
+
 /** Words for a required item named by its case field. */
 export function describeRequired(item: string): string {
   const m = /^capacitance\.(.+)$/.exec(item);
@@ -37,6 +40,9 @@ export function describeRequired(item: string): string {
   if (r) return `reactance phase ${r[1]}`;
   const sw = /^sweep\.(hv|lv|tv)(?:\.([ABC]))?$/.exec(item);
   if (sw) return sw[2] ? `sweep of ${sw[1].toUpperCase()} phase ${sw[2]}` : `${sw[1].toUpperCase()} open-circuit sweep`;
+  // A phase whose traces are there but have no baseline trace: not missing, not judged.
+  const nb = /^sweep\.(hv|lv|tv)(?:\.([ABC]))?\.no-baseline$/.exec(item);
+  if (nb) return `${nb[2] ? `sweep of ${nb[1].toUpperCase()} phase ${nb[2]}` : `${nb[1].toUpperCase()} open-circuit sweep`} (${NO_BASELINE_TRACE_NOTE})`;
   const label = /^sweep\.(.+)$/.exec(item);
   if (label) return `sweep ${label[1]}`;
   const words: Record<string, string> = {
@@ -116,7 +122,8 @@ export function requiredSweeps(c: GapsightCase, criteria: Criteria): SweepNeed {
   if (c.unit.phases === 1) {
     if (hvOc.some((s) => judged(s) && !sweepTapMismatch(s))) return { missing: [], unreliable: [] };
     const bad = hvOc.filter((s) => judged(s) && sweepTapMismatch(s));
-    return bad.length ? { missing: [], unreliable: [`sweep.${bad[0].label}`] } : { missing: ['sweep.hv'], unreliable: [] };
+    if (bad.length) return { missing: [], unreliable: [`sweep.${bad[0].label}`] };
+    return { missing: [hvOc.length > 0 && hvOc.every((s) => !s.baseline?.length) ? 'sweep.hv.no-baseline' : 'sweep.hv'], unreliable: [] };
   }
   const ac = phaseComparisons(c.sweeps ?? []).find((p) => p.winding === 'hv');
   const acJudged = !!ac && compareTraces(ac.a.postFault, ac.c.postFault, criteria, { bands: ['mid', 'high'] }).class !== null;
@@ -128,6 +135,8 @@ export function requiredSweeps(c: GapsightCase, criteria: Criteria): SweepNeed {
     if (acJudged && (phase !== 'B' || traces.some((s) => !sweepTapMismatch(s)))) continue;
     const bad = traces.find((s) => sweepTapMismatch(s));
     if (bad) unreliable.push(`sweep.${bad.label}`);
+    // Traces of the phase without a baseline trace are there but cannot be judged: said so, not "missing".
+    else if (traces.length > 0 && traces.every((s) => !s.baseline?.length)) missing.push(`sweep.hv.${phase}.no-baseline`);
     else missing.push(`sweep.hv.${phase}`);
   }
   return { missing, unreliable };

@@ -18,6 +18,7 @@ import {
   windingCurrentFactor,
 } from '../../shared/screening/index.js';
 import { cleanCase, edit, highDutyCompleteCase } from './case-builder.js';
+import { describeRequired, lacksBaselineTrace } from '../../shared/screening/verdict.js';
 
 const ind = (r: ReturnType<typeof screenCase>, key: string) => r.indicators.find((i) => i.key === key);
 const example = (name: string): GapsightCase => JSON.parse(readFileSync(join(import.meta.dirname, '../../examples/cases', name), 'utf8'));
@@ -235,6 +236,28 @@ describe('required tests', () => {
     expect(r.missing).toEqual(['sweep.hv.B', 'sweep.hv.C']);
     expect(r.recommendation).toBe('no-go');
     expect(r.reasons[0]).toMatch(/hold pending tests: sweeps of HV phases B and C/);
+  });
+
+  it('says a phase whose trace has no baseline trace is not judged for that reason, not that its sweep is missing', () => {
+    const r = screenCase(edit(highDutyCompleteCase(), (d) => {
+      d.sweeps = d.sweeps!.map((s) => (s.phase === 'A' ? { ...s, baseline: undefined } : s));
+    }));
+    // Still required (Gapsight rule, revision 2: each HV phase needs a judged trace), but named for what it lacks.
+    expect(r.missing).toEqual(['sweep.hv.A.no-baseline']);
+    expect(lacksBaselineTrace(r.missing[0])).toBe(true);
+    expect(lacksBaselineTrace('sweep.hv.A')).toBe(false);
+    expect(describeRequired('sweep.hv.A.no-baseline')).toBe('sweep of HV phase A (no baseline trace to compare with)');
+    expect(describeRequired('sweep.hv.no-baseline')).toBe('HV open-circuit sweep (no baseline trace to compare with)');
+    expect(r.recommendation).toBe('no-go');
+    expect(r.reasons[0]).toMatch(/hold pending tests: sweep of HV phase A \(no baseline trace to compare with\)$/);
+  });
+
+  it('says the same of a single-phase unit whose only trace has no baseline trace', () => {
+    const r = screenCase(edit(highDutyCompleteCase(), (d) => {
+      d.unit.phases = 1;
+      d.sweeps = d.sweeps!.slice(0, 1).map((s) => ({ ...s, baseline: undefined }));
+    }));
+    expect(r.missing).toContain('sweep.hv.no-baseline');
   });
 
   it('accepts phases A and C compared with each other, and B present, when there is no baseline trace', () => {
