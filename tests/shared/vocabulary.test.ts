@@ -129,7 +129,7 @@ describe('codes quoted in free text', () => {
     const c = parseCase(JSON.parse(readFileSync(caseFiles[0], 'utf8')));
     if (!c.ok) throw new Error(`${caseFiles[0]} is not a valid case`);
     const internal = protectionSchema.options.filter((p) => INTERNAL_PROTECTIONS.includes(p as never));
-    const result = screenCase({ ...c.value, fault: { ...c.value.fault, protectionOperated: internal } });
+    const result = screenCase({ ...c.value, fault: { ...c.value.fault!, protectionOperated: internal } });
     const reasons = result.reasons.join(' | ');
     expect(reasons).toMatch(/buchholz-trip/);
     for (const p of protectionSchema.options.filter((x) => x.includes('-'))) expect(codesInWords(reasons)).not.toMatch(new RegExp(`\\b${p}\\b`));
