@@ -1,0 +1,98 @@
+import type { Browser, Page } from 'playwright-core';
+import { DEMO_PASSWORD } from '../../server/db/seed/demo-users.js';
+
+// Shared steps of the layout and accessibility browser tests: demo tokens, a signed-in page at a width, the API.
+
+export type DemoRole = 'admin' | 'protection' | 'tester' | 'manager' | 'engineer';
+
+export function demoApi(baseUrl: string) {
+  const tokens = new Map<DemoRole, string>();
+  async function token(role: DemoRole): Promise<string> {
+    let t = tokens.get(role);
+    if (!t) {
+      const r = await fetch(`${baseUrl}/api/auth/login`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ email: `${role}@kestrel-valley.example`, password: DEMO_PASSWORD }),
+      });
+      if (!r.ok) throw new Error(`sign-in of ${role} failed: ${r.status}`);
+      t = ((await r.json()) as { token: string }).token;
+      tokens.set(role, t);
+    }
+    return t;
+  }
+  async function call<T>(role: DemoRole, method: string, path: string, body?: unknown): Promise<T> {
+    const r = await fetch(`${baseUrl}/api${path}`, {
+      method,
+      headers: { authorization: `Bearer ${await token(role)}`, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
+    const text = await r.text();
+    if (!r.ok) throw new Error(`${method} ${path} as ${role}: ${r.status} ${text}`);
+    return (text ? JSON.parse(text) : null) as T;
+  }
+  return { token, call };
+}
+
+/** A page signed in as `role` (token in local storage, as the client keeps it), at `width` × 900, opened on `path`. */
+export async function openAs(browser: Browser, baseUrl: string, api: ReturnType<typeof demoApi>, role: DemoRole | null, path: string, width = 1440): Promise<Page> {
+  const page = await browser.newPage({ viewport: { width, height: 900 } });
+  await page.goto(`${baseUrl}/sign-in`);
+  if (role) {
+    const token = await api.token(role);
+    await page.evaluate((t) => localStorage.setItem('gapsight.token', t), token);
+  }
+  await page.goto(`${baseUrl}${path}`);
+  await settled(page);
+  return page;
+}
+
+/** Waits until the page's requests are answered and no load spinner is left. */
+export async function settled(page: Page): Promise<void> {
+  await page.waitForLoadState('networkidle');
+  await page.waitForSelector('main');
+  await page.waitForFunction(() => !document.querySelector('[data-test$="-loading"], .q-table__linear-progress'), null, { timeout: 15_000 });
+}
+
+/** The document's horizontal overflow: how far its scroll width goes beyond the viewport, and the widest culprits. */
+export async function overflowOf(page: Page): Promise<{ scrollWidth: number; clientWidth: number; culprits: string[] }> {
+  return page.evaluate(() => {
+    const root = document.documentElement;
+    const limit = root.clientWidth;
+    const culprits: string[] = [];
+    for (const el of Array.from(document.querySelectorAll('body *'))) {
+      const box = el.getBoundingClientRect();
+      if (box.width > 0 && box.right > limit + 1 && culprits.length < 8) {
+        const parent = el.parentElement?.closest('[data-test]');
+        culprits.push(`${el.tagName.toLowerCase()}${el.getAttribute('data-test') ? `[data-test=${el.getAttribute('data-test')}]` : ''}.${String(el.className).split(' ').slice(0, 2).join('.')} right=${Math.round(box.right)} in ${parent?.getAttribute('data-test') ?? 'page'}`);
+      }
+    }
+    return { scrollWidth: root.scrollWidth, clientWidth: limit, culprits };
+  });
+}
+
+// Invented readings of a 40 MVA 132/33 kV two-winding unit, as in the server's screening tests.
+export const factorySet = { kind: 'factory', takenAt: '2019-05-02T00:00:00Z', temperatureC: 28, tapPosition: '9b', capacitancePF: { CH: 3120, CL: 9870, CHL: 5210 }, reactance: { A: { percent: 11.62 }, B: { percent: 11.58 }, C: { percent: 11.66 } } };
+
+/** A unit of the demo's first site and design, with a factory set: a place for a test's own events. */
+export async function makeTestUnit(api: ReturnType<typeof demoApi>, serial: string): Promise<number> {
+  const sites = await api.call<{ id: number }[]>('admin', 'GET', '/sites');
+  const designs = await api.call<{ id: number }[]>('admin', 'GET', '/designs');
+  const unit = await api.call<{ id: number }>('admin', 'POST', '/units', { serial, position: 'T9', siteId: sites[0].id, designId: designs[0].id, year: 2010, phases: 3, hvKV: 132, lvKV: 33, ratedKVA: 40000, impedancePercent: 10.5 });
+  await api.call('tester', 'POST', `/units/${unit.id}/reading-sets`, factorySet);
+  return unit.id;
+}
+
+/** A fault on the unit `hoursAgo` hours before now (tripped, 1 kA three-phase on the LV side). */
+export async function logFault(api: ReturnType<typeof demoApi>, unitId: number, hoursAgo: number): Promise<number> {
+  const occurredAt = new Date(Date.now() - hoursAgo * 3600_000).toISOString();
+  const ev = await api.call<{ id: number }>('protection', 'POST', '/events', { unitId, occurredAt, type: 'three-phase', side: 'lv', shots: [{ currentKA: 1, durationS: 0.1 }], notes: 'Feeder 4 cable fault (browser layout test)' });
+  return ev.id;
+}
+
+/** A post-fault session an hour after the fault, then a screening: the event is screened and awaits the decision. */
+export async function screenEvent(api: ReturnType<typeof demoApi>, eventId: number, hoursAgo: number): Promise<void> {
+  const takenAt = new Date(Date.now() - hoursAgo * 3600_000).toISOString();
+  await api.call('tester', 'POST', `/events/${eventId}/sessions`, { takenAt, temperatureC: 28, tapPosition: '9b', humidityPercent: 40, instrument: 'M4100', capacitancePF: { CH: 3120, CL: 9870, CHL: 5210 }, reactance: { A: { percent: 11.62 }, B: { percent: 11.58 }, C: { percent: 11.66 } } });
+  await api.call('tester', 'POST', `/events/${eventId}/screenings`, {});
+}
