@@ -22,7 +22,8 @@ import {
   storedRevision1Report,
   thermalRegionReport,
 } from './report-fixtures.js';
-import { pdfRuns, pdfText } from './pdf-text.js';
+import { pdfRuns, pdfText, renderedRuns } from './pdf-text.js';
+import { headlineOf } from '../../../server/reports/report-text.js';
 
 interface Font {
   hasGlyphForCodePoint(cp: number): boolean;
@@ -130,6 +131,27 @@ describe('PDF glyphs: every printed character exists in the embedded font it is 
     const unprintable = [...chars].filter((ch) => !PDF_SYMBOL_CHARACTERS.includes(ch) && missingIn(ch, roboto).length > 0);
     expect(unprintable).toEqual([]);
   });
+
+  it('a character drawn in a font that lacks it is seen in the rendered PDF (the check below can fail)', async () => {
+    const pdf = await renderPdf({ content: [{ text: 'PF20 ≥ 1 % → watch' }], defaultStyle: { font: 'Roboto' } });
+    const runs = renderedRuns(pdf);
+    expect(runs.map((r) => r.text).join('')).toContain('PF20');
+    expect(runs.reduce((n, r) => n + r.notdef, 0)).toBe(1); // the arrow, in Roboto
+  });
+
+  for (const [name, make] of RICH.slice(0, 5)) {
+    it(`${name}: the rendered PDF draws every character with a glyph of its font, the arrows in the symbol font`, async () => {
+      const d = make();
+      const runs = renderedRuns(await renderPdf(buildReportDocDefinition(d)));
+      expect(runs.length).toBeGreaterThan(100);
+      expect(runs.filter((r) => r.notdef > 0)).toEqual([]);
+      const text = runs.map((r) => r.text).join('');
+      expect(text).not.toContain('\uFFFD');
+      expect(text.replace(/\s+/g, '')).toContain(headlineOf(d).title.replace(/\s+/g, ''));
+      for (const r of runs.filter((x) => /[→↑↓]/.test(x.text))) expect(r.font).toBe('FontAwesome7Free-Solid');
+      if (pdfText(buildReportDocDefinition(d)).includes('→')) expect(runs.some((r) => r.text.includes('→'))).toBe(true);
+    });
+  }
 
   it('embeds the symbol font in the rendered PDF beside Roboto', async () => {
     const pdf = (await renderPdf(buildReportDocDefinition(demoRecentEventScreened()))).toString('latin1');
