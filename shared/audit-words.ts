@@ -432,7 +432,7 @@ function generic(a: AuditEntryFacts, p: string, ctx: AuditWordsContext): string 
 /** The entry as one sentence, ending with a full stop. */
 export function auditSentence(a: AuditEntryFacts, ctx: AuditWordsContext): string {
   const s = sentenceOf(a, ctx).trim();
-  return /[.!?]$/.test(s) ? s : `${s}.`;
+  return /[.!?…]”?$/.test(s) ? s : `${s}.`;
 }
 
 /** "1 entry", "4 entries", "no entries". */

@@ -4,10 +4,14 @@ import { pad2, validZone, wallClock } from './format.js';
 
 const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 
-/** "29 Nov 2026 12:12" on the zone's wall clock; a date-only string gives the day alone ("29 Nov 2026"); empty → "—". */
+/**
+ * "29 Nov 2026 12:12" on the zone's wall clock. A date without a time gives the day alone ("29 Nov 2026"): a date-only
+ * string, or midnight UTC exactly, which is how a date entered without a time is stored (the case format's rule).
+ * Empty → "—".
+ */
 export function dayAndTime(iso: string | null | undefined, timeZone: string | null | undefined): string {
   if (!iso) return '—';
-  const dateOnly = /^(\d{4})-(\d{2})-(\d{2})$/.exec(iso);
+  const dateOnly = /^(\d{4})-(\d{2})-(\d{2})(?:T00:00(?::00(?:\.000)?)?Z)?$/.exec(iso);
   if (dateOnly) return `${Number(dateOnly[3])} ${MONTHS[Number(dateOnly[2]) - 1]} ${dateOnly[1]}`;
   const date = new Date(iso);
   if (Number.isNaN(date.getTime())) return iso;

@@ -278,6 +278,10 @@ describe('audit entries in words', () => {
     expect(fieldValueWords('fault_event', 'transformerTripped', false, ctx)).toBe('no');
     expect(fieldValueWords('fault_event', 'type', 'phase-to-phase-to-ground', ctx)).toBe('phase-to-phase-to-ground');
     expect(fieldValueWords('user', 'siteIds', [1, 5], ctx)).toBe('Harrow Cross, site no. 5');
+    // A closing quote that ends its own sentence gets no second full stop.
+    expect(auditSentence({ userId: 5, action: 'update', entity: 'follow_up', entityId: '7', before: { closedAt: null, result: null }, after: { closedAt: at, result: 'Normal.' } }, ctx)).toBe(
+      'Erin Engineer closed the follow-up “Repeat the dissolved-gas analysis”: “Normal.”',
+    );
     expect(changesInWords('reading_set', { bushings: { H1: { c1PF: 400 } } }, { bushings: { H1: { c1PF: 410 } } }, ctx)).toBe('bushings changed');
   });
 });

@@ -22,6 +22,9 @@ describe('session names', () => {
     expect(sessionName({ takenAt: '2026-11-29T12:12:00.000Z', createdById: 9 }, 'UTC', person)).toBe('Tests of 29 Nov 2026 12:12');
     expect(sessionName({ takenAt: '2026-11-29T12:12:00.000Z' }, 'UTC')).toBe('Tests of 29 Nov 2026 12:12');
     expect(dayAndTime('2026-01-05', 'Europe/London')).toBe('5 Jan 2026');
+    // A date entered without a time is stored as midnight UTC: still the day alone, not "01:00" in summer.
+    expect(dayAndTime('2004-05-12T00:00:00.000Z', 'Europe/London')).toBe('12 May 2004');
+    expect(sessionName({ takenAt: '2026-07-02T00:00:00Z', createdById: 3 }, 'Europe/London', person)).toBe('Tests of 2 Jul 2026 by Theo Tester');
     expect(dayAndTime(null, 'UTC')).toBe('—');
   });
 
