@@ -36,7 +36,10 @@ export function demoApi(baseUrl: string) {
 
 /** A page signed in as `role` (token in local storage, as the client keeps it), at `width` × 900, opened on `path`. */
 export async function openAs(browser: Browser, baseUrl: string, api: ReturnType<typeof demoApi>, role: DemoRole | null, path: string, width = 1440): Promise<Page> {
-  const page = await browser.newPage({ viewport: { width, height: 900 } });
+  // bypassCSP: the app's Content-Security-Policy (script-src 'self') would refuse the axe-core script the test injects.
+  const context = await browser.newContext({ viewport: { width, height: 900 }, bypassCSP: true });
+  const page = await context.newPage();
+  page.on('close', () => void context.close());
   await page.goto(`${baseUrl}/sign-in`);
   if (role) {
     const token = await api.token(role);
