@@ -46,6 +46,12 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await browser?.close();
+  // Leave no mail queued: another browser test's server would deliver it after its own (the e2e files share a database).
+  for (let i = 0; i < 50 && screenedId; i++) {
+    const { notifications } = await api.call<{ notifications: { status: string }[] }>('manager', 'GET', `/events/${screenedId}`);
+    if (!notifications.some((n) => n.status === 'queued')) break;
+    await new Promise((r) => setTimeout(r, 200));
+  }
   await running?.stop();
 });
 
