@@ -87,7 +87,7 @@ describe('EventFilePage (/events/:id)', () => {
     const attachments = wrapper.findAll('[data-test="attachment"]');
     expect(attachments).toHaveLength(1);
     expect(attachments[0].text()).toContain('HX-T2-feeder4.cfg');
-    expect(attachments[0].text()).toContain('comtrade-cfg · 2 kB');
+    expect(attachments[0].text()).toContain('COMTRADE configuration (.cfg) · 2 kB');
   });
 
   it('says what to do next when the event is not screened yet, with the cautions beside it', async () => {
@@ -142,10 +142,10 @@ describe('EventFilePage (/events/:id)', () => {
 
     const errors = wrapper.findAll('[data-test="import-error"]').map((e) => e.text());
     expect(errors).toHaveLength(3);
-    expect(errors[0]).toBe('row 3.value: decimal comma: use a point (3.14)');
+    expect(errors[0]).toBe('Row 3, value: decimal comma: use a point (3.14)');
     // The list of known quantities is the shared parser's (it grows with the case format).
-    expect(errors[1]).toMatch(/^row 4\.quantity: unknown quantity 'inductance': use one of capacitance, dissipation, reactance, /);
-    expect(errors[2]).toBe('row 5.phase: required for reactance: A, B or C');
+    expect(errors[1]).toMatch(/^Row 4, quantity: unknown quantity 'inductance': use one of capacitance, dissipation, reactance, /);
+    expect(errors[2]).toBe('Row 5, phase: required for reactance: A, B or C');
     expect(wrapper.get('[data-test="import-errors"]').text()).toContain('nothing was uploaded');
     expect(wrapper.find('[data-test="import-upload"]').exists()).toBe(false);
     expect(requests.some((r) => r.url.startsWith('/api/sessions/'))).toBe(false);
@@ -309,22 +309,20 @@ describe('EventFilePage (/events/:id)', () => {
     expect(requests.some((r) => r.method === 'POST')).toBe(false);
   });
 
-  it('uploads a relay record for a protection engineer and shows a 415 refusal in words', async () => {
-    const refusal: ScriptedResponse = {
-      status: 415,
-      body: { error: { code: 'unsupported_file_type', message: 'A .exe file is not a relay record.', fields: { file: 'A .exe file is not a relay record.' } } },
-    };
+  it('uploads a relay record for a protection engineer and shows a 415 refusal as the server words it', async () => {
+    const message = 'the .cfg file is not a COMTRADE configuration: it is not text';
+    const refusal: ScriptedResponse = { status: 415, body: { error: { code: 'unsupported_file_type', message, fields: { file: message } } } };
     const { requests } = signedInAs(['protection'], eventDetail(), { 'POST /api/events/11/attachments': refusal });
     const { wrapper } = await mountApp('/events/11');
     expect(wrapper.find('[data-test="new-session"]').exists()).toBe(false);
 
-    await pickFile(wrapper, 'attachment-file', new File(['MZ'], 'setup.exe', { type: 'application/octet-stream' }));
+    await pickFile(wrapper, 'attachment-file', new File(['MZ\u0000'], 'fault.cfg', { type: 'application/octet-stream' }));
     await wrapper.get('[data-test="attachment-upload"]').trigger('click');
     await vi.waitFor(() => expect(wrapper.find('[data-test="attachment-error"]').exists()).toBe(true));
 
-    expect(wrapper.get('[data-test="attachment-error"]').text()).toContain('This file type is not accepted: A .exe file is not a relay record.');
+    expect(wrapper.get('[data-test="attachment-error"]').text()).toBe(message);
     const upload = requests.find((r) => r.url === '/api/events/11/attachments')!;
-    expect(((upload.body as FormData).get('file') as File).name).toBe('setup.exe');
+    expect(((upload.body as FormData).get('file') as File).name).toBe('fault.cfg');
   });
 
   it('says how large a relay record may be when the server answers 413', async () => {
