@@ -111,6 +111,20 @@ describe('at 390 px wide (a phone)', () => {
     await page.close();
   });
 
+  it('the measure sees a page that does scroll sideways (a 900 px wide block in the page)', async () => {
+    const page = await openAs(browser, running.url, api, 'engineer', '/units', 390);
+    await page.evaluate(() => {
+      const wide = document.createElement('div');
+      wide.style.cssText = 'width: 900px; height: 4px';
+      wide.setAttribute('data-test', 'too-wide');
+      document.querySelector('main h1')!.after(wide);
+    });
+    const o = await overflowOf(page);
+    expect(o.scrollWidth).toBeGreaterThan(o.clientWidth);
+    expect(o.culprits.join(' ')).toContain('too-wide');
+    await page.close();
+  });
+
   it('the shell at 390: the header fits and the drawer opens over the page from the menu button', async () => {
     const page = await openAs(browser, running.url, api, 'manager', '/units', 390);
     const header = await page.locator('.q-header').boundingBox();
