@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Running } from '../../server/index.js';
 import { startTestServer } from '../helpers/app-server.js';
 import { launchChromium } from '../helpers/browser.js';
-import { demoApi, logFault, makeTestUnit, openAs, overflowOf, screenEvent, settled, type DemoRole } from '../helpers/browser-pages.js';
+import { demoApi, innerScrollersOf, logFault, makeTestUnit, openAs, overflowOf, screenEvent, settled, type DemoRole } from '../helpers/browser-pages.js';
 
 // Phone (390 px), tablet (1024 px) and desktop (1440 px): no page scrolls sideways (the document's scroll width is the
 // viewport's), and the session form's date-time field is wide enough to read and type into.
@@ -17,6 +17,8 @@ let unitId: number;
 let screenedId: number;
 /** An event of another own unit with no session yet (the tester's "New session"). */
 let testingId: number;
+/** The demo unit with the most history (reading sets, sweeps, two faults). */
+let demoUnitId: number;
 
 beforeAll(async () => {
   ({ running } = await startTestServer());
@@ -26,6 +28,7 @@ beforeAll(async () => {
   screenedId = await logFault(api, unitId, 30);
   await screenEvent(api, screenedId, 20);
   testingId = await logFault(api, await makeTestUnit(api, `W-${tag}-B`), 5);
+  demoUnitId = (await api.call<{ items: { id: number }[] }>('engineer', 'GET', '/units?q=KVP-HX-T2')).items[0].id;
   browser = await launchChromium();
 });
 afterAll(async () => {
@@ -75,6 +78,20 @@ describe.each(WIDTHS)('at %i px wide', (width) => {
     await when.click();
     await when.fill('2026-03-04T05:06');
     expect(await when.inputValue()).toBe('2026-03-04T05:06');
+    await page.close();
+  });
+});
+
+// Tables fit too: no table scrolls sideways inside its card (rows stack on a phone, cells wrap on a tablet).
+describe.each([1024, 390])('lists at %i px wide', (width) => {
+  const pages: [DemoRole, string][] = [
+    ['engineer', '/units'],
+    ['tester', '/units/UNIT'],
+    ['engineer', '/events'],
+  ];
+  it.each(pages)('as %s, %s: no table scrolls sideways', async (role, path) => {
+    const page = await openAs(browser, running.url, api, role, path.replace('UNIT', String(demoUnitId)), width);
+    expect(await innerScrollersOf(page), `${path} at ${width}`).toEqual([]);
     await page.close();
   });
 });

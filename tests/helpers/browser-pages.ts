@@ -99,3 +99,12 @@ export async function screenEvent(api: ReturnType<typeof demoApi>, eventId: numb
   await api.call('tester', 'POST', `/events/${eventId}/sessions`, { takenAt, temperatureC: 28, tapPosition: '9b', humidityPercent: 40, instrument: 'M4100', capacitancePF: { CH: 3120, CL: 9870, CHL: 5210 }, reactance: { A: { percent: 11.62 }, B: { percent: 11.58 }, C: { percent: 11.66 } } });
   await api.call('tester', 'POST', `/events/${eventId}/screenings`, {});
 }
+
+/** Boxes inside the page that scroll sideways on their own (a table wider than its card): what a reader cannot see. */
+export async function innerScrollersOf(page: Page): Promise<string[]> {
+  return page.evaluate(() =>
+    Array.from(document.querySelectorAll('main *'))
+      .filter((e) => e.scrollWidth > e.clientWidth + 2 && ['auto', 'scroll'].includes(getComputedStyle(e).overflowX))
+      .map((e) => `${e.tagName.toLowerCase()}.${String(e.className).split(' ')[0]} in [data-test=${e.closest('[data-test]')?.getAttribute('data-test') ?? '?'}] (${e.scrollWidth} px in ${e.clientWidth} px)`),
+  );
+}
