@@ -180,7 +180,7 @@ describe('nothing typed is lost', () => {
     await page.waitForSelector('[data-test="decision-follow-up"]');
     const fit = await page.$eval('[data-test="decision-panel"]', (panel) => {
       const box = panel.getBoundingClientRect();
-      const widest = Math.max(...[...panel.querySelectorAll('*')].map((el) => el.getBoundingClientRect().right));
+      const widest = Math.max(...Array.from(panel.querySelectorAll('*'), (el) => el.getBoundingClientRect().right));
       return { scroll: panel.scrollWidth, client: panel.clientWidth, right: box.right, widest, viewport: window.innerWidth };
     });
     expect(fit.scroll).toBeLessThanOrEqual(fit.client);
