@@ -10,6 +10,9 @@
 //   …a Cancel button of a dialog:                    if (guard.confirmDiscard()) close()
 //
 // Outside a router-view (a component test without a router) the route part is skipped; the tab-close part still works.
+//
+// An action that leaves in a way the route guard cannot stop in time (Sign out: the session ends before the route
+// changes) asks first with `confirmUnsavedChanges()`: if (!confirmUnsavedChanges()) return; session.signOut(); …
 import { getCurrentInstance, inject, onBeforeUnmount, onMounted, ref, type Ref } from 'vue';
 import { matchedRouteKey, onBeforeRouteLeave, onBeforeRouteUpdate, type RouteLocationNormalized } from 'vue-router';
 
@@ -33,6 +36,10 @@ export interface UnsavedGuard {
 
 // One navigation asks once, however many dirty forms are on the page: the answer is kept for that navigation's target.
 const answered = new WeakMap<RouteLocationNormalized, boolean>();
+/** The guards of the forms on screen now. */
+const mounted = new Set<() => boolean>();
+/** The question was asked already (confirmUnsavedChanges): the next navigation goes without asking again. */
+let alreadyConfirmed = false;
 
 function ask(message: string): boolean {
   try {
@@ -51,6 +58,11 @@ export function useUnsavedGuard(isDirty: () => boolean, options: UnsavedGuardOpt
     if (!isActive()) return true;
     const earlier = answered.get(to);
     if (earlier !== undefined) return earlier;
+    if (alreadyConfirmed) {
+      alreadyConfirmed = false;
+      answered.set(to, true);
+      return true;
+    }
     const go = ask(message);
     answered.set(to, go);
     return go;
@@ -70,8 +82,14 @@ export function useUnsavedGuard(isDirty: () => boolean, options: UnsavedGuardOpt
     event.returnValue = '';
   }
   if (getCurrentInstance()) {
-    onMounted(() => window.addEventListener('beforeunload', onBeforeUnload));
-    onBeforeUnmount(() => window.removeEventListener('beforeunload', onBeforeUnload));
+    onMounted(() => {
+      window.addEventListener('beforeunload', onBeforeUnload);
+      mounted.add(isActive);
+    });
+    onBeforeUnmount(() => {
+      window.removeEventListener('beforeunload', onBeforeUnload);
+      mounted.delete(isActive);
+    });
   }
 
   return {
@@ -84,6 +102,22 @@ export function useUnsavedGuard(isDirty: () => boolean, options: UnsavedGuardOpt
     isActive,
     confirmDiscard: () => !isActive() || ask(message),
   };
+}
+
+/** Whether any form on screen has changes that are not saved. */
+export function hasUnsavedChanges(): boolean {
+  return [...mounted].some((active) => active());
+}
+
+/**
+ * Ask now, once, whether to drop the unsaved changes of the forms on screen (true at once when there are none); a yes
+ * lets the next route change through without asking again. For Sign out and the like, before the session ends.
+ */
+export function confirmUnsavedChanges(message = UNSAVED_MESSAGE): boolean {
+  if (!hasUnsavedChanges()) return true;
+  const go = ask(message);
+  alreadyConfirmed = go;
+  return go;
 }
 
 export interface Baseline {

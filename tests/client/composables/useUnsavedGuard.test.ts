@@ -2,7 +2,7 @@ import { flushPromises, mount } from '@vue/test-utils';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { defineComponent, h, ref } from 'vue';
 import { createMemoryHistory, createRouter, RouterView } from 'vue-router';
-import { useBaseline, useUnsavedGuard, type UnsavedGuard } from '../../../src/composables/useUnsavedGuard';
+import { confirmUnsavedChanges, hasUnsavedChanges, useBaseline, useUnsavedGuard, type UnsavedGuard } from '../../../src/composables/useUnsavedGuard';
 import { resetClientState } from '../helpers';
 
 const text = ref('');
@@ -94,5 +94,19 @@ describe('useUnsavedGuard', () => {
     text.value = 'typed';
     expect(guard.confirmDiscard()).toBe(false);
     expect(confirm).toHaveBeenCalledOnce();
+  });
+
+  it('confirmUnsavedChanges asks once for the forms on screen and lets the next route change through (Sign out)', async () => {
+    const confirm = stubConfirm(true);
+    const router = await mountAt('/form');
+    expect(hasUnsavedChanges()).toBe(false);
+    expect(confirmUnsavedChanges()).toBe(true);
+    expect(confirm).not.toHaveBeenCalled();
+    text.value = 'typed';
+    expect(hasUnsavedChanges()).toBe(true);
+    expect(confirmUnsavedChanges()).toBe(true);
+    await router.push('/other');
+    expect(confirm).toHaveBeenCalledOnce();
+    expect(router.currentRoute.value.path).toBe('/other');
   });
 });
