@@ -95,6 +95,8 @@ describe('EventFilePage — layout by task', () => {
       { test: 'fault-section', open: true },
       { test: 'attachments', open: true },
     ]);
+    // Their card, but nothing waits on them now.
+    expect(wrapper.get('[data-test="fault-section"] .event-section__mine').text()).toBe('your part');
   });
 
   it('folds and unfolds a section from its heading, and the in-page menu unfolds the section it links to', async () => {
