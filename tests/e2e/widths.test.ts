@@ -97,14 +97,24 @@ describe.each([1024, 390])('lists at %i px wide', (width) => {
 });
 
 describe('at 390 px wide (a phone)', () => {
-  const pages: [DemoRole, string, string][] = [
+  const pages: [DemoRole | null, string, string][] = [
+    [null, '/sign-in', 'the sign-in page'],
     ['engineer', '/units', 'the fleet'],
     ['engineer', '/events', 'the events list'],
     ['manager', '/', 'the manager’s desk'],
     ['tester', '/', 'the tester’s desk'],
     ['protection', '/', 'the protection engineer’s desk'],
+    ['engineer', '/', 'the engineer’s desk'],
+    ['protection', '/events/new', 'the new fault form'],
+    ['manager', '/dev/outbox', 'the outbox'],
+    ['engineer', '/password', 'the password page'],
+    ['admin', '/admin/people', 'administration: people'],
+    ['admin', '/admin/sites', 'administration: sites'],
+    ['admin', '/admin/designs', 'administration: design families'],
+    ['admin', '/admin/units', 'administration: units'],
+    ['engineer', '/no/such/page', 'the page for an address with no page'],
   ];
-  it.each(pages)('%s: %s fits', async (role, path, what) => {
+  it.each(pages)('as %s, %s fits', async (role, path, what) => {
     const page = await openAs(browser, running.url, api, role, path, 390);
     await expectNoSidewaysScroll(page, what);
     await page.close();
