@@ -8,17 +8,16 @@ import {
   agreementInWords,
   cautionsOf,
   caveatsInWords,
-  decisiveReason,
   dutyInWords,
   dutyOnlyWithoutTests,
   engineRevisionOf,
   faultInWords,
   followUpTimingNote,
+  headlineOf,
   onDutyOnlyPath,
   protectionSummary,
   proposedRestrictions,
   recommendationColour,
-  recommendationHeadWord,
   recommendationMeaning,
   rulesInWords,
   shortReason,
@@ -29,6 +28,7 @@ import {
 } from './report-text.js';
 import { RECOMMENDATION_WORD, codesInWords } from '../../shared/vocabulary.js';
 import { formatInstant } from '../../shared/format.js';
+import { sessionName } from '../../shared/session-name.js';
 
 export interface ManagerMail {
   subject: string;
@@ -59,19 +59,28 @@ const GLYPH = { go: '✓', conditional: '▲', 'no-go': '✕' } as const;
 /** The subject: "[Gapsight] CONDITIONAL — KVP-HX-T2 (Harrow Cross): CHL capacitance shifted +3.42 %…" (a unit in service:
  * "NO-GO, take out of service for tests — …", "GO (in service) — …"). */
 export function managerMailSubject(d: ScreeningReportData): string {
-  const word = recommendationHeadWord(d);
+  const h = headlineOf(d);
   const prefix = d.screening.comparison ? '[Gapsight] Comparison run, not for decision: ' : '[Gapsight] ';
-  return oneLine(codesInWords(`${prefix}${word} — ${d.unit.serial} (${d.site.name}): ${shortReason(decisiveReason(d.result))}`));
+  return oneLine(codesInWords(`${prefix}${h.headWord} — ${d.unit.serial} (${d.site.name}): ${shortReason(h.reason)}`));
+}
+
+/**
+ * The post-fault session as people name it ("Tests of 29 Nov 2026 12:12 by Theo Tester"). The report data knows who
+ * entered the event's sessions, not who entered which: the tester is named when there is exactly one.
+ */
+function postFaultSessionName(d: ScreeningReportData, takenAt: string): string {
+  const only = d.testers.length === 1 ? d.testers[0].name : null;
+  return sessionName({ takenAt, createdById: only ? 0 : null }, d.site.timeZone, () => only);
 }
 
 function sections(d: ScreeningReportData): { headline: string; meaning: string; reason: string; body: Section[] } {
   const r = d.result;
   const tz = d.site.timeZone;
-  const word = recommendationHeadWord(d);
-  const position = d.unit.position ? `, ${d.unit.position}` : '';
-  const headline = `${word} — ${d.unit.serial} (${d.site.name}${position})`;
+  // The one headline of the screening: the same as the screen's verdict banner and the PDF.
+  const h = headlineOf(d);
+  const headline = h.title;
   const meaning = `${RECOMMENDATION_WORD[r.recommendation]}: ${recommendationMeaning(d)}.`;
-  const reason = `Why: ${decisiveReason(r)}`;
+  const reason = `Why: ${h.reason}`;
   const body: Section[] = [];
 
   if (d.screening.comparison) {
@@ -98,7 +107,7 @@ function sections(d: ScreeningReportData): { headline: string; meaning: string; 
   const computedBy = d.screening.computedBy ? ` by ${d.screening.computedBy.name}` : '';
   const timeLines = [
     `Fault: ${formatInstant(d.event.occurredAt, tz)}`,
-    ...(d.case.postFault?.takenAt ? [`Post-fault tests: ${formatInstant(d.case.postFault.takenAt, tz)}`] : []),
+    ...(d.case.postFault?.takenAt ? [`Post-fault tests: ${postFaultSessionName(d, d.case.postFault.takenAt)} (${formatInstant(d.case.postFault.takenAt, tz)})`] : []),
     `Screened: ${formatInstant(d.screening.computedAt, tz)}${computedBy}, ${rulesInWords(d)}${engineRevisionOf(r) < 2 ? ' (stored before rules revision 2)' : ''}`,
   ];
   body.push({ title: 'Times', lines: timeLines });

@@ -3,11 +3,11 @@
 // precision and everything here rounds for display the way the UI does.
 import type { GapsightCase } from '../../shared/schemas/case.js';
 import type { GapsightResult, Indicator, Level, Method, Recommendation, ThroughFault } from '../../shared/schemas/result.js';
-import { CAUTIONS, corroboratingMethods, describeRequired, isDutyOnlyPath } from '../../shared/screening/verdict.js';
+import { CAUTIONS, corroboratingMethods, describeRequired, isDutyOnlyPath, lacksBaselineTrace } from '../../shared/screening/verdict.js';
 import { criteriaV1, type Criteria } from '../../shared/screening/criteria.js';
 import { levelRank } from '../../shared/screening/levels.js';
 import { decisiveReason } from '../../shared/screening/reasons.js';
-import { recommendationHeadWord as headWordOf, screeningHeadline, type Headline } from '../../shared/screening/headline.js';
+import { screeningHeadline, type Headline } from '../../shared/screening/headline.js';
 import { INTERNAL_PROTECTIONS, isInternalProtection } from '../../shared/screening/protections.js';
 import {
   LEVEL_WORD,
@@ -107,11 +107,6 @@ export function recommendationMeaning(d: ScreeningReportData): string {
   if (!stayedInService(d)) return RECOMMENDATION_MEANING[rec];
   if (dutyOnlyWithoutTests(d)) return `may stay in service (with the follow-ups below) — ${DUTY_FIGURES_ALONE}`;
   return IN_SERVICE_MEANING[rec];
-}
-
-/** The recommendation word with what it means for a unit in service ("NO-GO, take out of service for tests"). */
-export function recommendationHeadWord(d: ScreeningReportData): string {
-  return headWordOf(d.result.recommendation, stayedInService(d));
 }
 
 /** The one headline of this screening (shared/screening/headline.ts: the same on the screen's banner, the PDF and the mail). */
@@ -384,7 +379,7 @@ export function unreliableItems(d: ScreeningReportData): UnreliableItem[] {
   });
 }
 
-/** Tests done (post-fault sections present) and outstanding (missing and unreliable required items), in words. */
+/** Tests done (post-fault sections present) and outstanding (missing, not judged and unreliable required items), in words. */
 export function testsInWords(d: ScreeningReportData): { done: string[]; outstanding: string[] } {
   const post = (d.case.postFault ?? {}) as Record<string, unknown>;
   const done: string[] = [];
@@ -397,7 +392,8 @@ export function testsInWords(d: ScreeningReportData): { done: string[]; outstand
   const sweeps = (d.case.sweeps ?? []).filter((s) => s.postFault?.length);
   if (sweeps.length) done.push(`frequency-response sweep (${sweeps.length} trace${sweeps.length === 1 ? '' : 's'}: ${sweeps.map((s) => s.label).join(', ')})`);
   const outstanding = [
-    ...d.result.missing.map((m) => `${itemWords(m)} (missing)`),
+    // A sweep taken without a baseline trace to compare with is not missing: it is not judged (as the screen says).
+    ...d.result.missing.map((m) => (lacksBaselineTrace(m) ? `${itemWords(m)}, not judged` : `${itemWords(m)} (missing)`)),
     ...unreliableItems(d).map((u) => `${u.words} (unreliable: ${u.instruction})`),
   ];
   return { done, outstanding };

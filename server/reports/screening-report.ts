@@ -38,6 +38,7 @@ import {
 } from './report-text.js';
 import { faultTypeWord, indicatorLabel, LEVEL_WORD, methodWord, RECOMMENDATION_WORD, STATUS_LABELS } from '../../shared/vocabulary.js';
 import { reasonInWords } from '../../shared/screening/headline.js';
+import { lacksBaselineTrace } from '../../shared/screening/verdict.js';
 import { formatInstant, formatSignificant } from '../../shared/format.js';
 
 const LEVEL_ORDER: Record<Level, number> = { critical: 0, investigate: 1, watch: 2, ok: 3 };
@@ -376,7 +377,11 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
         : 'None: the required set is complete and consistent.',
     });
   }
-  if (r.missing.length) content.push({ text: [{ text: 'Missing: ', bold: true }, r.missing.map(itemWords).join(', ')] });
+  // A sweep without a baseline trace is not missing: it is not judged ("… (no baseline trace to compare with)"), as on the screen.
+  const missing = r.missing.filter((m) => !lacksBaselineTrace(m));
+  const notJudged = r.missing.filter(lacksBaselineTrace);
+  if (missing.length) content.push({ text: [{ text: 'Missing: ', bold: true }, missing.map(itemWords).join(', ')] });
+  if (notJudged.length) content.push({ text: [{ text: 'Not judged: ', bold: true }, notJudged.map(itemWords).join(', ')] });
   if (r.unreliable.length) {
     content.push({ text: 'Unreliable (not judged; a required one counts as missing) — repeat as stated:', bold: true, margin: [0, 2, 0, 0] });
     content.push({ ul: unreliableItems(d).map((u) => ({ text: [{ text: u.words, bold: true }, `: ${codesInWords(u.instruction)}`] })) });

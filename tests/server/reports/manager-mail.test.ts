@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildManagerMail, escapeHtml } from '../../../server/reports/manager-mail.js';
 import { buildDecisionMail } from '../../../server/reports/decision-mail.js';
 import { CAUTIONS } from '../../../shared/screening/verdict.js';
+import { screeningHeadline } from '../../../shared/screening/headline.js';
 import {
   deltaMeasuredReport,
   doubtsReport,
@@ -53,7 +54,7 @@ describe("manager's e-mail (buildManagerMail)", () => {
   it('shows the times in ISO form with the site time zone and its offset (winter and summer)', () => {
     const m = buildManagerMail(recentEventReport());
     expect(m.text).toContain('Fault: 2026-11-28 03:12 +00:00 Europe/London');
-    expect(m.text).toContain('Post-fault tests: 2026-11-29 12:12 +00:00 Europe/London');
+    expect(m.text).toContain('Post-fault tests: Tests of 29 Nov 2026 12:12 (2026-11-29 12:12 +00:00 Europe/London)');
     const summer = internalFaultReport(); // 2026-08-17T05:02:00Z
     expect(buildManagerMail(summer).text).toContain('Fault: 2026-08-17 06:02 +01:00 Europe/London');
     const sydney = { ...recentEventReport(), site: { name: 'Harrow Cross', timeZone: 'Australia/Sydney' } };
@@ -357,5 +358,33 @@ describe('decision e-mail words', () => {
     expect(m.text).toContain("Screening's reason: Internal protection operated (differential, Buchholz trip): investigate as an internal fault");
     expect(m.text).not.toContain('buchholz-trip');
     for (const c of CAUTIONS) expect(m.text).toContain(c);
+  });
+
+  it('heads the mail with the same headline as the verdict banner and the PDF (screeningHeadline), reason included', () => {
+    for (const d of [recentEventReport(), internalFaultReport(), inServiceNoGoReport(), dutyOnlyGoReport()]) {
+      const h = screeningHeadline({ result: d.result, unit: d.unit, siteName: d.site.name, inService: d.event.transformerTripped === false });
+      const m = buildManagerMail(d);
+      const [first, , third] = m.text.split('\n');
+      expect(first).toBe(h.title);
+      expect(third).toBe(`Why: ${h.reason}`);
+      expect(m.subject).toContain(`${h.headWord} — ${d.unit.serial} (${d.site.name}): `);
+    }
+    // The in-service no-go reads as the banner does, not "do not re-energise".
+    expect(buildManagerMail(inServiceNoGoReport()).text.split('\n')[0]).toMatch(/^NO-GO, take out of service for tests — /);
+  });
+
+  it('names the post-fault session by its time and, with one tester on the event, by who took it', () => {
+    const d = { ...recentEventReport(), testers: [{ name: 'Priya Natarajan', email: 'priya.natarajan@kestrel-valley.example' }] };
+    expect(buildManagerMail(d).text).toContain('Post-fault tests: Tests of 29 Nov 2026 12:12 by Priya Natarajan (2026-11-29 12:12 +00:00 Europe/London)');
+    // Two testers on the event: the mail cannot tell who took this session, so it names none.
+    expect(buildManagerMail(recentEventReport()).text).not.toMatch(/Post-fault tests: Tests of [^(]* by /);
+  });
+
+  it('says a sweep without a baseline trace is not judged (no baseline trace to compare with), not missing', () => {
+    const d = recentEventReport();
+    d.result = { ...d.result, missing: ['sweep.hv.B.no-baseline', 'dissolvedGasPPM'], unreliable: [] };
+    const text = buildManagerMail(d).text;
+    expect(text).toContain('Outstanding: sweep of HV phase B (no baseline trace to compare with), not judged; dissolved gases (missing).');
+    expect(text).not.toContain('no-baseline');
   });
 });

@@ -96,6 +96,15 @@ describe('PDF screening report (buildReportDocDefinition + renderPdf)', () => {
     expect(text).not.toContain('(reactance.B)');
   });
 
+  it('lists a sweep without a baseline trace as not judged (no baseline trace to compare with), apart from the missing items', () => {
+    const d = recentEventReport();
+    d.result = { ...d.result, missing: ['sweep.hv.B.no-baseline', 'dissolvedGasPPM'], unreliable: [] };
+    const text = allText(buildReportDocDefinition(d));
+    expect(text).toContain('Missing: dissolved gases\n');
+    expect(text).toContain('Not judged: sweep of HV phase B (no baseline trace to compare with)\n');
+    expect(text).not.toMatch(/Missing: [^\n]*sweep/);
+  });
+
   it('has every indicator in the indicator table by its name, with the level word, rule, source and method; a null value shows its note', () => {
     const d = recentEventReport();
     const text = allText(buildReportDocDefinition(d));
