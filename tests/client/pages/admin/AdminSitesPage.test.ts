@@ -37,7 +37,7 @@ describe('AdminSitesPage (/admin/sites)', () => {
     await submit();
     await vi.waitFor(() => expect(requests.some((r) => r.method === 'POST')).toBe(true), { timeout: 5000 });
 
-    expect(requests.find((r) => r.method === 'POST')!.body).toEqual({ name: 'Millbrook', timeZone: 'America/Chicago', controlRoomEmail: 'control@millbrook.example' });
+    expect(requests.find((r) => r.method === 'POST')!.body).toEqual({ name: 'Millbrook', timeZone: 'America/Chicago', locale: null, controlRoomEmail: 'control@millbrook.example' });
     await vi.waitFor(() => expect(document.body.querySelector('[data-test="site-dialog"]')).toBeNull(), { timeout: 5000 });
   });
 
