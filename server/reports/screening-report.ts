@@ -191,6 +191,19 @@ function fieldValue(v: unknown): string {
   return typeof v === 'object' ? JSON.stringify(v) : String(v);
 }
 
+/** The through-fault figures as the PDF's table words them (label, value, unit), every field, unknown ones spelt out. */
+export function throughFaultInWords(tf: ThroughFault): { label: string; value: string; unit: string }[] {
+  const fields = throughFaultFields(tf);
+  const known = new Set<string>(fields.map((f) => f.key));
+  const record = tf as Record<string, unknown>;
+  return [
+    ...fields.map((f) => ({ label: f.label, value: f.value ?? fieldValue(record[f.key]), unit: f.unit })),
+    ...Object.entries(record)
+      .filter(([k]) => !known.has(k))
+      .map(([k, v]) => ({ label: fieldInWords(k), value: fieldValue(v), unit: '' })),
+  ];
+}
+
 function throughFaultTable(tf: ThroughFault): Content {
   const fields = throughFaultFields(tf);
   const known = new Set<string>(fields.map((f) => f.key));

@@ -27,6 +27,29 @@ describe('screen CLI', () => {
     expect(r.stdout).toContain('Reasons:');
   });
 
+  it('--pretty prints words, not codes: levels, indicator names, missing items and the through-fault figures', () => {
+    const r = run(example, '--pretty');
+    expect(r.status).toBe(0);
+    const words = r.stdout.slice(0, r.stdout.indexOf('Result JSON:'));
+    expect(words).toMatch(/^ +INVESTIGATE +CHL capacitance shift vs baseline: 3\.19962 %$/m);
+    expect(words).toContain('Missing: sweep of HV phase A, sweep of HV phase B, sweep of HV phase C');
+    expect(words).toContain('Force ratio (of the design force): 20.44 %');
+    // No case-field or indicator codes before the JSON.
+    expect(words).not.toMatch(/capacitance\.CHL|sweep\.hv|forceRatioPercent/);
+    expect(words).not.toMatch(/^ +(ok|watch|investigate|critical) /m);
+  });
+
+  it('--pretty says a sweep without a baseline trace is not judged, not missing', () => {
+    const file = join(tmp, 'no-baseline.json');
+    const c = JSON.parse(readFileSync(join(root, 'examples/cases/sweeps.json'), 'utf8'));
+    for (const s of c.sweeps) if (s.phase === 'B') delete s.baseline;
+    writeFileSync(file, JSON.stringify(c));
+    const r = run(file, '--pretty');
+    expect(r.status).toBe(0);
+    expect(r.stdout).toContain('Not judged: sweep of HV phase B (no baseline trace to compare with)');
+    expect(r.stdout).not.toMatch(/^Missing: .*sweep of HV phase B/m);
+  });
+
   it('names each bad field on stderr and exits 2 for an invalid case', () => {
     const file = join(tmp, 'bad.json');
     const c = JSON.parse(readFileSync(example, 'utf8'));
