@@ -3,7 +3,7 @@ import { formatInstant } from '../format.js';
 import type { SheetCell } from '../imports/units-sheet.js';
 import type { Indicator } from '../schemas/result.js';
 import type { ReadingSetKind } from '../schemas/enums.js';
-import { AUDIT_ACTION_LABELS, basisLabel, indicatorLabel, indicatorUnit, KIND_LABELS, LEVEL_LABELS, QUANTITY_LABELS, methodWord } from '../vocabulary.js';
+import { basisLabel, ENTITY_WORDS, fieldLabel, indicatorLabel, indicatorUnit, KIND_LABELS, LEVEL_LABELS, QUANTITY_LABELS, methodWord } from '../vocabulary.js';
 
 export interface ExportSheet {
   header: readonly string[];
@@ -93,11 +93,31 @@ export interface ExportAuditRow {
   after: unknown;
   highlighted: boolean;
   note: string | null;
+  /** The entry as the event file's audit trail says it (shared/audit-words.ts `auditSentence`). */
+  summary: string;
 }
 
 export const AUDIT_EXPORT_COLUMNS = ['Time (site)', 'Time (UTC)', 'Who', 'Action', 'Record', 'Note', 'Against the recommendation', 'Before', 'After'] as const;
 
-/** One row per audit entry: time on the site's clock and in UTC, the person's name, the action in words, before/after as JSON. */
+/**
+ * Before or after values as JSON with the fields named in words ({"Notes":"b"} rather than {"notes":"b"}): the values
+ * exactly as stored. A field whose label another field already has keeps its own name beside it.
+ */
+export function auditValuesJson(entity: string, v: unknown): string | null {
+  if (v == null) return null;
+  if (typeof v !== 'object' || Array.isArray(v)) return JSON.stringify(v);
+  const out: Record<string, unknown> = {};
+  for (const [key, value] of Object.entries(v as Record<string, unknown>)) {
+    const label = fieldLabel(entity, key);
+    out[label in out ? `${label} (${key})` : label] = value;
+  }
+  return JSON.stringify(out);
+}
+
+/**
+ * One row per audit entry: time on the site's clock and in UTC, the person's name, the entry as the audit trail's
+ * sentence ("Pat Protection changed the notes …"), before/after as JSON with the fields in words.
+ */
 export function auditExportSheet(rows: readonly ExportAuditRow[], timeZone: string, personName: (id: number | null) => string): ExportSheet {
   return {
     header: AUDIT_EXPORT_COLUMNS,
@@ -105,12 +125,12 @@ export function auditExportSheet(rows: readonly ExportAuditRow[], timeZone: stri
       formatInstant(a.at, timeZone),
       a.at,
       personName(a.userId),
-      `${AUDIT_ACTION_LABELS[a.action] ?? a.action} ${a.entity.replace(/_/g, ' ')}`,
-      `${a.entity.replace(/_/g, ' ')} ${a.entityId}`,
+      a.summary,
+      `${ENTITY_WORDS[a.entity] ?? a.entity.replace(/_/g, ' ')} ${a.entityId}`,
       a.note,
       a.highlighted ? 'yes' : 'no',
-      a.before == null ? null : JSON.stringify(a.before),
-      a.after == null ? null : JSON.stringify(a.after),
+      auditValuesJson(a.entity, a.before),
+      auditValuesJson(a.entity, a.after),
     ]),
   };
 }

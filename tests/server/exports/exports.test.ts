@@ -7,7 +7,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { Reading } from '../../../server/features/readings/reading.entity.js';
 import { ReadingSet } from '../../../server/features/readings/reading-set.entity.js';
 import { AUDIT_EXPORT_COLUMNS, INDICATORS_EXPORT_COLUMNS, READINGS_EXPORT_COLUMNS } from '../../../shared/exports/sheets.js';
-import { indicatorLabel } from '../../../shared/vocabulary.js';
+import { fieldLabel, indicatorLabel } from '../../../shared/vocabulary.js';
 import { bearer, createTestUser } from '../../helpers/db.js';
 import { correctionsFlow } from '../corrections/flow.js';
 
@@ -122,15 +122,24 @@ describe('GET /api/screenings/:screeningId/indicators/export', () => {
 });
 
 describe('GET /api/events/:eventId/audit/export', () => {
-  it('answers the event file audit trail: site time and UTC, who, the action in words, before/after as JSON', async () => {
+  it('answers the event file audit trail: site time and UTC, who, the entry as a sentence, before/after as JSON with fields in words', async () => {
     const ev = (await f.api().get(`/api/events/${eventId}`).set(f.as.tester).expect(200)).body;
     const { rows } = await xlsxRows(`/api/events/${eventId}/audit/export?format=xlsx`);
     expect(rows[0]).toEqual([...AUDIT_EXPORT_COLUMNS]);
     expect(rows).toHaveLength(ev.audit.length + 1);
     const at = (n: (typeof AUDIT_EXPORT_COLUMNS)[number]) => AUDIT_EXPORT_COLUMNS.indexOf(n);
-    const findingRow = rows.find((r) => r[at('Action')] === 'Created finding');
+    // The Action column is the audit trail's sentence, as the event file shows it (never "Created fault event").
+    expect(rows.slice(1).map((r) => r[at('Action')])).toEqual(ev.audit.map((a: { summary: string }) => a.summary));
+    for (const r of rows.slice(1)) expect(String(r[at('Action')])).not.toMatch(/^(Created|Changed) (fault event|finding)$/);
+    const finding = ev.audit.find((a: { entity: string; action: string }) => a.entity === 'finding' && a.action === 'create');
+    const findingRow = rows.find((r) => r[at('Action')] === finding.summary);
     expect(findingRow?.[at('Who')]).toBe(oddName);
-    expect(JSON.parse(String(findingRow?.[at('After')]))).toMatchObject({ eventId, classification: 'other', text: 'Oil sample taken.' });
+    // Before/after keep the values, with the fields named in words.
+    expect(JSON.parse(String(findingRow?.[at('After')]))).toMatchObject({
+      [fieldLabel('finding', 'eventId')]: eventId,
+      [fieldLabel('finding', 'classification')]: 'other',
+      [fieldLabel('finding', 'text')]: 'Oil sample taken.',
+    });
     const first = ev.audit[0];
     expect(rows[1][at('Time (UTC)')]).toBe(first.at);
     expect(String(rows[1][at('Time (site)')])).toMatch(new RegExp(`^\\d{4}-\\d{2}-\\d{2} \\d{2}:\\d{2} [+−]\\d{2}:\\d{2} ${ev.unit.site.timeZone}$`));
