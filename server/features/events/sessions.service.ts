@@ -9,7 +9,8 @@ import type { CorrectedSession, CreatedSession, ImportAnswer } from '../../../sh
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
-import { extensionOf, unsupportedType } from '../../common/upload.js';
+import { refuseOtherTypes, unsupportedType, utf8Name } from '../../common/upload.js';
+import { fileProblemList, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 import { Reading } from '../readings/reading.entity.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
 import { applyReadingSetPatch } from '../readings/reading-set-correction.js';
@@ -62,14 +63,40 @@ async function openSession(m: EntityManager, clock: Clock, sessionId: number, us
 }
 
 /** Imports a readings CSV into a session: every row or none, every bad row listed. */
-export async function importReadingsCsv(m: EntityManager, clock: Clock, userId: number, sessionId: number, file: { originalname: string; buffer: Buffer }) {
-  const ext = extensionOf(file.originalname);
-  if (!['.csv', '.txt'].includes(ext)) throw unsupportedType(`A readings import must be a .csv file, not "${ext || 'no extension'}".`);
-  if (!looksLikeCsvText(new Uint8Array(file.buffer))) throw unsupportedType('The file is not comma-separated text.');
+/** The readings file's columns in words (the parser's keys name them: "row 4.value"). */
+const READINGS_FILE_COLUMNS: Record<string, string> = {
+  quantity: 'quantity',
+  configuration: 'configuration (terminal or winding pair)',
+  phase: 'phase',
+  value: 'value',
+  unit: 'unit',
+};
+
+/**
+ * 400 for a readings file whose content is wrong, as the sweep upload words it: every problem in `fields`, the first in
+ * the message with its line and column in words, and how many more ("(and 3 more problems)", counting the bad rows the
+ * parser did not list).
+ */
+export function readingsFileProblems(fields: Record<string, string>): AppError {
+  const all = fileProblemList(fields, READINGS_FILE_COLUMNS, 'line');
+  const listed = all.filter((p) => p.key !== 'more');
+  const unlisted = Number(/^(\d+) more/.exec(fields.more ?? '')?.[1] ?? 0);
+  const first = listed[0] ?? { key: 'file', place: 'File', message: 'it cannot be read' };
+  const others = listed.length - 1 + unlisted;
+  const more = others > 0 ? ` (and ${others} more problem${others === 1 ? '' : 's'})` : '';
+  const where = first.key === 'file' ? '' : `${first.place.charAt(0).toLowerCase()}${first.place.slice(1)}: `;
+  return new AppError('invalid_file', `The file has errors; nothing was imported: ${where}${first.message}${more}.`, 400, fields);
+}
+
+export async function importReadingsCsv(m: EntityManager, clock: Clock, userId: number, sessionId: number, file: { originalname: string; mimetype?: string; buffer: Buffer }) {
+  refuseOtherTypes(UPLOAD_TYPES.sessionReadings, file);
+  if (!looksLikeCsvText(new Uint8Array(file.buffer))) {
+    throw unsupportedType(`${utf8Name(file.originalname)} is not comma-separated text: a readings file has a header quantity,configuration,phase,value,unit and one reading a line.`);
+  }
   // Bushing terminals whose C1 the session already has: the file may give only their other readings.
   const knownBushingTerminals = (await m.getRepository(Reading).find({ where: { readingSetId: sessionId, quantity: 'bushing-c1' } })).map((r) => r.configuration ?? '');
   const parsed = parseReadingsCsv(file.buffer.toString('utf8'), { knownBushingTerminals });
-  if (!parsed.ok) throw new AppError('invalid_file', 'The file has errors; nothing was imported.', 400, parsed.fields);
+  if (!parsed.ok) throw readingsFileProblems(parsed.fields);
   const set = await openSession(m, clock, sessionId, userId, 'A readings import');
   const { windingTemperatureC, ...values } = readingRowsToSet(parsed.rows);
   // Every bushing terminal has its C1 here or in the session (checked by the parser): the rows make a valid set.

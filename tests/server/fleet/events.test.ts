@@ -5,6 +5,7 @@ import { Reading } from '../../../server/features/readings/reading.entity.js';
 import { Unit } from '../../../server/features/units/unit.entity.js';
 import { parseCase } from '../../../shared/schemas/case.js';
 import { criteriaV2, screenCase } from '../../../shared/screening/index.js';
+import { fileTypeProblem, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 import { apiForFile } from '../../helpers/api-file.js';
 import { makeUnit } from '../../helpers/factories.js';
 import { sweepCsv } from '../../helpers/sweep-csv.js';
@@ -167,6 +168,35 @@ describe('sessions, imports and sweeps', () => {
     expect(keys.some((k) => k.startsWith('row 5.'))).toBe(true);
     expect(res.body.error.fields['row 3.value']).toMatch(/decimal comma/);
     expect(await opened.env.db.getRepository(Reading).count({ where: { readingSetId: session.id } })).toBe(0);
+  });
+
+  it('names the first problem of a bad readings file in its message (line, column in words, what is wrong) and how many more', async () => {
+    const unit = await makeUnit(opened.env.db);
+    const ev = await logFault(unit.id);
+    const session = (await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z' })).body;
+    const csv = 'quantity,configuration,phase,value,unit\ncapacitance,CH,,3131,pF\ncapacitance,CL,,"9990,5",pF\nreactance,,A,abc,%\nvoltage,,A,1,V\n';
+    const res = await api().post(`/api/sessions/${session.id}/imports`).set(as.tester).attach('file', Buffer.from(csv), 'readings.csv');
+    expect(res.status).toBe(400);
+    const problems = Object.keys(res.body.error.fields).length;
+    expect(problems).toBeGreaterThan(1);
+    expect(res.body.error.message).toBe(
+      `The file has errors; nothing was imported: line 3, value: ${res.body.error.fields['row 3.value']} (and ${problems - 1} more problems).`,
+    );
+    // One problem: no "more".
+    const one = await api().post(`/api/sessions/${session.id}/imports`).set(as.tester).attach('file', Buffer.from('quantity,configuration,phase,value,unit\ncapacitance,CH,,3131,furlongs\n'), 'r.csv');
+    expect(one.status).toBe(400);
+    expect(one.body.error.message).toBe(`The file has errors; nothing was imported: line 2, unit: ${one.body.error.fields['row 2.unit']}.`);
+    expect(one.body.error.message).not.toContain('more problem');
+  });
+
+  it('answers 415 naming the field file and the types it takes for a readings file of another type', async () => {
+    const unit = await makeUnit(opened.env.db);
+    const ev = await logFault(unit.id);
+    const session = (await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z' })).body;
+    const res = await api().post(`/api/sessions/${session.id}/imports`).set(as.tester).attach('file', Buffer.from('quantity,configuration,phase,value,unit\n'), 'readings.docx');
+    expect(res.status).toBe(415);
+    expect(res.body.error.fields.file).toBe(fileTypeProblem(UPLOAD_TYPES.sessionReadings, 'readings.docx'));
+    expect(res.body.error.fields.file).toBe('readings.docx is not a readings file: pick a CSV (.csv) or text (.txt) file.');
   });
 
   it('answers 415 for an import that is not CSV text', async () => {
