@@ -19,7 +19,8 @@ import type { UnitImportAnswer, UnitImportPreview } from '../../../shared/schema
 import type { unitReadingSetImportFieldsSchema } from '../../../shared/schemas/units-io.js';
 import { AppError, badRequest } from '../../common/app-error.js';
 import type { Clock } from '../../common/clock.js';
-import { extensionOf, UPLOAD_LIMITS, unsupportedType } from '../../common/upload.js';
+import { refuseOtherTypes, UPLOAD_LIMITS, unsupportedType, utf8Name } from '../../common/upload.js';
+import { fileExtension, UPLOAD_TYPES, type UploadType } from '../../../shared/uploads/file-types.js';
 import { parseOr400 } from '../../common/validate.js';
 import { Design } from '../designs/design.entity.js';
 import { Site } from '../sites/site.entity.js';
@@ -78,14 +79,17 @@ async function workbookRows(bytes: Buffer, sheetName: string): Promise<{ sheet: 
 }
 
 /**
- * An upload read as sheet rows: .xlsx or CSV judged by the bytes (415 otherwise; 413 for a workbook that unpacks too
- * large). `what` names the import in the 415 message; of a workbook the sheet named `sheetName` is read, else the first.
+ * An upload read as sheet rows: a name of the types `type` takes (415 otherwise, naming them), then .xlsx or CSV judged
+ * by the bytes (415 otherwise; 413 for a workbook that unpacks too large). `what` names the import in the 415 message; of a workbook the sheet named `sheetName` is read, else the first.
  */
 export async function readSheetFile(
-  file: { buffer: Buffer },
+  file: { buffer: Buffer; originalname?: string; mimetype?: string },
   what = 'A units import',
   sheetName = 'units',
+  type: UploadType = UPLOAD_TYPES.spreadsheet,
 ): Promise<{ sheet: string | null; rows: SheetRow[]; fields: Record<string, string>; kind: 'xlsx' | 'csv' }> {
+  // The name first (415 naming the file and the types this uploader takes, from the list the picker reads), then the bytes.
+  if (typeof file.originalname === 'string') refuseOtherTypes(type, { originalname: file.originalname, mimetype: file.mimetype });
   const check = detectSpreadsheet(new Uint8Array(file.buffer), UPLOAD_LIMITS.unitSheetUnpackedBytes);
   if ('error' in check) {
     if (check.tooLarge) throw new AppError('file_too_large', 'The workbook is too large.', 413, { file: check.error });
@@ -130,7 +134,7 @@ export async function importUnits(
   m: EntityManager,
   clock: Clock,
   userId: number,
-  file: { buffer: Buffer },
+  file: { buffer: Buffer; originalname: string; mimetype?: string },
   opts: { mapping?: UnitSheetMapping; dryRun?: boolean },
 ): Promise<UnitImportAnswer | UnitImportPreview> {
   const read = await readSheetFile(file);
@@ -177,17 +181,18 @@ export async function importUnitReadingSet(
   userId: number,
   unitId: number,
   fields: z.output<typeof unitReadingSetImportFieldsSchema>,
-  file: { originalname: string; buffer: Buffer },
+  file: { originalname: string; mimetype?: string; buffer: Buffer },
 ) {
-  const ext = extensionOf(file.originalname);
+  refuseOtherTypes(UPLOAD_TYPES.unitReadingSet, file);
   let text: string;
-  if (ext === '.xlsx') {
+  if (fileExtension(utf8Name(file.originalname)) === '.xlsx') {
     // A workbook: its first sheet's rows, each on its own line, read as the readings CSV.
-    const read = await readSheetFile(file, 'A readings import', 'readings');
+    const read = await readSheetFile(file, 'A readings import', 'readings', UPLOAD_TYPES.unitReadingSet);
     text = sheetRowsAsCsv(read.rows);
   } else {
-    if (!['.csv', '.txt'].includes(ext)) throw unsupportedType(`A readings import must be a .csv or .xlsx file, not "${ext || 'no extension'}".`);
-    if (!looksLikeCsvText(new Uint8Array(file.buffer))) throw unsupportedType('The file is not comma-separated text.');
+    if (!looksLikeCsvText(new Uint8Array(file.buffer))) {
+      throw unsupportedType(`${utf8Name(file.originalname)} is not comma-separated text: a readings file has a header quantity,configuration,phase,value,unit and one reading a line.`);
+    }
     text = file.buffer.toString('utf8');
   }
   const parsed = parseReadingsCsv(text);

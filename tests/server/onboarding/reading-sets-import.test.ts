@@ -11,6 +11,7 @@ import { DECIMAL_COMMA_MESSAGE } from '../../../shared/numbers.js';
 import { readingSetsImportAnswerSchema, readingSetsImportPreviewSchema } from '../../../shared/schemas/responses/units-io.js';
 import { apiForFile } from '../../helpers/api-file.js';
 import { makeUnit } from '../../helpers/factories.js';
+import { fileTypeProblem, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 
 const opened = apiForFile(['admin', 'tester', 'engineer']);
 const { api, as, userId } = opened;
@@ -118,6 +119,12 @@ describe('POST /api/units/reading-sets/import', () => {
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toEqual({ 'row 2.value': DECIMAL_COMMA_MESSAGE });
     expect(await setsOf(u.id)).toHaveLength(1);
+  });
+
+  it('answers 415 naming the field file and the types it takes for a spreadsheet of another type', async () => {
+    const res = await post(Buffer.from('serial,kind,takenAt\n'), 'readings.dat');
+    expect(res.status).toBe(415);
+    expect(res.body.error.fields.file).toBe(fileTypeProblem(UPLOAD_TYPES.spreadsheet, 'readings.dat'));
   });
 
   it('answers 415 for a file that is neither .xlsx nor CSV', async () => {

@@ -8,6 +8,7 @@ import type { Unit } from '../../../server/features/units/unit.entity.js';
 import { DECIMAL_COMMA_MESSAGE } from '../../../shared/numbers.js';
 import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
 import { makeUnit } from '../../helpers/factories.js';
+import { fileTypeProblem, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 
 let env: TestEnv;
 let tester: { Authorization: string };
@@ -67,6 +68,13 @@ describe('POST /api/units/:unitId/reading-sets/import', () => {
   it('answers 415 for a file that is not CSV text and 404 for a unit that does not exist', async () => {
     const pdf = await api().post(`/api/units/${unit.id}/reading-sets/import`).set(tester).field('kind', 'routine').field('takenAt', '2024-05-01').attach('file', Buffer.from('%PDF-1.7'), 'set.pdf');
     expect(pdf.status).toBe(415);
+    // Refused by its name, with the list the picker reads: the types a unit's readings import takes.
+    expect(pdf.body.error.fields.file).toBe(fileTypeProblem(UPLOAD_TYPES.unitReadingSet, 'set.pdf'));
+    expect(pdf.body.error.fields.file).toBe('set.pdf is not a readings file: pick a CSV (.csv), text (.txt) or Excel (.xlsx) file.');
+    // A .csv name whose bytes are not text: refused by its content.
+    const binary = await api().post(`/api/units/${unit.id}/reading-sets/import`).set(tester).field('kind', 'routine').field('takenAt', '2024-05-01').attach('file', Buffer.from([0, 1, 2, 255]), 'set.csv');
+    expect(binary.status).toBe(415);
+    expect(binary.body.error.fields.file).toMatch(/^set\.csv is not comma-separated text/);
     const missing = await post(987654321, `${HEADER}\ncapacitance,CH,,4520,pF\n`, { kind: 'routine', takenAt: '2024-05-01' });
     expect(missing.status).toBe(404);
   });

@@ -12,6 +12,7 @@ import { DECIMAL_COMMA_MESSAGE } from '../../../shared/numbers.js';
 import { unitImportAnswerSchema, unitImportPreviewSchema } from '../../../shared/schemas/responses/units-io.js';
 import { apiForFile } from '../../helpers/api-file.js';
 import { makeDesign, makeSite, makeUnit } from '../../helpers/factories.js';
+import { fileTypeProblem, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 
 const opened = apiForFile(['admin', 'tester']);
 const { api, as, userId } = opened;
@@ -182,6 +183,14 @@ describe('POST /api/units/import (file checks and roles)', () => {
     expect(pdf.body.error.fields.file).toMatch(/PDF/);
     const binary = await api().post('/api/units/import').set(as.admin).attach('file', Buffer.from([0, 1, 2, 3, 255, 254]), 'units.csv');
     expect(binary.status).toBe(415);
+  });
+
+  it('answers 415 naming the field file and the types it takes for a spreadsheet of another type, before reading it', async () => {
+    // CSV text under a COMTRADE name: refused by its name, with the shared list of what a spreadsheet import takes.
+    const dat = await api().post('/api/units/import').set(as.admin).attach('file', Buffer.from('serial,site\nKV-1,Harrow Cross\n'), 'units.dat');
+    expect(dat.status).toBe(415);
+    expect(dat.body.error.fields.file).toBe(fileTypeProblem(UPLOAD_TYPES.spreadsheet, 'units.dat'));
+    expect(dat.body.error.fields.file).toBe('units.dat is not a spreadsheet: pick an Excel (.xlsx), CSV (.csv) or text (.txt) file.');
   });
 
   it('answers 413 for a file over the upload limit', async () => {
