@@ -1,16 +1,30 @@
 // Content checks for uploads: browsers send odd MIME types, so the server looks at the bytes themselves.
+import { describeTypes, UPLOAD_TYPES, type FileKind } from '../uploads/file-types.js';
 
 export type RelayRecordKind = 'comtrade-cfg' | 'comtrade-dat' | 'comtrade-cff' | 'csv' | 'pdf' | 'text';
 export type RelayRecordCheck = { kind: RelayRecordKind } | { error: string };
 
-const RELAY_RECORD_KINDS: Record<string, RelayRecordKind> = {
-  cfg: 'comtrade-cfg',
-  dat: 'comtrade-dat',
-  cff: 'comtrade-cff',
-  csv: 'csv',
-  txt: 'text',
-  pdf: 'pdf',
-};
+/** How the content of each kind of file a person names in the relay-record list is checked. */
+function contentKind(kind: FileKind): RelayRecordKind | undefined {
+  if (kind.name === 'COMTRADE') {
+    const comtrade: Record<string, RelayRecordKind> = { '.cfg': 'comtrade-cfg', '.dat': 'comtrade-dat', '.cff': 'comtrade-cff' };
+    return comtrade[kind.ext];
+  }
+  const byName: Record<string, RelayRecordKind> = { CSV: 'csv', text: 'text', PDF: 'pdf' };
+  return byName[kind.name];
+}
+
+/**
+ * The relay-record extensions (without their dot) and the content check of each, from the one list the picker, the
+ * client's check and the server's 415 read (shared/uploads/file-types.ts `UPLOAD_TYPES.relayRecord`). A type listed there
+ * without a content check here is left out: tests/shared/imports/sniff.test.ts checks that none is.
+ */
+export const RELAY_RECORD_KINDS: Readonly<Record<string, RelayRecordKind>> = Object.fromEntries(
+  UPLOAD_TYPES.relayRecord.kinds.flatMap((k) => {
+    const kind = contentKind(k);
+    return kind === undefined ? [] : [[k.ext.slice(1), kind] as const];
+  }),
+);
 
 // IEEE Std C37.111-1999/-2013 (COMTRADE), configuration file: line 1 is station_name,rec_dev_id[,rev_year] (no rev_year
 // means the 1991 edition), line 2 is TT,##A,##D (total channels, analog count + 'A', status count + 'D'; TT = ##A + ##D).
@@ -107,10 +121,10 @@ function extensionOf(fileName: string): string {
 /** Which kind of relay record an upload is, judged by its extension and checked against its content. */
 export function detectRelayRecord(fileName: string, bytes: Uint8Array): RelayRecordCheck {
   const ext = extensionOf(fileName);
-  const kind = RELAY_RECORD_KINDS[ext];
+  const kind = Object.hasOwn(RELAY_RECORD_KINDS, ext) ? RELAY_RECORD_KINDS[ext] : undefined;
   if (kind === undefined) {
     return {
-      error: `relay records are COMTRADE (.cfg, .dat, .cff), .csv, .txt or .pdf files: '${fileName}' is ${ext === '' ? 'without an extension' : `a .${ext} file`}`,
+      error: `relay records are ${describeTypes(UPLOAD_TYPES.relayRecord)} files: '${fileName}' is ${ext === '' ? 'without an extension' : `a .${ext} file`}`,
     };
   }
   const what = `the .${ext} file`;

@@ -1,6 +1,7 @@
 // Upload content checks: CSV text and relay records (COMTRADE, CSV, text, PDF) judged by their bytes.
 import { describe, expect, it } from 'vitest';
-import { detectRelayRecord, looksLikeCsvText } from '../../../shared/imports/sniff.js';
+import { detectRelayRecord, looksLikeCsvText, RELAY_RECORD_KINDS } from '../../../shared/imports/sniff.js';
+import { describeTypes, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
 
 const bytes = (text: string) => new TextEncoder().encode(text);
 const raw = (...b: number[]) => new Uint8Array(b);
@@ -38,11 +39,22 @@ describe('detectRelayRecord', () => {
 
   it('rejects other extensions and names without one, naming the allowed ones', () => {
     expect(detectRelayRecord('record.zip', ZIP)).toEqual({
-      error: "relay records are COMTRADE (.cfg, .dat, .cff), .csv, .txt or .pdf files: 'record.zip' is a .zip file",
+      error: "relay records are COMTRADE (.cfg, .dat, .cff), CSV (.csv), text (.txt) or PDF (.pdf) files: 'record.zip' is a .zip file",
     });
     expect(detectRelayRecord('record', bytes('x'))).toEqual({
-      error: "relay records are COMTRADE (.cfg, .dat, .cff), .csv, .txt or .pdf files: 'record' is without an extension",
+      error: "relay records are COMTRADE (.cfg, .dat, .cff), CSV (.csv), text (.txt) or PDF (.pdf) files: 'record' is without an extension",
     });
+  });
+
+  it('takes exactly the extensions of the shared relay-record list (UPLOAD_TYPES.relayRecord), each with a content check', () => {
+    const listed = UPLOAD_TYPES.relayRecord.kinds.map((k) => k.ext.slice(1)).sort();
+    expect(Object.keys(RELAY_RECORD_KINDS).sort()).toEqual(listed);
+    expect(RELAY_RECORD_KINDS).toEqual({ cfg: 'comtrade-cfg', dat: 'comtrade-dat', cff: 'comtrade-cff', csv: 'csv', txt: 'text', pdf: 'pdf' });
+    // Every listed type the picker offers passes the name check here; the names the error gives are the list's words.
+    for (const ext of listed) expect(detectRelayRecord(`r.${ext}`, raw())).toEqual({ error: `the .${ext} file is empty` });
+    const refused = detectRelayRecord('r.docx', bytes('x'));
+    expect('error' in refused && refused.error).toContain(describeTypes(UPLOAD_TYPES.relayRecord));
+    expect(detectRelayRecord('r.constructor', bytes('x'))).toHaveProperty('error');
   });
 
   it('rejects an empty file', () => {
