@@ -1,6 +1,6 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { DataSource } from 'typeorm';
+import { Like, type DataSource } from 'typeorm';
 import type { Running } from '../../server/index.js';
 import { DEMO_PASSWORD } from '../../server/db/seed/demo-users.js';
 import { FaultEvent } from '../../server/features/events/fault-event.entity.js';
@@ -58,7 +58,8 @@ describe('screen and decide in the browser', () => {
     // The mail worker is kicked when the screening commits; give it a moment.
     let mail: SinkMessage | null = null;
     for (let i = 0; i < 50 && !mail; i++) {
-      mail = await db.getRepository(SinkMessage).findOne({ where: { to: 'manager@kestrel-valley.example' }, order: { id: 'DESC' } });
+      // This event's mail (other browser tests screen units of their own in the same database and may mail later).
+      mail = await db.getRepository(SinkMessage).findOne({ where: { to: 'manager@kestrel-valley.example', subject: Like('%KVP-HX-T2%') }, order: { id: 'DESC' } });
       if (!mail) await new Promise((r) => setTimeout(r, 200));
     }
     expect(mail?.subject).toMatch(/CONDITIONAL — KVP-HX-T2/);

@@ -67,7 +67,7 @@ describe('correcting a unit reading set', () => {
   it('sends only the changed fields to PATCH /api/reading-sets/:id', async () => {
     const { requests } = scriptFetch({ 'PATCH /api/reading-sets/21': { body: { ...routine, humidityPercent: 40, staleEventIds: [], note: null } } });
     const wrapper: VueWrapper = mount(EventSessionCorrectForm, { props: { session: routine, zone: 'Europe/London', configurations: ['CH', 'CL', 'CHL'], unitSet: true }, ...plugins });
-    expect(wrapper.text()).toContain('Correct reading set 21');
+    expect(wrapper.text()).toMatch(/Correct the reading set of \d{4}-\d{2}-\d{2} \d{2}:\d{2}/);
     await wrapper.get('input[data-test="session-correct-humidityPercent"]').setValue('40');
     await wrapper.get('input[data-test="session-correct-capacitance-CHL"]').setValue('5230');
     await wrapper.get('[data-test="session-correct-form-21"]').trigger('submit');
