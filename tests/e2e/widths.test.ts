@@ -88,6 +88,10 @@ describe.each([1024, 390])('lists at %i px wide', (width) => {
     ['engineer', '/units'],
     ['tester', '/units/UNIT'],
     ['engineer', '/events'],
+    ['admin', '/admin/people'],
+    ['admin', '/admin/sites'],
+    ['admin', '/admin/designs'],
+    ['admin', '/admin/units'],
   ];
   it.each(pages)('as %s, %s: no table scrolls sideways', async (role, path) => {
     const page = await openAs(browser, running.url, api, role, path.replace('UNIT', String(demoUnitId)), width);
