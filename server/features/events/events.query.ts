@@ -97,7 +97,7 @@ export async function listEvents(m: EntityManager, q: z.infer<typeof eventListQu
   return {
     items: events.map((e) => {
       const u = unit.get(e.unitId)!;
-      return { ...eventView(e), unitSerial: u.serial, siteId: u.siteId, siteName: u.site.name, siteTimeZone: u.site.timeZone, recommendation: rec.get(e.id) ?? null };
+      return { ...eventView(e), unitSerial: u.serial, siteId: u.siteId, siteName: u.site.name, siteTimeZone: u.site.timeZone, siteLocale: u.site.locale, recommendation: rec.get(e.id) ?? null };
     }),
     total,
     page: q.page,

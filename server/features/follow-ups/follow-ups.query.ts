@@ -52,6 +52,7 @@ export async function listFollowUps(m: EntityManager, clock: Clock, q: FollowUpL
         siteId: u.siteId,
         siteName: u.site.name,
         siteTimeZone: u.site.timeZone,
+        siteLocale: u.site.locale,
         daysOverdue: daysOverdue(f.dueAt, now, u.site.timeZone),
       };
     }),

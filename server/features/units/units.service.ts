@@ -84,6 +84,7 @@ export async function listUnits(m: EntityManager, q: UnitListQuery) {
       ...unitView(u),
       siteName: site.get(u.siteId)?.name ?? '',
       siteTimeZone: site.get(u.siteId)?.timeZone ?? 'UTC',
+      siteLocale: site.get(u.siteId)?.locale ?? null,
       designReference: design.get(u.designId)?.reference ?? '',
       activeRestrictions: restrictions.get(u.id) ?? null,
     })),

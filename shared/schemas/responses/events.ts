@@ -46,6 +46,8 @@ export const eventListItemSchema = eventViewSchema.extend({
   siteId: rowId,
   siteName: z.string(),
   siteTimeZone: z.string(),
+  /** The site's date format (BCP 47); null or absent: ISO form. */
+  siteLocale: z.string().nullable().optional(),
   recommendation: z.enum(RECOMMENDATIONS).nullable(),
 });
 export type EventListItem = z.infer<typeof eventListItemSchema>;

@@ -100,6 +100,8 @@ export type UnitView = z.infer<typeof unitViewSchema>;
 export const unitListItemSchema = unitViewSchema.extend({
   siteName: z.string(),
   siteTimeZone: z.string(),
+  /** The site's date format (BCP 47); null or absent: ISO form. */
+  siteLocale: z.string().nullable().optional(),
   designReference: z.string(),
   /** Restrictions of release-with-restrictions decisions on the unit not yet lifted (null: none). */
   activeRestrictions: z.string().nullable(),

@@ -16,6 +16,8 @@ export const followUpListItemSchema = followUpViewSchema.extend({
   siteName: z.string(),
   /** IANA time zone of the site: the due date is shown in it. */
   siteTimeZone: z.string(),
+  /** The site's date format (BCP 47); null or absent: ISO form. */
+  siteLocale: z.string().nullable().optional(),
   /** Whole days on the site's calendar since the due day, once the due time has passed; null before it or without one. */
   daysOverdue: z.number().int().nonnegative().nullable(),
 });
