@@ -12,7 +12,7 @@ beforeAll(() => import('../../../src/pages/EventFilePage.vue'), 60_000);
 describe('EventFilePage — moving to another event id', () => {
   afterEach(resetClientState);
 
-  it('drops the previous event (serial, decision panel, upload controls) and shows "not found" with a link to the fleet when the new id answers 404', async () => {
+  it('drops the previous event (serial, decision panel, upload controls) and shows "not found" with links back to the events list and the fleet when the new id answers 404', async () => {
     storeToken('valid');
     scriptFetch({
       'GET /api/auth/me': { body: makeUser({ roles: ['manager', 'protection'] }) },
@@ -37,8 +37,8 @@ describe('EventFilePage — moving to another event id', () => {
     expect(wrapper.find('[data-test="new-session"]').exists()).toBe(false);
     const notFound = wrapper.get('[data-test="event-error"][data-state="not-found"]');
     expect(notFound.text()).toContain('There is no fault event with this number.');
-    const back = notFound.get('a[data-test="load-back"]');
-    expect(back.attributes('href')).toBe('/units');
+    expect(notFound.get('a[data-test="load-back"]').attributes('href')).toBe('/events');
+    expect(notFound.get('a[data-test="load-back-1"]').attributes('href')).toBe('/units');
   });
 });
 
