@@ -48,7 +48,8 @@ describe('answers of the fleet routes', () => {
   });
 
   it('parses GET /api/sites and GET /api/designs items', () => {
-    expect(siteViewSchema.safeParse({ id: 1, name: 'Harrow Cross', timeZone: 'Europe/London' }).success).toBe(true);
+    expect(siteViewSchema.safeParse({ id: 1, name: 'Harrow Cross', timeZone: 'Europe/London', locale: null }).success).toBe(true);
+    expect(siteViewSchema.safeParse({ id: 1, name: 'Harrow Cross', timeZone: 'Europe/London', locale: 'en-GB' }).success).toBe(true);
     expect(designViewSchema.safeParse(design40).success).toBe(true);
     expect(designListItemSchema.safeParse({ ...design40, unitCount: 3 }).success).toBe(true);
   });
