@@ -40,10 +40,15 @@ export async function openAs(browser: Browser, baseUrl: string, api: ReturnType<
   const context = await browser.newContext({ viewport: { width, height: 900 }, bypassCSP: true });
   const page = await context.newPage();
   page.on('close', () => void context.close());
-  await page.goto(`${baseUrl}/sign-in`);
   if (role) {
+    // The token is in local storage before the app's first script runs (one page load instead of two); only on the
+    // tab's first load, so that a sign-out within a test stays signed out.
     const token = await api.token(role);
-    await page.evaluate((t) => localStorage.setItem('gapsight.token', t), token);
+    await context.addInitScript((t) => {
+      if (sessionStorage.getItem('gapsight.test-signed-in')) return;
+      sessionStorage.setItem('gapsight.test-signed-in', '1');
+      localStorage.setItem('gapsight.token', t);
+    }, token);
   }
   await page.goto(`${baseUrl}${path}`);
   await settled(page);
