@@ -2,11 +2,11 @@
 // inspection findings.
 import type { z } from 'zod';
 import type { decisionBodySchema, findingBodySchema, followUpInputSchema, screeningRunBodySchema } from '../../shared/schemas/screening';
-import type { ClosedFollowUp, DecisionAnswer, RecordedFinding, RunScreeningAnswer } from '../../shared/schemas/responses';
+import type { ClosedFollowUp, DecisionAnswer, RecordedFinding, RunScreeningAnswer, ScreenedCaseAnswer } from '../../shared/schemas/responses';
 import { api } from './client';
 
 // The answers' types live in shared/schemas/responses; the bodies are the server's zod schemas' input.
-export type { ClosedFollowUp, DecisionAnswer, RecordedFinding, RunScreeningAnswer };
+export type { ClosedFollowUp, DecisionAnswer, RecordedFinding, RunScreeningAnswer, ScreenedCaseAnswer };
 /** A criteria-set version other than the newest published one (engineers' comparison runs); a comparison run changes no status and sends no mail. */
 export type RunScreeningBody = z.input<typeof screeningRunBodySchema>;
 /** A follow-up the manager sets (dueAt ISO 8601 UTC, or null for a task without a date). */
@@ -22,6 +22,11 @@ export function runScreening(eventId: number, body: RunScreeningBody = {}): Prom
 // GET /api/screenings/:id/report.pdf — the screening report, fetched with the token (a plain link could not send it).
 export function downloadScreeningReport(screeningId: number): Promise<Blob> {
   return api.download(`/screenings/${screeningId}/report.pdf`);
+}
+
+// GET /api/screenings/:id/case — the case a stored screening judged (the evidence charts are drawn from it).
+export function getScreenedCase(screeningId: number): Promise<ScreenedCaseAnswer> {
+  return api.get<ScreenedCaseAnswer>(`/screenings/${screeningId}/case`);
 }
 
 // POST /api/screenings/:id/decision — the manager signs release / release with restrictions / hold.

@@ -39,7 +39,11 @@ export async function openAs(browser: Browser, baseUrl: string, api: ReturnType<
   // bypassCSP: the app's Content-Security-Policy (script-src 'self') would refuse the axe-core script the test injects.
   const context = await browser.newContext({ viewport: { width, height: 900 }, bypassCSP: true });
   const page = await context.newPage();
-  page.on('close', () => void context.close());
+  // The page's own context goes with it. When the browser is closing too (a file's afterAll right after its last test),
+  // closing the context is refused with "Target page, context or browser has been closed": nothing is left to close.
+  page.on('close', () => {
+    context.close().catch(() => undefined);
+  });
   if (role) {
     // The token is in local storage before the app's first script runs (one page load instead of two); only on the
     // tab's first load, so that a sign-out within a test stays signed out.

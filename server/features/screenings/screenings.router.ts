@@ -3,7 +3,7 @@ import { caseSchema } from '../../../shared/schemas/case.js';
 import { decisionBodySchema, energisedBodySchema, findingBodySchema, followUpCloseSchema, liftRestrictionsBodySchema, screeningRunBodySchema } from '../../../shared/schemas/screening.js';
 import { eventParams, followUpParams, screeningParams } from '../../common/params.js';
 import { screeningReportPdf } from '../../reports/report.service.js';
-import { assertMayRunScreening, closeFollowUp, decide, liftRestrictions, previewScreening, recordEnergised, recordFinding, runScreening } from './screenings.service.js';
+import { assertMayRunScreening, closeFollowUp, decide, liftRestrictions, previewScreening, recordEnergised, recordFinding, runScreening, screenedCase } from './screenings.service.js';
 
 export const screeningRoutes: RouteDef[] = [
   // POST /api/screenings/preview — screen a gapsight-case/1 body; nothing is stored
@@ -40,6 +40,15 @@ export const screeningRoutes: RouteDef[] = [
       const report = await screeningReportPdf(m, params.screeningId, ctx.appUrl ?? `${req.protocol}://${req.get('host')}`);
       return fileReply(report.pdf, 'application/pdf', { 'Content-Disposition': `inline; filename="${report.filename}"` });
     },
+  }),
+  // GET /api/screenings/:screeningId/case — the gapsight-case/1 exactly as it was screened (the charts of the evidence
+  // are drawn from it: sweep traces, sister values, dissipation at several frequencies)
+  route({
+    method: 'get',
+    path: '/screenings/:screeningId/case',
+    access: 'signed-in',
+    params: screeningParams,
+    handler: ({ m, params }) => screenedCase(m, params.screeningId),
   }),
   // POST /api/screenings/:screeningId/decision — the manager signs off: release, release with restrictions, or hold
   route({

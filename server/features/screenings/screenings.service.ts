@@ -2,7 +2,7 @@ import { In, type EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import { decisionGoesAgainst, proposedFollowUpDueAt, recountedFollowUpDueAt, AGAINST_REASON_MIN, type DecisionBody, type findingBodySchema } from '../../../shared/schemas/screening.js';
 import type { GapsightCase } from '../../../shared/schemas/case.js';
-import type { ClosedFollowUp, DecisionAnswer, EnergisedAnswer, LiftedRestrictions, RecordedFinding, RunScreeningAnswer } from '../../../shared/schemas/responses/index.js';
+import type { ClosedFollowUp, DecisionAnswer, EnergisedAnswer, LiftedRestrictions, RecordedFinding, RunScreeningAnswer, ScreenedCaseAnswer } from '../../../shared/schemas/responses/index.js';
 import type { GapsightResult } from '../../../shared/schemas/result.js';
 import { screenCase } from '../../../shared/screening/index.js';
 import { formatInstant } from '../../../shared/format.js';
@@ -27,6 +27,13 @@ export async function previewScreening(m: EntityManager, c: GapsightCase): Promi
 }
 
 /** An engineer runs comparison screenings only; a normal run needs the tester, manager or admin role. */
+/** The case a stored screening judged, with its screening's id, version and time. */
+export async function screenedCase(m: EntityManager, screeningId: number): Promise<ScreenedCaseAnswer> {
+  const s = await m.getRepository(Screening).findOne({ where: { id: screeningId } });
+  if (!s) throw notFound('Screening');
+  return { screeningId: s.id, eventId: s.eventId, criteriaVersion: s.criteriaVersion, computedAt: s.computedAt.toISOString(), case: s.case as unknown as GapsightCase };
+}
+
 export function assertMayRunScreening(roles: readonly string[], comparison: boolean): void {
   if (comparison || roles.some((r) => r === 'tester' || r === 'manager' || r === 'admin')) return;
   throw new AppError('forbidden', 'Engineers may run comparison screenings only; a normal screening needs a tester or a manager.', 403);

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { caseSchema } from '../case.js';
 import { resultSchema } from '../result.js';
 import { isoDateTime, rowId } from './common.js';
 import { decisionViewSchema, findingViewSchema, followUpViewSchema } from './events.js';
@@ -15,6 +16,16 @@ export const runScreeningAnswerSchema = z.strictObject({
   mailsQueued: z.number().int().nonnegative(),
 });
 export type RunScreeningAnswer = z.infer<typeof runScreeningAnswerSchema>;
+
+/** GET /api/screenings/:id/case — the gapsight-case/1 a stored screening judged, as it was then. */
+export const screenedCaseAnswerSchema = z.strictObject({
+  screeningId: rowId,
+  eventId: rowId,
+  criteriaVersion: z.number().int().positive(),
+  computedAt: isoDateTime,
+  case: caseSchema,
+});
+export type ScreenedCaseAnswer = z.infer<typeof screenedCaseAnswerSchema>;
 
 /** POST /api/screenings/:id/decision — the decision, the event's new status and the follow-ups it set. */
 export const decisionAnswerSchema = decisionViewSchema.extend({

@@ -21,6 +21,7 @@ import {
   outboxMessageSchema,
   recordedFindingSchema,
   runScreeningAnswerSchema,
+  screenedCaseAnswerSchema,
   siteViewSchema,
   sweepMetaSchema,
   unitDetailSchema,
@@ -114,6 +115,18 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await env.db.destroy();
+});
+
+describe('the screened case', () => {
+  it('GET /api/screenings/:id/case: the case the screening judged, with its sweep traces, matches screenedCaseAnswerSchema', async () => {
+    const screening = written.screening.body as { id: number; criteriaVersion: number };
+    const res = await api().get(`/api/screenings/${screening.id}/case`).set(engineer);
+    expect(res.status).toBe(200);
+    const answer = expectAnswer(screenedCaseAnswerSchema, res.body);
+    expect(answer).toMatchObject({ screeningId: screening.id, eventId, criteriaVersion: screening.criteriaVersion });
+    expect(answer.case.sweeps?.map((s) => s.label)).toContain('HV-A-open');
+    expect((await api().get('/api/screenings/999999/case').set(engineer)).status).toBe(404);
+  });
 });
 
 describe('answers of the fleet routes', () => {

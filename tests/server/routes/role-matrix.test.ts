@@ -92,6 +92,8 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   // Not api.md rows: resending a mail from the event's e-mail log, and opening an attachment of a mail in the outbox.
   ['POST /notifications/:id/resend', ['manager']],
   ['GET /dev/outbox/:id/attachments/:index', ['admin', 'manager']],
+  // Not an api.md row: the case exactly as a stored screening judged it (the evidence charts are drawn from it).
+  ['GET /screenings/:id/case', 'signed in'],
   // Not an api.md row: the signed-in person replaces their own password (a one-time password first of all).
   ['POST /auth/password', 'signed in'],
 ];
