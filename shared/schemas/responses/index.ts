@@ -9,3 +9,4 @@ export * from './admin.js';
 export * from './outbox.js';
 export * from './notifications.js';
 export * from './followups.js';
+export * from './criteria.js';
