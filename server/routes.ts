@@ -16,6 +16,7 @@ import { screeningRoutes } from './features/screenings/screenings.router.js';
 import { followUpRoutes } from './features/follow-ups/follow-ups.router.js';
 import { findingRoutes } from './features/findings/findings.router.js';
 import { exportRoutes } from './features/exports/exports.router.js';
+import { criteriaRoutes } from './features/criteria/criteria.router.js';
 
 /** Every API route with who may call it; the router is built from this table and the role-matrix test reads it. */
 export const routeTable: RouteDef[] = [
@@ -32,6 +33,7 @@ export const routeTable: RouteDef[] = [
   ...followUpRoutes,
   ...findingRoutes,
   ...exportRoutes,
+  ...criteriaRoutes,
   ...outboxRoutes,
   ...notificationRoutes,
 ];

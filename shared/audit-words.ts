@@ -365,6 +365,31 @@ function sweepTraceSentence(a: AuditEntryFacts, p: string, ctx: AuditWordsContex
   return generic(a, p, ctx);
 }
 
+/** criteria_set: a draft made from a version, a draft changed (the leaves that changed, in words), a version published. */
+function criteriaSetSentence(a: AuditEntryFacts, p: string, ctx: AuditWordsContext): string {
+  const after = fields(a.after);
+  const v = typeof after.version === 'number' ? ` ${after.version}` : '';
+  if (a.action === 'create') {
+    const from = typeof after.fromVersion === 'number' ? ` from version ${after.fromVersion}` : '';
+    const name = text(after.name);
+    return withNote(`${p} drafted criteria set${v}${from}${name ? ` (${quoted(name)})` : ''}`, a.note);
+  }
+  if (a.action === 'update') {
+    const changes = Array.isArray(after.changes) ? after.changes.map(fields) : [];
+    const shown = changes.slice(0, 5).map((c) => {
+      const label = text(c.label) ?? 'a threshold';
+      const value = (x: unknown) => (x === null || x === undefined ? 'none' : typeof x === 'object' ? 'values' : typeof x === 'string' ? quoted(x) : String(x));
+      return `${inSentence(label)} ${value(c.from)} → ${value(c.to)}`;
+    });
+    const more = changes.length > 5 ? `; and ${countWords(changes.length - 5, 'more change', 'more changes')}` : '';
+    const notes = JSON.stringify(fields(a.before).notes ?? null) !== JSON.stringify(after.notes ?? null) ? `${shown.length ? '; ' : ''}notes changed` : '';
+    const what = `${shown.join('; ')}${more}${notes}`;
+    return withNote(`${p} changed the draft criteria set${v}${what ? `: ${what}` : ''}`, a.note);
+  }
+  if (a.action === 'publish') return withNote(`${p} published criteria set${v}: it can no longer change and screenings now use it`, a.note);
+  return generic(a, p, ctx);
+}
+
 function sentenceOf(a: AuditEntryFacts, ctx: AuditWordsContext): string {
   const p = who(a.userId, ctx);
   const after = fields(a.after);
@@ -394,6 +419,8 @@ function sentenceOf(a: AuditEntryFacts, ctx: AuditWordsContext): string {
       break;
     case 'sweep_trace':
       return sweepTraceSentence(a, p, ctx);
+    case 'criteria_set':
+      return criteriaSetSentence(a, p, ctx);
     case 'notification':
       if (a.action === 'create') {
         const kind = NOTIFICATION_KIND_LABELS[String(after.kind)];

@@ -181,6 +181,24 @@ const ENTRIES: { entry: AuditEntryFacts; says: RegExp | string }[] = [
   {
     entry: { userId: 1, action: 'update', entity: 'site', entityId: '1', before: { id: 1, name: 'Harrow Cross', timeZone: 'Europe/London', controlRoomEmail: null }, after: { id: 1, name: 'Harrow Cross', timeZone: 'Europe/London', controlRoomEmail: 'control@kestrel-valley.example' } },
     says: 'Sam Admin changed the site Harrow Cross: control room e-mail none → control@kestrel-valley.example.',
+  },  {
+    entry: { userId: 5, action: 'create', entity: 'criteria_set', entityId: '3', after: { version: 3, fromVersion: 2, name: 'Wider capacitance bands', notes: null } },
+    says: 'Erin Engineer drafted criteria set 3 from version 2 (“Wider capacitance bands”).',
+  },
+  {
+    entry: {
+      userId: 5,
+      action: 'update',
+      entity: 'criteria_set',
+      entityId: '3',
+      before: { version: 3, notes: null },
+      after: { version: 3, notes: null, changes: [{ path: 'capacitance.shiftBands[1].from', label: 'Winding capacitance › shift bands › band 2 › starts at', from: 3, to: 4 }] },
+    },
+    says: 'Erin Engineer changed the draft criteria set 3: winding capacitance › shift bands › band 2 › starts at 3 → 4.',
+  },
+  {
+    entry: { userId: 1, action: 'publish', entity: 'criteria_set', entityId: '3', before: { version: 3, status: 'draft' }, after: { version: 3, status: 'published' } },
+    says: 'Sam Admin published criteria set 3: it can no longer change and screenings now use it.',
   },
 ];
 // The unit's sentence is checked by parts (below); its exact text is long.
