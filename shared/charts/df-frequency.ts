@@ -26,6 +26,8 @@ export interface DfFrequencyChart {
   conductivePart: XY[];
   seriesPart: XY[];
   constantPart: XY[];
+  /** The table view: each measured frequency with its DF and the fit's value there (null without a fit). */
+  rows: { frequencyHz: number; dfPercent: number; fittedPercent: number | null }[];
   /** Why there is no fit. */
   note?: string;
   /** "A = 12.3 % · Hz, B = 0.000512 %/Hz, C = 0.241 %, R² = 0.998". */
@@ -77,6 +79,7 @@ export function dfFrequencyChart(
     conductivePart: fit ? fs.map((f) => ({ x: f, y: fit.a / f })) : [],
     seriesPart: fit ? fs.map((f) => ({ x: f, y: fit.b * f })) : [],
     constantPart: fit ? fs.map((f) => ({ x: f, y: fit.c })) : [],
+    rows: measured.map((p) => ({ frequencyHz: p.x, dfPercent: p.y, fittedPercent: fit ? fit.a / p.x + fit.b * p.x + fit.c : null })),
     note,
     fitText: fitInWords(fit),
     axes: DF_AXIS_TITLES,

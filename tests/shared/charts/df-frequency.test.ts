@@ -35,6 +35,8 @@ describe('dissipation over frequency chart', () => {
     expect(ch.curve[2].x).toBeCloseTo(Math.sqrt(10 * 400), 9);
     expect(ch.curve[0].y).toBeCloseTo(0.92, 9); // the curve passes through the measured points (hand computed above)
     expect(ch.curve[4].y).toBeCloseTo(1.115, 9);
+    expect(ch.rows.map((r) => [r.frequencyHz, r.dfPercent])).toEqual([[10, 0.92], [50, 0.52], [100, 0.56], [400, 1.115]]);
+    ch.rows.forEach((r) => expect(r.fittedPercent!).toBeCloseTo(r.dfPercent, 9)); // exact fit (hand computed above)
   });
 
   it('splits the curve into A/f, B·f and C, which add up to it', () => {
@@ -54,6 +56,7 @@ describe('dissipation over frequency chart', () => {
     expect(few.curve).toEqual([]);
     expect(few.note).toBe('fewer than 4 frequencies (3): no fit'); // criteria set 2: dfFrequency.minPoints 4
     expect(few.measured).toHaveLength(3);
+    expect(few.rows.every((r) => r.fittedPercent === null)).toBe(true);
     expect(fitInWords(null)).toBe('no fit');
   });
 
