@@ -4,6 +4,7 @@
 import type { CanvasElement, Column, Content, TDocumentDefinitions, TableCell } from 'pdfmake/interfaces.js';
 import type { Indicator, Level, ThroughFault } from '../../shared/schemas/result.js';
 import type { ScreeningReportData } from './report-data.js';
+import { dutyCurveContent } from './pdf-charts.js';
 import {
   BASIS_LEGEND,
   PALETTE,
@@ -40,6 +41,7 @@ import { faultTypeWord, indicatorLabel, LEVEL_WORD, methodWord, RECOMMENDATION_W
 import { reasonInWords } from '../../shared/screening/headline.js';
 import { lacksBaselineTrace } from '../../shared/screening/verdict.js';
 import { formatInstant, formatSignificant } from '../../shared/format.js';
+import { frequencyResponseOf } from './pdf-sweep.js';
 
 const LEVEL_ORDER: Record<Level, number> = { critical: 0, investigate: 1, watch: 2, ok: 3 };
 
@@ -374,7 +376,7 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
   if (winding) content.push({ text: winding, bold: r.throughFault?.currentBasis === 'line-assumed', color: r.throughFault?.currentBasis === 'line-assumed' ? PALETTE.watch : PALETTE.graphite });
   const duty = dutyInWords(r, d.case);
   if (duty) content.push({ text: duty, margin: [0, 0, 0, 4] });
-  if (r.throughFault) content.push(throughFaultTable(r.throughFault));
+  if (r.throughFault) content.push(throughFaultTable(r.throughFault), ...dutyCurveContent(d));
   else content.push({ text: 'No fault current recorded: no duty figures.', italics: true });
 
   // Reasons
@@ -424,6 +426,8 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
     });
     content.push({ ul: detail.map((x) => ({ text: x, style: 'small' })) });
   }
+
+  content.push(...frequencyResponseOf(d));
 
   // Follow-ups
   content.push(heading('Follow-ups (proposed)'));
