@@ -197,3 +197,45 @@ export const unitDetailSchema = unitViewSchema.extend({
   activeRestrictions: z.string().nullable(),
 });
 export type UnitDetail = z.infer<typeof unitDetailSchema>;
+
+/** A quantity a design family can be compared on (`capacitance.CHL`, `reactance.A`), in words and with its unit. */
+export const familyQuantitySchema = z.strictObject({ name: z.string(), label: z.string(), unit: z.string() });
+
+/** One unit of a design family on one quantity. */
+export const designSisterItemSchema = z.strictObject({
+  unitId: rowId,
+  serial: z.string(),
+  /** The unit's latest value (newest non-post-fault reading set that has it), in `unit`. */
+  value: z.number(),
+  /** When that reading set was taken. */
+  takenAt: isoDateTime.nullable(),
+  /** Modified z over every unit of the family with the value (null: too few sisters, or MAD/median zero). */
+  modifiedZ: z.number().nullable(),
+  deviationFromMedianPercent: z.number().nullable(),
+  /** |M| at or above the criteria's limit. */
+  outlier: z.boolean(),
+});
+export type DesignSisterItem = z.infer<typeof designSisterItemSchema>;
+
+/** GET /api/designs/:id/sisters?quantity= — the family compared on one quantity (the engine's functions and constants). */
+export const designSistersSchema = z.strictObject({
+  designId: rowId,
+  /** The quantity compared (null: no unit of the family has a comparable value). */
+  quantity: z.string().nullable(),
+  label: z.string().nullable(),
+  unit: z.string().nullable(),
+  /** Every quantity the family can be compared on. */
+  quantities: z.array(familyQuantitySchema),
+  items: z.array(designSisterItemSchema),
+  median: z.number().nullable(),
+  /** The MAD the modified z used (floored at the criteria's fraction of |median|; `madFloored` says so). */
+  mad: z.number().nullable(),
+  madFloored: z.boolean(),
+  /** M = constant·(x − median)/MAD; outlier at |M| ≥ limit (the criteria set's `sisters` values). */
+  constant: z.number(),
+  limit: z.number(),
+  criteriaVersion: z.number().int(),
+  /** Why there are no modified z-scores, in words (null when there are). */
+  note: z.string().nullable(),
+});
+export type DesignSisters = z.infer<typeof designSistersSchema>;
