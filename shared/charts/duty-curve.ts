@@ -6,6 +6,7 @@
 //   dutyCurveSeries({ unit, fault, priorFaults?, criteria? }) → DutyCurve (null-free; no fault → no shots)
 //   dutyCurvePlotSpec(curve, { width?, height? }) → PlotSpec for svgPlot (shared/charts/svg-plot.ts)
 //   dutyCurveSvg(curve, size?) → the SVG string (the PDF report)
+//   decadeRange(min, max) → [lo, hi] log10 exponents of the whole decades around a range (the screen chart's log axes)
 import type { Fault, PriorFault, Unit } from '../schemas/case.js';
 import type { IeeeCategory } from '../schemas/result.js';
 import type { Criteria } from '../screening/criteria.js';
@@ -96,6 +97,14 @@ export function logCeil(v: number): number {
   const e = Math.floor(Math.log10(v));
   const m = [1, 2, 5, 10].find((k) => k * 10 ** e >= v * (1 - 1e-9)) ?? 10;
   return Number((m * 10 ** e).toPrecision(12));
+}
+
+/** The whole decades around [min, max] (0 < min ≤ max) as log10 exponents: a log axis drawn as log10 values (ApexCharts
+ * 4.7 has no logarithmic x axis) with a tick at each decade. */
+export function decadeRange(min: number, max: number): [number, number] {
+  const lo = Math.floor(Math.log10(min) + 1e-9);
+  const hi = Math.ceil(Math.log10(max) - 1e-9);
+  return [lo, Math.max(hi, lo + 1)];
 }
 
 /** Samples of t = K/I² between two currents, evenly spaced in log I (a straight line on log–log axes needs two; more

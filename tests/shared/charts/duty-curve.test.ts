@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Fault, PriorFault, Unit } from '../../../shared/schemas/case.js';
 import { ratedCurrentA } from '../../../shared/screening/through-fault.js';
-import { allowedTimeS, dutyCurvePlotSpec, dutyCurveSeries, dutyCurveSvg, logCeil, logFloor } from '../../../shared/charts/duty-curve.js';
+import { allowedTimeS, decadeRange, dutyCurvePlotSpec, dutyCurveSeries, dutyCurveSvg, logCeil, logFloor } from '../../../shared/charts/duty-curve.js';
 
 // references.md: Z_t 0.08, Z_s 0.02 → I_sc 10 pu, K 200 (40 MVA three-phase: category IV, system impedance counted).
 const unitIV: Unit = { serial: 'T-IV', phases: 3, ratedKVA: 40000, hvKV: 132, lvKV: 33, impedancePercent: 8, systemImpedancePercent: 2 };
@@ -106,6 +106,14 @@ describe('dutyCurveSeries', () => {
     expect(c.x).toEqual({ title: 'Current (per unit of rated)', min: 1, max: 50 }); // 25 pu × 1.1 → 50
     expect(c.y).toEqual({ title: 'Time (s)', min: 0.02, max: 2000 }); // 0.05 s × 0.9 → 0.02; 1800 s × 1.1 → 2000
     expect([logFloor(0.045), logFloor(1), logFloor(3.3), logCeil(27.5), logCeil(1980), logCeil(5)]).toEqual([0.02, 1, 2, 50, 2000, 5]);
+  });
+});
+
+describe('decadeRange', () => {
+  it('gives the whole decades around a range as log10 exponents (hand computed)', () => {
+    expect(decadeRange(1, 50)).toEqual([0, 2]); // 1 = 10^0, 50 → 100 = 10^2
+    expect(decadeRange(0.02, 2000)).toEqual([-2, 4]); // 0.02 → 0.01 = 10^-2, 2000 → 10 000 = 10^4
+    expect(decadeRange(10, 10)).toEqual([1, 2]); // never an empty axis
   });
 });
 
