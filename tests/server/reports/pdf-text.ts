@@ -22,6 +22,12 @@ function inline(v: unknown): string {
   return '';
 }
 
+/** The texts of an SVG string's <text> elements (entities decoded), one per element. */
+function svgTexts(svg: string): string[] {
+  const decode = (t: string) => t.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&apos;/g, "'").replace(/&amp;/g, '&');
+  return [...svg.matchAll(/<text\b[^>]*>([\s\S]*?)<\/text>/g)].map((m) => decode(m[1].replace(/<[^>]+>/g, '')));
+}
+
 /** Every printed text, one node a line (a table cell, a list item, a paragraph with its inline runs joined). */
 export function pdfText(def: TDocumentDefinitions): string {
   const out: string[] = [];
@@ -33,7 +39,11 @@ export function pdfText(def: TDocumentDefinitions): string {
         out.push(inline((v as { text: unknown }).text));
         return;
       }
-      for (const [k, x] of Object.entries(v)) if (!PRESENTATION_KEYS.has(k)) walk(x);
+      for (const [k, x] of Object.entries(v)) {
+        // An `svg` drawing prints the texts of its <text> elements, not its markup.
+        if (k === 'svg' && typeof x === 'string') out.push(...svgTexts(x));
+        else if (!PRESENTATION_KEYS.has(k)) walk(x);
+      }
     }
   };
   printedParts(def).forEach(walk);
