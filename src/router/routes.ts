@@ -58,6 +58,13 @@ export const routes: RouteRecordRaw[] = [
         meta: { title: 'Unit file' },
       },
       {
+        path: 'designs/:id(\\d+)',
+        name: 'design-family',
+        component: () => import('../pages/DesignFamilyPage.vue'),
+        props: true,
+        meta: { title: 'Design family' },
+      },
+      {
         path: 'events',
         name: 'events',
         component: () => import('../pages/EventListPage.vue'),
@@ -75,6 +82,12 @@ export const routes: RouteRecordRaw[] = [
         component: () => import('../pages/EventFilePage.vue'),
         props: true,
         meta: { title: 'Event file' },
+      },
+      {
+        path: 'criteria',
+        name: 'criteria',
+        component: () => import('../pages/CriteriaPage.vue'),
+        meta: { title: 'Criteria sets', nav: { label: 'Criteria sets', icon: 'rule' } },
       },
       {
         // Administration (admin): people, sites, design families and units, one tab each.
