@@ -57,7 +57,7 @@ export function sweepMagnitudeSvg(o: SweepOverlay, width = SWEEP_DRAWING_WIDTH):
       x1: Math.min(b.toHz, ticks[ticks.length - 1]),
       fill: BAND_FILLS[k % BAND_FILLS.length],
       opacity: b.judged ? 0.08 : 0.03,
-      label: b.judged ? `${b.band}: R ${b.rText}, ${b.classText}` : `${b.band}: not judged`,
+      label: b.band,
     })),
   });
 }
@@ -76,6 +76,11 @@ export function sweepDifferenceSvg(o: SweepOverlay, width = SWEEP_DRAWING_WIDTH)
     y: { title: o.axes.difference, min: y.min, max: y.max, ticks: y.ticks },
     series: [{ label: o.differenceName, points: pairs(o.difference), stroke: TEAL, width: 0.8 }],
   });
+}
+
+/** The bands' R and class in one line: "Bands — low: R 0.223, Severe deformation · mid: R 3.357, Normal · …". */
+export function bandsInWords(o: SweepOverlay): string {
+  return `Bands (shaded) — ${o.bands.map((b) => (b.judged ? `${b.band}: R ${b.rText}, ${b.classText}` : `${b.band}: not judged`)).join(' · ')}`;
 }
 
 function bandTable(o: SweepOverlay): Content {
@@ -111,7 +116,8 @@ export function frequencyResponseContent(c: GapsightCase, criteria: Criteria): C
       block.push({ svg: sweepMagnitudeSvg(o), width: SWEEP_DRAWING_WIDTH });
       const diff = sweepDifferenceSvg(o);
       if (diff) block.push({ svg: diff, width: SWEEP_DRAWING_WIDTH });
-      block.push({ text: `DL/T 911 class: ${o.overallClassText}${o.notes.length ? ` (${o.notes.join('; ')})` : ''}`, style: 'small', margin: [0, 2, 0, 1] });
+      block.push({ text: bandsInWords(o), style: 'small', margin: [0, 2, 0, 1] });
+      block.push({ text: `DL/T 911 class: ${o.overallClassText}${o.notes.length ? ` (${o.notes.join('; ')})` : ''}`, style: 'small', bold: true, margin: [0, 1, 0, 1] });
       block.push(bandTable(o));
     }
     out.push({ stack: block, unbreakable: true });

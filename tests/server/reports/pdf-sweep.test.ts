@@ -2,7 +2,7 @@
 // titles and band labels drawn in the rendered PDF (in Roboto, every glyph present), R per band as the engine gives it.
 import { describe, expect, it } from 'vitest';
 import { renderPdf } from '../../../server/reports/pdf.js';
-import { frequencyResponseOf, sweepMagnitudeSvg } from '../../../server/reports/pdf-sweep.js';
+import { bandsInWords, frequencyResponseOf, sweepMagnitudeSvg } from '../../../server/reports/pdf-sweep.js';
 import { buildReportDocDefinition } from '../../../server/reports/screening-report.js';
 import { criteriaV2 } from '../../../shared/screening/criteria-sets.js';
 import { compareTraces } from '../../../shared/screening/sweep.js';
@@ -45,17 +45,20 @@ describe('frequency response in the PDF report', () => {
     expect(text).toContain('HV winding, phase A, open circuit (HV-A-open): post-fault against baseline');
   });
 
-  it('labels each band with the engine’s R (compareTraces) to 3 decimals and the class', () => {
+  it('names each shaded band and gives its R (compareTraces) to 3 decimals and its class under the drawing', () => {
     const d = sweepsReport();
     const s = d.case.sweeps!.find((x) => x.label === 'HV-A-open')!;
     const engine = compareTraces(s.baseline!, s.postFault, criteriaV2);
     const o = sweepOverlays(d.case, criteriaV2).find((x) => x.id === 'HV-A-open')!;
     const svg = sweepMagnitudeSvg(o);
-    expect(svg).toContain(`low: R ${engine.rLF!.toFixed(3)}, Severe deformation`);
-    expect(svg).toContain(`mid: R ${engine.rMF!.toFixed(3)}, Normal`);
-    expect(svg).toContain(`high: R ${engine.rHF!.toFixed(3)}, Normal`);
+    for (const band of ['low', 'mid', 'high']) expect(svg).toContain(`>${band}</text>`);
+    const line = bandsInWords(o);
+    expect(line).toContain(`low: R ${engine.rLF!.toFixed(3)}, Severe deformation`);
+    expect(line).toContain(`mid: R ${engine.rMF!.toFixed(3)}, Normal`);
+    expect(line).toContain(`high: R ${engine.rHF!.toFixed(3)}, Normal`);
     // The stored example result (examples/cases/sweeps.result.json): R_LF 0.2229 → "0.223", class severe.
-    expect(svg).toContain('low: R 0.223, Severe deformation');
+    expect(line).toContain('low: R 0.223, Severe deformation');
+    expect(pdfText(buildReportDocDefinition(d))).toContain(line);
   });
 
   it('the rendered PDF draws the axis titles and band labels in Roboto, every glyph present', async () => {
