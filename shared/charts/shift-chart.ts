@@ -6,7 +6,7 @@ import type { Band, Criteria } from '../screening/criteria.js';
 import { criteriaV2 } from '../screening/criteria-sets.js';
 import type { Indicator, Level } from '../schemas/result.js';
 import { iecReactanceCategory } from '../screening/reactance.js';
-import { basisLabel, indicatorLabel, indicatorUnit } from '../vocabulary.js';
+import { basisLabel, indicatorLabel, indicatorUnit, LEVEL_LABELS } from '../vocabulary.js';
 
 export type ShiftUnit = '%' | 'points' | 'ppm';
 export type ThresholdLevel = Exclude<Level, 'ok'>;
@@ -171,4 +171,24 @@ export function shiftChart(indicators: readonly Indicator[], criteria: Criteria,
     (groups.get(unit) ?? groups.set(unit, []).get(unit)!).push(bar);
   }
   return UNITS.filter((u) => groups.has(u)).map((u) => ({ unit: u, axisTitle: SHIFT_AXIS_TITLES[u], bars: groups.get(u)! }));
+}
+
+const UNIT_TEXT: Record<ShiftUnit, string> = { '%': ' %', points: ' points', ppm: ' ppm' };
+
+/** A bar's thresholds in words: "Watch from |value| 2 %, Investigate from 3 %" (a rise-only rule: "from +50 %"). */
+export function thresholdWords(bar: Pick<ShiftBar, 'thresholds' | 'absolute' | 'unit'>): string {
+  if (!bar.thresholds.length) return 'no thresholds';
+  const u = UNIT_TEXT[bar.unit];
+  return bar.thresholds
+    .map((t, k) => `${LEVEL_LABELS[t.level]} from ${bar.absolute ? (k === 0 ? '|value| ' : '') + Math.abs(t.at) : (t.at > 0 ? '+' : '') + t.at}${u}`)
+    .join(', ');
+}
+
+/** The value axis of a group: zero, every value and every threshold, padded by 5 % of the span. */
+export function shiftAxisRange(group: ShiftGroup): { min: number; max: number } {
+  const xs = [0, ...group.bars.flatMap((b) => [b.value, ...b.thresholds.map((t) => t.at)])];
+  const lo = Math.min(...xs);
+  const hi = Math.max(...xs);
+  const pad = hi > lo ? 0.05 * (hi - lo) : 1;
+  return { min: lo < 0 ? lo - pad : 0, max: hi > 0 ? hi + pad : 0 };
 }

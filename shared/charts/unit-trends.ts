@@ -358,3 +358,37 @@ export function trendTable(group: TrendGroup): { columns: string[]; rows: TrendT
   });
   return { columns: group.series.map((s) => s.name), rows: [...bySet.values()].sort((a, b) => a.x - b.x || a.setId - b.setId) };
 }
+
+/**
+ * The y range of a group's chart: the data and zero, and in the change view at least one and a half times the first
+ * band's start on each side that has bands (so the first band shows even when nothing has reached it), 5 % padding.
+ */
+export function trendYRange(group: TrendGroup): { min: number; max: number } {
+  const ys = group.series.flatMap((s) => s.points.map((p) => p.y));
+  let lo = Math.min(...ys, ...(group.bands.length ? [0] : []));
+  let hi = Math.max(...ys, ...(group.bands.length ? [0] : []));
+  if (!ys.length) [lo, hi] = [0, 1];
+  const up = group.bands.filter((b) => b.from !== null && b.from > 0).map((b) => b.from as number);
+  const down = group.bands.filter((b) => b.to !== null && b.to < 0).map((b) => b.to as number);
+  if (up.length) hi = Math.max(hi, 1.5 * Math.min(...up));
+  if (down.length) lo = Math.min(lo, 1.5 * Math.max(...down));
+  const pad = hi > lo ? 0.05 * (hi - lo) : Math.abs(hi) * 0.05 || 1;
+  return { min: lo - pad, max: hi + pad };
+}
+
+/** The band ranges clipped to a y range (open ends closed at the range), dropping those wholly outside it. */
+export function clipBands(bands: readonly BandRange[], range: { min: number; max: number }): { level: BandLevel; y: number; y2: number }[] {
+  return bands
+    .map((b) => ({ level: b.level, y: Math.max(b.from ?? range.min, range.min), y2: Math.min(b.to ?? range.max, range.max) }))
+    .filter((b) => b.y2 > b.y);
+}
+
+/** The time range of a chart: every point and every fault marker, padded by 3 % (30 days when all fall on one day). */
+export function trendXRange(group: TrendGroup, markers: readonly EventMarker[]): { min: number; max: number } | null {
+  const xs = [...group.series.flatMap((s) => s.points.map((p) => p.x)), ...markers.map((m) => m.x)];
+  if (!xs.length) return null;
+  const lo = Math.min(...xs);
+  const hi = Math.max(...xs);
+  const pad = hi > lo ? 0.03 * (hi - lo) : 30 * 86400000;
+  return { min: lo - pad, max: hi + pad };
+}

@@ -1,7 +1,7 @@
 // Shift chart: which indicators are shifts, the thresholds from criteria set 2 behind each key, grouping by unit.
 // The indicators are hand-built (invented values); the thresholds are criteria set 2's numbers (criteria-sets.ts).
 import { describe, expect, it } from 'vitest';
-import { bandsForKey, isShiftIndicator, shiftChart } from '../../../shared/charts/shift-chart.js';
+import { bandsForKey, isShiftIndicator, shiftAxisRange, shiftChart, thresholdWords } from '../../../shared/charts/shift-chart.js';
 import { criteriaV1, criteriaV2 } from '../../../shared/screening/criteria-sets.js';
 import type { Indicator } from '../../../shared/schemas/result.js';
 
@@ -141,5 +141,26 @@ describe('thresholds from criteria set 2', () => {
 
   it('set 1 has no PF floor, so no floor note', () => {
     expect(bandsForKey('powerFactor.CHL.riseFromBaselinePercent', criteriaV1)?.note).toBeUndefined();
+  });
+});
+
+describe('words and axis', () => {
+  const groups = shiftChart(RESULT, criteriaV2, { ratedKVA: 20000 });
+  const bar = (key: string) => groups.flatMap((g) => g.bars).find((b) => b.key === key)!;
+
+  it('writes the thresholds in words (criteria set 2 numbers)', () => {
+    expect(thresholdWords(bar('capacitance.CHL.shiftPercent'))).toBe('Watch from |value| 2 %, Investigate from 3 %, Critical from 5 %');
+    expect(thresholdWords(bar('powerFactor.CHL.riseFromBaselinePercent'))).toBe('Watch from +50 %, Investigate from +100 %');
+    expect(thresholdWords(bar('gas.H2.risePPM'))).toBe('Critical from +100 ppm');
+    expect(thresholdWords(bar('dfFrequency.CHL.seriesChangePercent'))).toBe('no thresholds');
+  });
+
+  it('spans zero, the values and the thresholds on the value axis', () => {
+    const ppm = groups.find((g) => g.unit === 'ppm')!;
+    // values 3 and 140, thresholds 1, 5, 100: 0 … 140, padded by 5 % of 140 = 7
+    expect(shiftAxisRange(ppm)).toEqual({ min: 0, max: 147 });
+    const pct = groups.find((g) => g.unit === '%')!;
+    // −5 (CHL critical threshold) … 100 (PF investigate threshold): pad 5.25
+    expect(shiftAxisRange(pct)).toEqual({ min: -10.25, max: 105.25 });
   });
 });

@@ -4,9 +4,12 @@ import { describe, expect, it } from 'vitest';
 import {
   bandRanges,
   CHANGE_Y_TITLE,
+  clipBands,
   eventMarkers,
   trendGroup,
   trendTable,
+  trendXRange,
+  trendYRange,
   unitTrends,
   type TrendReadingSet,
 } from '../../../shared/charts/unit-trends.js';
@@ -211,5 +214,31 @@ describe('markers, groups and the table', () => {
       { level: 'investigate', from: 1, to: 5 },
       { level: 'critical', from: 5, to: null },
     ]);
+  });
+});
+
+describe('axis ranges', () => {
+  it('opens the change axis to 1.5 × the first band so the watch band shows, and clips open bands to it', () => {
+    const g = trendGroup('capacitance', SETS, UNIT, criteriaV2, 'change');
+    // data −2 … 3 %; first band 2 % → ±3 %; range −3 … 3, padded by 5 % of 6 = 0.3
+    const r = trendYRange(g);
+    expect(r.min).toBeCloseTo(-3.3, 10);
+    expect(r.max).toBeCloseTo(3.3, 10);
+    expect(clipBands(g.bands, r)).toEqual([
+      { level: 'watch', y: 2, y2: 3 },
+      { level: 'watch', y: -3, y2: -2 },
+      { level: 'investigate', y: 3, y2: expect.closeTo(3.3, 10) },
+      { level: 'investigate', y: expect.closeTo(-3.3, 10), y2: -3 },
+    ]);
+  });
+
+  it('spans the points and the fault markers in time', () => {
+    const g = trendGroup('gas', SETS, UNIT, criteriaV2, 'values');
+    const m = eventMarkers([{ id: 9, occurredAt: '2025-05-01T00:00:00.000Z', type: 'three-phase' }]);
+    const r = trendXRange(g, m)!;
+    const lo = Date.parse('2015-05-01T00:00:00.000Z');
+    const hi = Date.parse('2025-05-01T00:00:00.000Z');
+    expect(r.min).toBe(lo - 0.03 * (hi - lo));
+    expect(r.max).toBe(hi + 0.03 * (hi - lo));
   });
 });
