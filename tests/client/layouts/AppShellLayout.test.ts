@@ -17,9 +17,9 @@ const tableWithLaterPages: RouteRecordRaw[] = [
   {
     ...shellRoute,
     children: [
-      // The real fleet and outbox routes are replaced by stand-in pages (the events list left out), so the drawer
-      // entries stay the ones under test.
-      ...(shellRoute.children ?? []).filter((r) => r.name !== 'not-found' && r.name !== 'units' && r.name !== 'outbox' && r.name !== 'events'),
+      // The real fleet, criteria and outbox routes are replaced by stand-in pages (the events list left out), so the
+      // drawer entries stay the ones under test.
+      ...(shellRoute.children ?? []).filter((r) => r.name !== 'not-found' && r.name !== 'units' && r.name !== 'criteria' && r.name !== 'outbox' && r.name !== 'events'),
       { path: 'units', name: 'units', component: page, meta: { nav: { label: 'Fleet', icon: 'bolt' } } },
       {
         path: 'criteria',

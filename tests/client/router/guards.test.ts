@@ -13,14 +13,14 @@ import { inBody, makeUser, resetClientState, scriptFetch, settle, storeToken, ty
 
 const page = () => Promise.resolve({ default: { render: () => null } });
 
-// The real table plus a role-limited page like those later issues add (criteria: engineer or admin).
+// The real table plus a role-limited page like those later issues add (a page for engineers and administrators; not the real criteria page, which every signed-in user sees).
 const [signInRoute, shellRoute] = routes;
 const tableWithCriteria: RouteRecordRaw[] = [
   signInRoute,
   {
     ...shellRoute,
     children: [
-      { path: 'criteria', name: 'criteria', component: page, meta: { roles: ['engineer', 'admin'] } },
+      { path: 'engineering-tools', name: 'engineering-tools', component: page, meta: { roles: ['engineer', 'admin'] } },
       ...(shellRoute.children ?? []),
     ],
   } as RouteRecordRaw,
@@ -47,10 +47,10 @@ describe('router guards', () => {
     scriptFetch({});
     const router = makeRouter();
 
-    await router.push('/criteria?version=2');
+    await router.push('/engineering-tools?version=2');
 
     expect(router.currentRoute.value.name).toBe('sign-in');
-    expect(router.currentRoute.value.query.redirect).toBe('/criteria?version=2');
+    expect(router.currentRoute.value.query.redirect).toBe('/engineering-tools?version=2');
   });
 
   it('sends a signed-out user who opens the desk to sign-in, redirecting back to the desk', async () => {
@@ -88,28 +88,28 @@ describe('router guards', () => {
     signedInAs('tester', 'protection');
     const router = makeRouter();
 
-    await router.push('/criteria');
+    await router.push('/engineering-tools');
 
     expect(router.currentRoute.value.name).toBe('forbidden');
-    expect(router.currentRoute.value.query.from).toBe('/criteria');
+    expect(router.currentRoute.value.query.from).toBe('/engineering-tools');
   });
 
   it('lets a user holding one of the route’s roles through', async () => {
     signedInAs('engineer');
     const router = makeRouter();
 
-    await router.push('/criteria');
+    await router.push('/engineering-tools');
 
-    expect(router.currentRoute.value.name).toBe('criteria');
+    expect(router.currentRoute.value.name).toBe('engineering-tools');
   });
 
   it('sends a signed-in user away from sign-in to the redirect target', async () => {
     signedInAs('engineer');
     const router = makeRouter();
 
-    await router.push({ name: 'sign-in', query: { redirect: '/criteria' } });
+    await router.push({ name: 'sign-in', query: { redirect: '/engineering-tools' } });
 
-    expect(router.currentRoute.value.name).toBe('criteria');
+    expect(router.currentRoute.value.name).toBe('engineering-tools');
   });
 
   it('ignores a redirect to another site and opens the desk instead', async () => {
@@ -134,7 +134,7 @@ describe('router guards', () => {
   it('asks to sign in again over the page when the server refuses the token later, and stays on the page once signed in', async () => {
     const { fetchMock } = signedInAs('engineer');
     const router = makeRouter();
-    await router.push('/criteria');
+    await router.push('/engineering-tools');
     const { requests } = scriptFetch({
       'GET /api/units': { status: 401, body: { error: { code: 'token_expired', message: 'Expired.' } } },
       'POST /api/auth/login': { body: { token: 'fresh', user: makeUser({ roles: ['engineer'] }) } },
@@ -145,7 +145,7 @@ describe('router guards', () => {
 
     expect(fetchMock).toHaveBeenCalledTimes(1);
     // The page stays (with whatever was typed on it); the refused token is not sent again.
-    expect(router.currentRoute.value.name).toBe('criteria');
+    expect(router.currentRoute.value.name).toBe('engineering-tools');
     expect(localStorage.getItem('gapsight.token')).toBeNull();
     expect(useSessionStore().expired).toBe(true);
     expect(inBody('reauth-dialog')!.textContent).toContain('Your session has ended');
@@ -157,7 +157,7 @@ describe('router guards', () => {
     await vi.waitFor(() => expect(inBody('reauth-dialog')).toBeNull());
 
     expect(requests.find((r) => r.url === '/api/auth/login')!.body).toEqual({ email: makeUser().email, password: 'gapsight-demo' });
-    expect(router.currentRoute.value.name).toBe('criteria');
+    expect(router.currentRoute.value.name).toBe('engineering-tools');
     expect(useSessionStore().expired).toBe(false);
     expect(localStorage.getItem('gapsight.token')).toBe('fresh');
   });
@@ -165,7 +165,7 @@ describe('router guards', () => {
   it('ends the session and returns to sign-in (redirecting back) when the user signs out instead', async () => {
     signedInAs('engineer');
     const router = makeRouter();
-    await router.push('/criteria');
+    await router.push('/engineering-tools');
     scriptFetch({ 'GET /api/units': { status: 401, body: { error: { code: 'token_expired', message: 'Expired.' } } } });
 
     await expect(api.get('/units')).rejects.toMatchObject({ status: 401 });
@@ -175,7 +175,7 @@ describe('router guards', () => {
 
     await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('sign-in'));
     expect(useSessionStore().isSignedIn).toBe(false);
-    expect(router.currentRoute.value.query.redirect).toBe('/criteria');
+    expect(router.currentRoute.value.query.redirect).toBe('/engineering-tools');
   });
 
   it('sets the browser tab title from the route', async () => {

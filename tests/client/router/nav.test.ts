@@ -72,12 +72,13 @@ describe('buildNavItems', () => {
     expect(items.filter((item) => item.exact).map((item) => item.name)).toEqual(['desk']);
   });
 
-  it('gives every user of the real table the desk, the fleet and the events', () => {
+  it('gives every user of the real table the desk, the fleet, the events and the criteria sets', () => {
     const items = buildNavItems(routes, { hasRole: holding(), mailSink: false });
     expect(items.map((item) => [item.name, item.label])).toEqual([
       ['desk', 'Desk'],
       ['units', 'Fleet'],
       ['events', 'Events'],
+      ['criteria', 'Criteria sets'],
     ]);
     expect(items.filter((item) => item.exact).map((item) => item.name)).toEqual(['desk']);
   });
