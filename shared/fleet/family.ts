@@ -10,6 +10,8 @@ import { levelFromBands } from '../screening/levels.js';
 import { reactancePercent } from '../screening/reactance.js';
 import { modifiedZScore } from '../screening/sisters.js';
 
+export { outliersFirst } from './family-order.js';
+
 /** One unit of a family with its latest readings (merged, newest value per quantity) and the ratings %X needs. */
 export interface FamilyMember {
   unitId?: number;
@@ -128,11 +130,6 @@ export function compareFamily(members: readonly FamilyMember[], quantityName: st
     };
   });
   return { ...base, items, median, mad, madFloored, note };
-}
-
-/** Outliers first (largest |M| first), then the others by serial. */
-export function outliersFirst(items: readonly FamilyItem[]): FamilyItem[] {
-  return [...items].sort((a, b) => Number(b.outlier) - Number(a.outlier) || (b.outlier ? Math.abs(b.modifiedZ ?? 0) - Math.abs(a.modifiedZ ?? 0) : 0) || a.serial.localeCompare(b.serial));
 }
 
 /** The family of a screened case: this unit with its post-fault readings, each sister with its latest readings. */
