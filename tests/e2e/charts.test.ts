@@ -50,15 +50,17 @@ beforeAll(async () => {
   const history = await demoUnit('KVP-MB-T1');
   historyUnitId = (await demoUnit('KVP-HX-T2')).id;
   largeDesignId = (await demoUnit('KVP-QL-T1')).designId;
+  const smallDesignId = (await demoUnit('KVP-HX-T4')).designId;
   const events = await api.call<{ items: { id: number; status: string }[] }>('engineer', 'GET', `/events?unitId=${history.id}`);
   const screened = events.items.filter((e) => e.status !== 'logged' && e.status !== 'testing');
   if (screened.length === 0) throw new Error('the demo unit KVP-MB-T1 has no screened event');
   historyEventId = screened[0].id;
 
-  // A unit of the large family with DF over frequency in its factory set and in the post-fault session.
+  // A unit with DF over frequency in its factory set and in the post-fault session; in the small family (its readings
+  // are a large unit's), so that the large family's comparison stays the demo's own.
   const tag = randomUUID().slice(0, 6).toUpperCase();
   const sites = await api.call<{ id: number }[]>('admin', 'GET', '/sites');
-  const unit = await api.call<{ id: number }>('admin', 'POST', '/units', { serial: `C-${tag}`, position: 'T9', siteId: sites[0].id, designId: largeDesignId, year: 2010, phases: 3, hvKV: 132, lvKV: 33, ratedKVA: 40000, impedancePercent: 10.5 });
+  const unit = await api.call<{ id: number }>('admin', 'POST', '/units', { serial: `C-${tag}`, position: 'T9', siteId: sites[0].id, designId: smallDesignId, year: 2010, phases: 3, hvKV: 132, lvKV: 33, ratedKVA: 40000, impedancePercent: 10.5 });
   await api.call('tester', 'POST', `/units/${unit.id}/reading-sets`, { ...factorySet, dissipationPercent: { CH: 0.3, CL: 0.31, CHL: 0.26 }, dissipationByFrequency: { CH: dfCurve(1.2), CHL: dfCurve(1.0) } });
   dfEventId = await logFault(api, unit.id, 30);
   await api.call('tester', 'POST', `/events/${dfEventId}/sessions`, {
@@ -168,8 +170,8 @@ async function unfoldAll(page: Page): Promise<void> {
   for (let n = await folded.count(), guard = 0; n > 0 && guard < 20; n = await folded.count(), guard++) await folded.first().click();
 }
 
-/** What a drawn chart shows: its series marks with a size (paths, points, bars) and its axis titles. */
-async function drawnChart(chart: Locator): Promise<{ marks: number; titles: string[] }> {
+/** What a drawn chart shows: its series marks with a size (paths, points, bars), its axis titles and its sizes. */
+async function drawnChart(chart: Locator): Promise<{ marks: number; titles: string[]; svgWidth: number; plotWidth: number }> {
   await chart.scrollIntoViewIfNeeded();
   await chart.locator('svg.apexcharts-svg').first().waitFor({ timeout: 20_000 });
   // The library draws in the next frames after its svg appears.
@@ -180,9 +182,22 @@ async function drawnChart(chart: Locator): Promise<{ marks: number; titles: stri
       return box.width > 0 || box.height > 0;
     }).length;
     const titles = Array.from(el.querySelectorAll('.apexcharts-xaxis-title-text, .apexcharts-yaxis-title-text')).map((t) => (t.textContent ?? '').trim());
-    return { marks, titles };
+    // The narrowest of the chart's drawings and of their plot areas (the group the series are drawn in).
+    const svgs = Array.from(el.querySelectorAll('svg.apexcharts-svg'));
+    const svgWidth = Math.min(...svgs.map((s) => s.getBoundingClientRect().width));
+    const plotWidth = Math.min(...svgs.map((s) => s.querySelector('.apexcharts-inner')?.getBoundingClientRect().width ?? 0));
+    return { marks, titles, svgWidth, plotWidth };
   });
 }
+
+/** A drawing a person can read at 1440 px: not squeezed into a sliver, its plot area most of it. */
+function expectRoom(name: string, d: { svgWidth: number; plotWidth: number }): void {
+  expect(d.svgWidth, `${name}: the chart is drawn ${Math.round(d.svgWidth)} px wide`).toBeGreaterThanOrEqual(280);
+  expect(d.plotWidth, `${name}: the plot area is ${Math.round(d.plotWidth)} px of ${Math.round(d.svgWidth)} px`).toBeGreaterThanOrEqual(0.4 * d.svgWidth);
+}
+
+/** Element pictures without the page's sticky bars drawn over them. */
+const SHOT_STYLE = '.q-header, .q-footer, [data-test="event-page-menu"] { visibility: hidden !important; }';
 
 /** The rows of a chart's table view, each row's cells' text. */
 function tableRows(table: Locator): Promise<string[][]> {
@@ -202,8 +217,10 @@ const NUMBER = /[-−+]?\d+(?:[.,]\d+)?/;
 async function checkChart(page: Page, name: string, units: string[], shot: string, nth = 0): Promise<void> {
   const chart = page.locator(`[data-test="${name}"]`).nth(nth);
   await chart.waitFor({ state: 'attached', timeout: 15_000 });
-  const { marks, titles } = await drawnChart(chart);
+  const drawn = await drawnChart(chart);
+  const { marks, titles } = drawn;
   expect(marks, `${name}: series drawn`).toBeGreaterThan(0);
+  expectRoom(name, drawn);
   for (const unit of units) expect(titles.join(' | '), `${name}: an axis title names ${unit}`).toContain(unit);
 
   const table = page.locator(`[data-test="${name}-table"]`).nth(nth);
@@ -212,7 +229,7 @@ async function checkChart(page: Page, name: string, units: string[], shot: strin
   expect(rows.length, `${name}: the table view has rows`).toBeGreaterThan(0);
   expect(rows.filter((cells) => cells.some((c) => NUMBER.test(c))).length, `${name}: the table view's rows hold numbers (${JSON.stringify(rows.slice(0, 3))})`).toBeGreaterThan(0);
 
-  await chart.screenshot({ path: path.join(SHOTS, `${shot}.png`) });
+  await chart.screenshot({ path: path.join(SHOTS, `${shot}.png`), style: SHOT_STYLE });
 }
 
 async function eventPage(role: DemoRole, eventId: number): Promise<Page> {
@@ -223,12 +240,25 @@ async function eventPage(role: DemoRole, eventId: number): Promise<Page> {
 }
 
 describe('the unit file', () => {
-  it('draws the unit trends with a table, in each mode', async () => {
+  it('draws the unit trends with a table, as values and as the change against the baseline', async () => {
     const page = await openAs(browser, running.url, api, 'engineer', `/units/${historyUnitId}`, 1440);
+    // Values first: capacitance in pF.
     await checkChart(page, 'unit-trends', ['(pF)'], 'unit-trends');
+    const chart = page.locator('[data-test="unit-trends"]');
     const mode = page.locator('[data-test="unit-trends-mode"]');
     await mode.waitFor();
-    expect(await mode.isVisible(), 'the mode control is shown').toBe(true);
+    await mode.getByRole('button', { name: /change/i }).click();
+    await page.waitForFunction(
+      () => Array.from(document.querySelectorAll('[data-test="unit-trends"] .apexcharts-yaxis-title-text')).some((t) => (t.textContent ?? '').includes('(%)')),
+      null,
+      { timeout: 10_000 },
+    );
+    const drawn = await drawnChart(chart);
+    const { marks, titles } = drawn;
+    expect(marks, 'unit-trends as change: series drawn').toBeGreaterThan(0);
+    expectRoom('unit-trends as change', drawn);
+    expect(titles.join(' | '), 'unit-trends as change: the axis says %').toContain('(%)');
+    await chart.screenshot({ path: path.join(SHOTS, 'unit-trends-change.png'), style: SHOT_STYLE });
     await page.close();
   });
 });
@@ -236,7 +266,7 @@ describe('the unit file', () => {
 describe('the event file', () => {
   it('draws the duty curve with the fault, with a table', async () => {
     const page = await eventPage('manager', historyEventId);
-    await checkChart(page, 'duty-curve', ['(s)'], 'duty-curve');
+    await checkChart(page, 'duty-curve', ['(s)', '(per unit of rated)'], 'duty-curve');
     await page.close();
   });
 
@@ -248,6 +278,11 @@ describe('the event file', () => {
 
   it('draws the sister comparison in the screening evidence, with a table', async () => {
     const page = await eventPage('engineer', historyEventId);
+    // CHL capacitance picked from the overview (the strip then says pF).
+    const pick = page.locator('[data-test="sister-comparison-pick"]', { hasText: 'CHL capacitance' });
+    await pick.waitFor({ timeout: 15_000 });
+    await pick.click();
+    await expect.poll(() => pick.getAttribute('aria-pressed')).toBe('true');
     await checkChart(page, 'sister-comparison', ['(pF)'], 'sister-comparison');
     await page.close();
   });
@@ -269,18 +304,27 @@ describe('the event file', () => {
 });
 
 describe('the design family page', () => {
-  it('lists the family, names the CHL outlier and draws the sister strip', async () => {
+  it('compares the family on CHL capacitance: the outlier named, the strip drawn, a table of every unit', async () => {
     const page = await openAs(browser, running.url, api, 'engineer', `/designs/${largeDesignId}`, 1440);
     await page.waitForSelector('[data-test="design-family"]', { timeout: 15_000 });
-    expect(await page.locator('[data-test="family-row"]').count(), 'the family\'s units (seven in the demo, and this file\'s own)').toBeGreaterThanOrEqual(7);
-    const outliers = await page.locator('[data-test="family-outlier"]').allTextContents();
-    expect(outliers.join(' | '), 'the outlier is named').toContain('KVP-QL-T1');
+    // The quantity picked as a person does: the picker's option.
+    await page.click('[data-test="family-quantity"]');
+    await page.getByRole('option', { name: /^CHL capacitance/ }).click();
+    await page.waitForFunction(() => document.querySelector('[data-test="family-table"] caption')?.textContent?.includes('CHL capacitance'), null, { timeout: 15_000 });
+    await page.waitForFunction(() => !document.querySelector('[data-test$="-loading"]'), null, { timeout: 15_000 });
+    expect(await page.locator('[data-test="family-row"]').count(), 'the family\'s seven demo units (and any other file\'s own)').toBeGreaterThanOrEqual(7);
+    const outliers = await page.locator('[data-test="family-row"]:has([data-test="family-outlier"])').allTextContents();
+    expect(outliers.join(' | '), 'the CHL outlier is named').toContain('KVP-QL-T1');
     const strip = page.locator('[data-test="sister-strip"]').first();
-    const { marks, titles } = await drawnChart(strip);
+    const drawn = await drawnChart(strip);
+    const { marks, titles } = drawn;
     expect(marks, 'sister strip: points drawn').toBeGreaterThan(0);
-    expect(titles.join(' | '), 'sister strip: an axis title names its unit').toMatch(/\((pF|%)\)/);
-    await strip.screenshot({ path: path.join(SHOTS, 'sister-strip.png') });
-    await page.locator('[data-test="design-family"]').screenshot({ path: path.join(SHOTS, 'design-family.png') });
+    expectRoom('sister strip', drawn);
+    expect(titles.join(' | '), 'sister strip: the value axis names pF').toContain('(pF)');
+    const rows = await tableRows(page.locator('[data-test="family-table"]'));
+    expect(rows.filter((cells) => cells.some((c) => /\d+(\.\d+)?\s*pF/.test(c))).length, 'the table gives each unit\'s value in pF').toBeGreaterThanOrEqual(7);
+    await strip.screenshot({ path: path.join(SHOTS, 'sister-strip.png'), style: SHOT_STYLE });
+    await page.locator('[data-test="design-family"]').screenshot({ path: path.join(SHOTS, 'design-family.png'), style: SHOT_STYLE });
     await page.close();
   });
 });
@@ -290,12 +334,19 @@ describe('the criteria sets page', () => {
     const page = await openAs(browser, running.url, api, 'engineer', '/criteria', 1440);
     await page.waitForSelector('[data-test="criteria-page"]', { timeout: 15_000 });
     expect(await page.locator('[data-test="criteria-version-row"]').count(), 'versions 1 and 2 (published by the migrations)').toBeGreaterThanOrEqual(2);
-    const diff = page.locator('[data-test="criteria-diff"]');
-    await diff.waitFor({ timeout: 15_000 });
-    const rows = await page.locator('[data-test="criteria-diff-row"]').allTextContents();
-    expect(rows.length, 'the comparison lists what changed').toBeGreaterThan(0);
-    expect(rows.some((r) => NUMBER.test(r)), `the changes hold numbers (${rows.slice(0, 3).join(' | ')})`).toBe(true);
-    await diff.screenshot({ path: path.join(SHOTS, 'criteria-diff.png') });
+    // "Compare versions" opens the comparison of the two newest versions.
+    await page.click('[data-test="criteria-compare-toggle"]');
+    await page.locator('[data-test="criteria-diff"]').waitFor({ timeout: 15_000 });
     await page.close();
+
+    // Versions 1 and 2 by the page's own address (the drafts other files may add do not move it).
+    const pinned = await openAs(browser, running.url, api, 'engineer', '/criteria?a=1&b=2', 1440);
+    const diff = pinned.locator('[data-test="criteria-diff"]');
+    await diff.waitFor({ timeout: 15_000 });
+    const rows = await pinned.locator('[data-test="criteria-diff-row"]').allTextContents();
+    expect(rows.length, 'the comparison lists what changed from version 1 to version 2').toBeGreaterThan(0);
+    expect(rows.some((r) => NUMBER.test(r)), `the changes hold numbers (${rows.slice(0, 3).join(' | ')})`).toBe(true);
+    await diff.screenshot({ path: path.join(SHOTS, 'criteria-diff.png'), style: SHOT_STYLE });
+    await pinned.close();
   });
 });
