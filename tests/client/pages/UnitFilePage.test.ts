@@ -93,14 +93,15 @@ describe('UnitFilePage (/units/:id)', () => {
     expect(events[1].get('[data-test="status-chip"]').text()).toContain('Released');
   });
 
-  it('draws the capacitance trend per configuration over the reading sets, oldest first', async () => {
+  it('shows the trends of the unit (capacitance first) with a table of the same numbers, oldest first', async () => {
     signedInAs(['engineer']);
     const { wrapper } = await mountApp('/units/3');
-    await vi.waitFor(() => expect(wrapper.find('[data-test="apex-stub"]').exists()).toBe(true));
-
-    const series = JSON.parse(wrapper.get('[data-test="apex-stub"]').attributes('data-series')!) as { name: string; data: { y: number }[] }[];
-    expect(series.map((s) => s.name)).toEqual(['CH', 'CHL', 'CL']);
-    expect(series.find((s) => s.name === 'CHL')?.data.map((p) => p.y)).toEqual([5210, 5222]);
+    await wrapper.get('[data-test="unit-trends-table-toggle"]').trigger('click');
+    const rows = wrapper.get('[data-test="unit-trends-table"]').findAll('tbody tr').map((r) => r.findAll('th, td').map((c) => c.text()));
+    expect(rows).toEqual([
+      ['2019-05-02 · Factory', '3120', '5210', '9870', 'CH, CHL, CL'],
+      ['2024-06-20 · Routine', '3124', '5222', '9881', '—'],
+    ]);
   });
 
   it('says what to do when the unit has no baseline', async () => {
@@ -112,7 +113,9 @@ describe('UnitFilePage (/units/:id)', () => {
     expect(wrapper.get('[data-test="no-baseline"] p').text()).toBe(
       'No baseline yet — add the factory test results or let sister units stand in.',
     );
-    expect(wrapper.get('[data-test="trend-too-few"]').text()).toContain('at least two reading sets');
+    const change = wrapper.get('[data-test="unit-trends-mode"]').findAll('button').find((b) => b.text().startsWith('Change'))!;
+    await change.trigger('click');
+    expect(wrapper.get('[data-test="unit-trends"]').text()).toContain('No baseline to compare with: CH, CHL, CL');
   });
 
   it('shows no baseline note when a factory set exists', async () => {
