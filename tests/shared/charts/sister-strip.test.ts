@@ -26,12 +26,12 @@ describe('sisterStrip', () => {
   it('places one point per unit in serial order, this unit and the outlier in groups of their own', () => {
     const s = sisterStrip(input);
     expect(s.points).toEqual([
-      { x: 1, y: 8.02, serial: 'U1', group: 'this-unit' },
-      { x: 2, y: 8.05, serial: 'U2', group: 'family' },
-      { x: 3, y: 7.98, serial: 'U3', group: 'family' },
-      { x: 4, y: 8.01, serial: 'U4', group: 'family' },
-      { x: 5, y: 8.04, serial: 'U5', group: 'family' },
-      { x: 6, y: 8.6, serial: 'U6', group: 'outlier' },
+      { position: 1, value: 8.02, serial: 'U1', group: 'this-unit' },
+      { position: 2, value: 8.05, serial: 'U2', group: 'family' },
+      { position: 3, value: 7.98, serial: 'U3', group: 'family' },
+      { position: 4, value: 8.01, serial: 'U4', group: 'family' },
+      { position: 5, value: 8.04, serial: 'U5', group: 'family' },
+      { position: 6, value: 8.6, serial: 'U6', group: 'outlier' },
     ]);
     expect(s.categories).toEqual(['U1', 'U2', 'U3', 'U4', 'U5', 'U6']);
     expect(s.series.map((x) => [x.group, x.shape, x.data.length])).toEqual([
@@ -46,23 +46,23 @@ describe('sisterStrip', () => {
     expect(s.median).toBe(8.03);
     expect(s.band!.low).toBeCloseTo(7.926219, 6); // 8.03 − 3.5·0.02/0.6745 (hand computation above)
     expect(s.band!.high).toBeCloseTo(8.133781, 6); // 8.03 + 3.5·0.02/0.6745
-    // y range: lowest 7.926219 (band), highest 8.60; span 0.673781, padded by 5 % = 0.033689 each side
-    expect(s.yMin).toBeCloseTo(7.89253, 5);
-    expect(s.yMax).toBeCloseTo(8.633689, 5);
+    // value range: lowest 7.926219 (band), highest 8.60; span 0.673781, padded by 5 % = 0.033689 each side
+    expect(s.valueMin).toBeCloseTo(7.89253, 5);
+    expect(s.valueMax).toBeCloseTo(8.633689, 5);
   });
 
   it('has axis titles with units', () => {
     const s = sisterStrip(input);
-    expect(s.yTitle).toBe('CHL capacitance (pF)');
-    expect(s.xTitle).toBe('Unit of the family (by serial)');
-    expect(sisterStrip({ ...input, label: 'Phase A leakage reactance', unit: '%' }).yTitle).toBe('Phase A leakage reactance (%)');
+    expect(s.valueTitle).toBe('CHL capacitance (pF)');
+    expect(s.unitsTitle).toBe('Unit of the family (by serial)');
+    expect(sisterStrip({ ...input, label: 'Phase A leakage reactance', unit: '%' }).valueTitle).toBe('Phase A leakage reactance (%)');
   });
 
   it('draws no band when the MAD is zero or unknown, and pads a flat family by 1 % of its median', () => {
     const flat = sisterStrip({ ...input, median: 100, mad: 0, items: [{ serial: 'A', value: 100, outlier: false }, { serial: 'B', value: 100, outlier: false }] });
     expect(flat.band).toBeNull();
-    expect(flat.yMin).toBe(99); // 100 − 1 % of 100
-    expect(flat.yMax).toBe(101);
+    expect(flat.valueMin).toBe(99); // 100 − 1 % of 100
+    expect(flat.valueMax).toBe(101);
     expect(sisterStrip({ ...input, mad: null }).band).toBeNull();
     expect(sisterStrip({ ...input, items: [], median: null, mad: null }).series).toEqual([]);
   });
