@@ -262,3 +262,21 @@ export function frequencyTick(hz: number): string {
   if (hz >= 1e3) return `${Number((hz / 1e3).toPrecision(3))}k`;
   return `${Number(hz.toPrecision(3))}`;
 }
+
+/**
+ * Whether an overlay's R per band and class are the ones a stored result carries (`sweep.<label>.rLF|rMF|rHF|class`,
+ * `sweep.<winding>.AC.rMF|rHF|class`): false when the overlay was computed under another criteria set than the result.
+ * A trace shown alone (nothing compared) always agrees.
+ */
+export function overlayAgreesWithResult(o: SweepOverlay, indicators: ReadonlyArray<{ key: string; value: unknown }>): boolean {
+  if (o.kind === 'single') return true;
+  const value = (k: string) => indicators.find((i) => i.key === `sweep.${o.id}.${k}`)?.value ?? null;
+  const same = (a: unknown, b: number | string | null) =>
+    typeof a === 'number' && typeof b === 'number' ? Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(b)) : (a ?? null) === b;
+  const r = Object.fromEntries(o.bands.map((b) => [b.band, b.r]));
+  const keys: [string, number | string | null][] =
+    o.kind === 'phase-pair'
+      ? [['rMF', r.mid], ['rHF', r.high], ['class', o.overallClass]]
+      : [['rLF', r.low], ['rMF', r.mid], ['rHF', r.high], ['class', o.overallClass]];
+  return keys.every(([k, v]) => same(value(k), v));
+}

@@ -11,6 +11,7 @@ import { compareTraces, phaseComparisons, relativeFactor } from '../../../shared
 import {
   decadeTicks,
   frequencyTick,
+  overlayAgreesWithResult,
   phasePairOverlay,
   rhoText,
   rText,
@@ -98,7 +99,12 @@ describe('the overlays of the example cases equal the engine', () => {
       // ρ per band is the one behind R: R = −log10(1 − ρ) (DL/T 911, references.md)
       for (const b of o.bands) if (b.r !== null && b.r < criteriaV2.sweep.maxRelativeFactor) expect(relativeFactor(b.rho!, criteriaV2)).toBeCloseTo(b.r, 9);
       expect(o.difference.length).toBe(engine.points);
+      expect(overlayAgreesWithResult(o, r.indicators)).toBe(true);
     }
+    // A result computed with other figures (R_LF changed) does not agree.
+    const o = overlays.find((x) => x.id === 'HV-A-open')!;
+    const other = r.indicators.map((i) => (i.key === 'sweep.HV-A-open.rLF' ? { ...i, value: 0.5 } : i));
+    expect(overlayAgreesWithResult(o, other)).toBe(false);
   });
 
   it('rev2-phase-comparison.json: one A–C overlay with the engine’s mid and high R, low band not judged', () => {
@@ -120,6 +126,7 @@ describe('the overlays of the example cases equal the engine', () => {
     // Phase B has no baseline and no partner: shown alone, not judged; A and C appear only in the pair.
     expect(overlays.filter((o) => o.kind === 'single').map((o) => o.id)).toEqual(['HV-B-open']);
     expect(phasePairOverlay('hv', pc.a, pc.c, criteriaV2).differenceName).toBe('Phase C − phase A');
+    for (const o of overlays) expect(overlayAgreesWithResult(o, r.indicators)).toBe(true);
   });
 });
 
