@@ -211,8 +211,28 @@ function tableRows(table: Locator): Promise<string[][]> {
 const NUMBER = /[-−+]?\d+(?:[.,]\d+)?/;
 
 /**
+ * A table view kept out of sight is shown from the keyboard: the control that names it (aria-controls on the table or
+ * a box around it, or the summary of a <details> around it) is focused and Enter pressed; then the table is visible.
+ */
+async function showByKeyboard(page: Page, name: string, table: Locator): Promise<void> {
+  if (await table.isVisible()) return;
+  const controlSelector = await table.evaluate((el) => {
+    for (let e: Element | null = el; e; e = e.parentElement) {
+      if (e.tagName === 'DETAILS') return { details: true, id: null };
+      if (e.id && document.querySelector(`[aria-controls="${e.id}"]`)) return { details: false, id: e.id };
+    }
+    return null;
+  });
+  expect(controlSelector, `${name}: the hidden table view has a control that shows it (aria-controls or <details>)`).not.toBeNull();
+  const control = controlSelector!.details ? table.locator('xpath=ancestor::details[1]/summary') : page.locator(`[aria-controls="${controlSelector!.id}"]`).first();
+  await control.focus();
+  await page.keyboard.press('Enter');
+  await expect.poll(() => table.isVisible(), { message: `${name}: Enter on the control shows the table view`, timeout: 5_000 }).toBe(true);
+}
+
+/**
  * Checks one chart: drawn with at least one series mark, every unit in `units` named in an axis title, a table view
- * with rows of numbers; saves a picture of it as `shot`.
+ * (shown from the keyboard) with rows of numbers; saves a picture of it as `shot`.
  */
 async function checkChart(page: Page, name: string, units: string[], shot: string, nth = 0): Promise<void> {
   const chart = page.locator(`[data-test="${name}"]`).nth(nth);
@@ -225,6 +245,7 @@ async function checkChart(page: Page, name: string, units: string[], shot: strin
 
   const table = page.locator(`[data-test="${name}-table"]`).nth(nth);
   await table.waitFor({ state: 'attached', timeout: 5_000 });
+  await showByKeyboard(page, name, table);
   const rows = await tableRows(table);
   expect(rows.length, `${name}: the table view has rows`).toBeGreaterThan(0);
   expect(rows.filter((cells) => cells.some((c) => NUMBER.test(c))).length, `${name}: the table view's rows hold numbers (${JSON.stringify(rows.slice(0, 3))})`).toBeGreaterThan(0);
