@@ -184,9 +184,12 @@ export function thresholdWords(bar: Pick<ShiftBar, 'thresholds' | 'absolute' | '
     .join(', ');
 }
 
-/** The value axis of a group: zero, every value and every threshold, padded by 5 % of the span. */
+/**
+ * The value axis of a group: zero, every value and each bar's first threshold (so the nearest level mark shows; the
+ * higher ones would squeeze small shifts into a sliver), padded by 5 % of the span. Marks beyond it are in the table.
+ */
 export function shiftAxisRange(group: ShiftGroup): { min: number; max: number } {
-  const xs = [0, ...group.bars.flatMap((b) => [b.value, ...b.thresholds.map((t) => t.at)])];
+  const xs = [0, ...group.bars.flatMap((b) => [b.value, ...b.thresholds.slice(0, 1).map((t) => t.at)])];
   const lo = Math.min(...xs);
   const hi = Math.max(...xs);
   const pad = hi > lo ? 0.05 * (hi - lo) : 1;

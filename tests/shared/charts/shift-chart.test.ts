@@ -155,12 +155,14 @@ describe('words and axis', () => {
     expect(thresholdWords(bar('dfFrequency.CHL.seriesChangePercent'))).toBe('no thresholds');
   });
 
-  it('spans zero, the values and the thresholds on the value axis', () => {
+  it("spans zero, the values and each bar's first threshold on the value axis", () => {
     const ppm = groups.find((g) => g.unit === 'ppm')!;
-    // values 3 and 140, thresholds 1, 5, 100: 0 … 140, padded by 5 % of 140 = 7
+    // values 3 and 140, first thresholds 1 and 100: 0 … 140, padded by 5 % of 140 = 7
     expect(shiftAxisRange(ppm)).toEqual({ min: 0, max: 147 });
     const pct = groups.find((g) => g.unit === '%')!;
-    // −5 (CHL critical threshold) … 100 (PF investigate threshold): pad 5.25
-    expect(shiftAxisRange(pct)).toEqual({ min: -10.25, max: 105.25 });
+    // −3.4 (CHL shift) … 60 (PF rise; its first threshold 50 is below it): pad 5 % of 63.4 = 3.17
+    const r = shiftAxisRange(pct);
+    expect(r.min).toBeCloseTo(-6.57, 10);
+    expect(r.max).toBeCloseTo(63.17, 10);
   });
 });
