@@ -56,6 +56,7 @@ const KEY_WORDS: Record<string, string> = {
   bandsHz: 'frequency bands (Hz)',
   dixonQ95: 'Dixon Q at 95 %',
   hvShareOfCH: 'HV share of CH',
+  hvShareSource: 'HV share source',
   c1ShiftBands: 'C1 shift bands',
   c1ShiftSource: 'C1 shift source',
   categoryIMaxPerUnit: 'category I maximum current (per unit)',
