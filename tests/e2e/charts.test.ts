@@ -182,10 +182,11 @@ async function drawnChart(chart: Locator): Promise<{ marks: number; titles: stri
       return box.width > 0 || box.height > 0;
     }).length;
     const titles = Array.from(el.querySelectorAll('.apexcharts-xaxis-title-text, .apexcharts-yaxis-title-text')).map((t) => (t.textContent ?? '').trim());
-    // The narrowest of the chart's drawings and of their plot areas (the group the series are drawn in).
+    // The narrowest of the chart's drawings and of their plot areas (the rectangle the library clips the series to,
+    // as wide as its grid, shown or not).
     const svgs = Array.from(el.querySelectorAll('svg.apexcharts-svg'));
     const svgWidth = Math.min(...svgs.map((s) => s.getBoundingClientRect().width));
-    const plotWidth = Math.min(...svgs.map((s) => s.querySelector('.apexcharts-inner')?.getBoundingClientRect().width ?? 0));
+    const plotWidth = Math.min(...svgs.map((s) => Number(s.querySelector('clipPath[id^="gridRectMask"] > rect')?.getAttribute('width') ?? 0)));
     return { marks, titles, svgWidth, plotWidth };
   });
 }
