@@ -90,9 +90,13 @@ export async function createDraft(m: EntityManager, clock: Clock, userId: number
   const copy = structuredClone(from.thresholds) as Record<string, unknown>;
   copy.version = version;
   copy.name = body.name ?? `Draft from criteria set ${from.version}`;
-  const row = await repo.save(
-    repo.create({ version, status: 'draft', thresholds: copy, notes: body.notes ?? null, createdById: userId, publishedAt: null, createdAt: clock.now() }),
-  );
+  const row = await repo
+    .save(repo.create({ version, status: 'draft', thresholds: copy, notes: body.notes ?? null, createdById: userId, publishedAt: null, createdAt: clock.now() }))
+    .catch((e: unknown) => {
+      // Two drafts started at the same moment both took the next number: the unique version refuses the second.
+      if ((e as { driverError?: { code?: string } }).driverError?.code === 'ER_DUP_ENTRY') throw conflict(`Version ${version} was created at the same moment; draft again.`);
+      throw e;
+    });
   await audit(m, clock, { userId, action: 'create', entity: 'criteria_set', entityId: row.id, after: { version, fromVersion: from.version, name: copy.name, notes: row.notes } });
   return view(row, await namesOf(m, [row]));
 }
