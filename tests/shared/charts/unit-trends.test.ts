@@ -6,6 +6,7 @@ import {
   CHANGE_Y_TITLE,
   clipBands,
   eventMarkers,
+  niceRange,
   trendGroup,
   trendTable,
   trendXRange,
@@ -240,5 +241,16 @@ describe('axis ranges', () => {
     const hi = Date.parse('2025-05-01T00:00:00.000Z');
     expect(r.min).toBe(lo - 0.03 * (hi - lo));
     expect(r.max).toBe(hi + 0.03 * (hi - lo));
+  });
+});
+
+describe('nice axis ranges', () => {
+  it('widens a range outward to whole steps of 1, 2 or 5 × 10^n', () => {
+    // −3.3 … 3.3: about 5 intervals of 1.32 → step 2; ticks −2, 0, 2 inside → −4 … 4, 4 intervals
+    expect(niceRange({ min: -3.3, max: 3.3 })).toEqual({ min: -4, max: 4, tickAmount: 4 });
+    // 2756 … 10272: raw step 1503 → 2000; ticks 4000 … 10000 inside → 2000 … 12000, 5 intervals
+    expect(niceRange({ min: 2756, max: 10272 })).toEqual({ min: 2000, max: 12000, tickAmount: 5 });
+    // already on steps: kept
+    expect(niceRange({ min: 0, max: 10 })).toEqual({ min: 0, max: 10, tickAmount: 5 });
   });
 });
