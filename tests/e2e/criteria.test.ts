@@ -1,11 +1,12 @@
 import { randomUUID } from 'node:crypto';
 import { mkdirSync } from 'node:fs';
-import type { Browser } from 'playwright-core';
+import { createRequire } from 'node:module';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Running } from '../../server/index.js';
 import { startTestServer } from '../helpers/app-server.js';
 import { launchChromium } from '../helpers/browser.js';
-import { demoApi, logFault, makeTestUnit, openAs } from '../helpers/browser-pages.js';
+import { demoApi, logFault, makeTestUnit, openAs, overflowOf } from '../helpers/browser-pages.js';
 
 // Criteria sets in Chromium: an engineer drafts version N+1 from the newest published one, moves the capacitance
 // investigate band from 3 % to 4 %, compares the two versions, and sees an event with a CHL shift of +3.5 % judged
@@ -13,6 +14,13 @@ import { demoApi, logFault, makeTestUnit, openAs } from '../helpers/browser-page
 // database is shared by the other browser tests, which expect the built-in sets). Pictures: /tmp/shots-criteria/.
 
 const SHOTS = '/tmp/shots-criteria';
+const AXE_PATH = createRequire(import.meta.url).resolve('axe-core/axe.min.js');
+
+async function seriousViolations(page: Page): Promise<string[]> {
+  await page.addScriptTag({ path: AXE_PATH });
+  const result = await page.evaluate(() => (window as unknown as { axe: { run: (d: Document, o: object) => Promise<{ violations: { id: string; impact: string | null; nodes: { target: string[] }[] }[] }> } }).axe.run(document, { resultTypes: ['violations'] }));
+  return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
+}
 
 let running: Running;
 let browser: Browser;
@@ -96,5 +104,23 @@ describe('criteria sets', () => {
     expect(await testerPage.locator('[data-test="criteria-new-draft"]').count()).toBe(0);
     expect(await testerPage.locator('[data-test="criteria-draft-editor"]').count()).toBe(0);
     await testerPage.close();
+  });
+
+  it('passes axe-core with the editor and the comparison open, and fits a phone width', { timeout: 120_000 }, async () => {
+    const sets = await api.call<{ version: number; status: string }[]>('engineer', 'GET', '/criteria');
+    const draft = sets.find((c) => c.status === 'draft');
+    const published = sets.find((c) => c.status === 'published')!;
+    const path = `/criteria?version=${draft?.version ?? published.version}&a=1&b=${published.version}`;
+    const page = await openAs(browser, running.url, api, 'engineer', path, 1280);
+    await page.locator('[data-test="criteria-diff"]').waitFor();
+    expect(await seriousViolations(page)).toEqual([]);
+    await page.close();
+
+    const narrow = await openAs(browser, running.url, api, 'engineer', path, 390);
+    await narrow.locator('[data-test="criteria-diff"]').waitFor();
+    const o = await overflowOf(narrow);
+    expect(o.scrollWidth, o.culprits.join('\n')).toBeLessThanOrEqual(o.clientWidth);
+    await narrow.screenshot({ path: `${SHOTS}/narrow.png` });
+    await narrow.close();
   });
 });
