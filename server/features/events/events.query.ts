@@ -49,8 +49,15 @@ export function eventView(e: FaultEvent) {
 
 /** The event's through-fault duty (with the unit's earlier faults counted), as the engine computes it. */
 export async function eventThroughFault(m: EntityManager, e: FaultEvent, unit: Unit) {
-  const prior = await m.getRepository(FaultEvent).find({ where: { unitId: e.unitId, occurredAt: LessThan(e.occurredAt), id: Not(e.id) } });
-  return dutyWithPriorFaults(caseUnit(unit), caseFault(e), prior.map((p) => ({ id: p.id, ...casePriorFault(p) })), e.id);
+  return (await eventDuty(m, e, unit)).throughFault;
+}
+
+/** The event's duty with its earlier faults, and the same inputs in the case format (the duty curve is drawn from them). */
+async function eventDuty(m: EntityManager, e: FaultEvent, unit: Unit) {
+  const prior = await m.getRepository(FaultEvent).find({ where: { unitId: e.unitId, occurredAt: LessThan(e.occurredAt), id: Not(e.id) }, order: { occurredAt: 'ASC', id: 'ASC' } });
+  const priorFaults = prior.map((p) => ({ id: p.id, ...casePriorFault(p) }));
+  const dutyCase = { unit: caseUnit(unit), fault: caseFault(e), priorFaults: prior.map(casePriorFault) };
+  return { throughFault: dutyWithPriorFaults(dutyCase.unit, dutyCase.fault, priorFaults, e.id), dutyCase };
 }
 
 const EVENT_SORT_COLUMNS: Record<string, string> = { occurredAt: 'e.occurredAt', serial: 'u.serial', status: 'e.status' };
@@ -149,7 +156,7 @@ export async function getEvent(m: EntityManager, id: number) {
   return {
     ...eventView(e),
     unit: { ...unitView(unit), site: { id: unit.site.id, name: unit.site.name, timeZone: unit.site.timeZone, locale: unit.site.locale }, design: designView(unit.design) },
-    throughFault: await eventThroughFault(m, e, unit),
+    ...(await eventDuty(m, e, unit)),
     sessions: sessions.map((s) => ({ ...readingSetConditions(s), values: values.get(s.id), sweeps: sweeps.filter((t) => t.readingSetId === s.id).map(sweepMeta) })),
     screenings: screenings.map((s) => ({
       id: s.id,

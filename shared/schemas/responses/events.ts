@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { currentIsSchema, faultSideSchema, faultTypeSchema, protectionSchema, readingSetSchema, shotSchema } from '../case.js';
 import { DECISION_OUTCOMES, EVENT_STATUSES, FINDING_CLASSIFICATIONS, NOTIFICATION_KINDS, NOTIFICATION_STATUSES, RECOMMENDATIONS } from '../enums.js';
+import { faultSchema, priorFaultSchema, unitSchema as caseUnitSchema } from '../case.js';
 import { resultSchema, throughFaultSchema } from '../result.js';
 import { isoDateTime, pageOf, rowId } from './common.js';
 import { designViewSchema, readingSetConditionsSchema, readingSetViewSchema, siteViewSchema, unitViewSchema } from './fleet.js';
@@ -160,6 +161,8 @@ export type NotificationView = z.infer<typeof notificationViewSchema>;
 export const eventDetailSchema = eventViewSchema.extend({
   unit: unitViewSchema.extend({ site: siteViewSchema, design: designViewSchema }),
   throughFault: throughFaultSchema.nullable(),
+  /** The duty curve's inputs in the case format: the unit, this fault and the unit's earlier faults (oldest first). */
+  dutyCase: z.strictObject({ unit: caseUnitSchema, fault: faultSchema, priorFaults: z.array(priorFaultSchema) }),
   sessions: z.array(readingSetViewSchema),
   /** Newest first. */
   screenings: z.array(storedScreeningSchema),

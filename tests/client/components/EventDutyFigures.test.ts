@@ -90,4 +90,18 @@ describe('EventDutyFigures', () => {
     expect(wrapper.get('[data-test="duty-force"] .q-icon').text()).toBe('warning');
     expect(wrapper.get('[data-test="duty-over-maximum"]').text()).toContain('above the design maximum of 9.5 × rated');
   });
+
+  it('draws the duty curve of a stored event from its duty inputs, and none on the live form', async () => {
+    const dutyCase = {
+      unit: { serial: 'T1', phases: 3 as const, ratedKVA: 40000, hvKV: 132, lvKV: 33, impedancePercent: 10.5 },
+      fault: { occurredAt: '2026-07-01T03:12:00Z', type: 'three-phase' as const, side: 'lv' as const, transformerTripped: true, protectionOperated: ['overcurrent' as const], shots: [{ currentKA: 6.3, durationS: 0.12 }] },
+      priorFaults: [],
+    };
+    const stored = render(highDuty, { dutyCase });
+    expect(stored.find('[data-test="duty-curve-slot"]').exists()).toBe(true);
+    const live = render(highDuty, { dutyCase, live: true });
+    expect(live.find('[data-test="duty-curve-slot"]').exists()).toBe(false);
+    const without = render(highDuty);
+    expect(without.find('[data-test="duty-curve-slot"]').exists()).toBe(false);
+  });
 });

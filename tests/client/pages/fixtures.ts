@@ -222,6 +222,12 @@ export function eventDetail(overrides: Partial<EventDetail> = {}): EventDetail {
     ...event11,
     unit,
     throughFault: u.events[0].throughFault,
+    // The duty curve's inputs as the server gives them (the case format's unit, this fault, no earlier fault).
+    dutyCase: {
+      unit: { serial: 'KVP-HX-T2', phases: 3, ratedKVA: 40000, hvKV: 132, lvKV: 33, impedancePercent: 10.5, vectorGroup: 'YNd1' },
+      fault: { occurredAt: event11.occurredAt, type: 'three-phase', side: 'lv', transformerTripped: true, protectionOperated: ['overcurrent'], shots: event11.shots },
+      priorFaults: [],
+    },
     sessions: [
       readingSet({
         id: 31,
