@@ -41,6 +41,7 @@ import { faultTypeWord, indicatorLabel, LEVEL_WORD, methodWord, RECOMMENDATION_W
 import { reasonInWords } from '../../shared/screening/headline.js';
 import { lacksBaselineTrace } from '../../shared/screening/verdict.js';
 import { formatInstant, formatSignificant } from '../../shared/format.js';
+import { frequencyResponseOf } from './pdf-sweep.js';
 
 const LEVEL_ORDER: Record<Level, number> = { critical: 0, investigate: 1, watch: 2, ok: 3 };
 
@@ -425,6 +426,8 @@ function reportDocDefinition(d: ScreeningReportData): TDocumentDefinitions {
     });
     content.push({ ul: detail.map((x) => ({ text: x, style: 'small' })) });
   }
+
+  content.push(...frequencyResponseOf(d));
 
   // Follow-ups
   content.push(heading('Follow-ups (proposed)'));
