@@ -37,7 +37,7 @@ const user = {
 
 /** The event list's item for the fixtures' event: its own record plus unit, site and recommendation. */
 function eventListItem() {
-  const { unit: _u, throughFault: _t, sessions: _s, screenings: _sc, decision: _d, decisions: _ds, followUps: _f, findings: _fi, notifications: _n, attachments: _a, audit: _au, people: _p, energisedAt: _e, activeRestrictions: _r, restrictionsLifted: _l, ...event } = eventDetail();
+  const { unit: _u, throughFault: _t, dutyCase: _dc, sessions: _s, screenings: _sc, decision: _d, decisions: _ds, followUps: _f, findings: _fi, notifications: _n, attachments: _a, audit: _au, people: _p, energisedAt: _e, activeRestrictions: _r, restrictionsLifted: _l, ...event } = eventDetail();
   return { ...event, unitSerial: 'KVP-HX-T2', siteId: 1, siteName: 'Harrow Cross', siteTimeZone: 'Europe/London', recommendation: null };
 }
 
