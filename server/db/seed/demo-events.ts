@@ -145,6 +145,18 @@ const scale = (rec: Record<string, number>, factors: Record<string, number>, dec
 const gasPlus = (g: Gas, rise: Partial<Gas>): Gas =>
   Object.fromEntries(Object.entries(g).map(([k, v]) => [k, roundTo(v + (rise[k as keyof Gas] ?? 0), k === 'CO' || k === 'CO2' ? 0 : 1)])) as Gas;
 
+/**
+ * DF at several frequencies (a narrow-band dielectric-response test, 15–400 Hz) around a power-frequency DF, as the
+ * case format's `dissipationByFrequency`: DF(f) = A/f + B·f + C with, at 50 Hz, 35 % conductive (A/f), 10 % series (B·f)
+ * and 55 % constant parts — invented demo shares — the conductive part scaled by `conductive`, and 0.5 % scatter.
+ */
+function dfCurve(df50: number, rnd: DemoRandom, conductive = 1): [number, number][] {
+  const a = 0.35 * df50 * 50 * conductive;
+  const b = (0.1 * df50) / 50;
+  const c = 0.55 * df50;
+  return [15, 30, 50, 100, 200, 400].map((f) => [f, roundTo((a / f + b * f + c) * (1 + rnd.normal(0.005)), 4)]);
+}
+
 /** The pre-fault gas sample of a unit: its newest routine set before `before` (as routineBody makes it). */
 export function routineGasBefore(serial: string, now: Date, before: Date): Gas {
   const u = demoUnit(serial);
@@ -244,7 +256,14 @@ export function historySession(t: DemoTimeline): ReadingBody {
     resistanceTemperatureC: resT,
     turnsRatio: scale(fp.turnsRatio, { A: 1.00005, B: 1.0002, C: 1.00004 }, 4),
     dissolvedGasPPM: gasPlus(routineGasBefore('KVP-MB-T1', t.now, t.historyFault), { H2: 68, CH4: 9.5, C2H6: 2.1, C2H4: 6.3, C2H2: 3.8, CO: 41, CO2: 150 }),
+    // DF over frequency on CH and CHL: the conductive (A/f) part up by half after the fault's heating and gassing.
+    ...dfCurves(fp.dissipationPercent, { CH: 1 + 0.012 * age + 0.03, CHL: 1 + 0.012 * age + 0.06 }, new DemoRandom('history/df'), 1.5),
   };
+}
+
+/** DF over frequency on CH and CHL, each around its power-frequency DF (the fingerprint's DF × its factor). */
+function dfCurves(df: Record<string, number>, factors: { CH: number; CHL: number }, rnd: DemoRandom, conductive = 1): Pick<ReadingBody, 'dissipationByFrequency'> {
+  return { dissipationByFrequency: { CH: dfCurve(df.CH * factors.CH, rnd, conductive), CHL: dfCurve(df.CHL * factors.CHL, rnd, conductive) } };
 }
 
 /** The repaired unit's values: LV winding of phase B new, all windings re-clamped, oil processed. */
@@ -287,6 +306,8 @@ export function repairedBody(t: DemoTimeline, which: 'commissioning' | 'retest')
     resistanceTemperatureC: resT,
     turnsRatio: per((p) => roundTo(fp.turnsRatio[p] * j(0.00002), 4)),
     dissolvedGasPPM: which === 'commissioning' ? { H2: 3.2, CH4: 0.9, C2H6: 0.6, C2H4: 0.3, C2H2: 0, CO: 14, CO2: 170 } : { H2: 4.1, CH4: 1.1, C2H6: 0.7, C2H4: 0.3, C2H2: 0, CO: 17, CO2: 185 },
+    // DF over frequency on CH and CHL (processed oil, new LV winding B): the re-test back on the commissioning curve.
+    ...dfCurves(fp.dissipationPercent, { CH: 1, CHL: 1 }, new DemoRandom(`repaired/${which}/df`)),
   };
 }
 
