@@ -129,6 +129,19 @@ export function linearTicks(min: number, max: number, count = 5): number[] {
   return out;
 }
 
+/**
+ * A range widened outward to whole "nice" steps (1, 2 or 5 × 10^n, about five intervals: `linearTicks` of the paper
+ * plots, and the screen charts' value axes) with the number of intervals, so the chart's tick labels read 2, 4, 6 rather than 1.976, 3.742.
+ */
+export function niceRange(r: { min: number; max: number }, count = 5): { min: number; max: number; tickAmount: number } {
+  const ticks = linearTicks(r.min, r.max, count);
+  if (ticks.length < 2) return { ...r, tickAmount: count };
+  const step = ticks[1] - ticks[0];
+  const min = ticks[0] > r.min ? ticks[0] - step : ticks[0];
+  const max = ticks[ticks.length - 1] < r.max ? ticks[ticks.length - 1] + step : ticks[ticks.length - 1];
+  return { min: Number(min.toPrecision(12)), max: Number(max.toPrecision(12)), tickAmount: Math.round((max - min) / step) };
+}
+
 /** A short plain label for a tick value. */
 export function formatTick(v: number): string {
   if (v === 0) return '0';

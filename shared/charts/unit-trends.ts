@@ -17,7 +17,6 @@ import { iecReactanceCategory, reactancePercent } from '../screening/reactance.j
 import { correctResistance, windingTemperature } from '../screening/resistance.js';
 import { shiftPercent } from '../screening/reference.js';
 import { faultTypeWord, GAS_LABELS } from '../vocabulary.js';
-import { linearTicks } from './svg-plot.js';
 
 export type TrendMode = 'values' | 'change';
 export type TrendGroupId = 'capacitance' | 'powerFactor' | 'reactance' | 'resistance' | 'excitation' | 'ratio' | 'gas';
@@ -394,15 +393,3 @@ export function trendXRange(group: TrendGroup, markers: readonly EventMarker[]):
   return { min: lo - pad, max: hi + pad };
 }
 
-/**
- * A range widened outward to whole "nice" steps (1, 2 or 5 × 10^n, about five intervals: `linearTicks` of the paper
- * plots) with the number of intervals, so the chart's tick labels read 2, 4, 6 rather than 1.976, 3.742.
- */
-export function niceRange(r: { min: number; max: number }, count = 5): { min: number; max: number; tickAmount: number } {
-  const ticks = linearTicks(r.min, r.max, count);
-  if (ticks.length < 2) return { ...r, tickAmount: count };
-  const step = ticks[1] - ticks[0];
-  const min = ticks[0] > r.min ? ticks[0] - step : ticks[0];
-  const max = ticks[ticks.length - 1] < r.max ? ticks[ticks.length - 1] + step : ticks[ticks.length - 1];
-  return { min: Number(min.toPrecision(12)), max: Number(max.toPrecision(12)), tickAmount: Math.round((max - min) / step) };
-}

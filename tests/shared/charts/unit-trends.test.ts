@@ -6,7 +6,6 @@ import {
   CHANGE_Y_TITLE,
   clipBands,
   eventMarkers,
-  niceRange,
   trendGroup,
   trendTable,
   trendXRange,
@@ -14,6 +13,7 @@ import {
   unitTrends,
   type TrendReadingSet,
 } from '../../../shared/charts/unit-trends.js';
+import { niceRange } from '../../../shared/charts/svg-plot.js';
 import { criteriaV2 } from '../../../shared/screening/criteria-sets.js';
 import { pf20Percent } from '../../../shared/screening/power-factor.js';
 
