@@ -1,12 +1,13 @@
 // The shift chart of a stored screening: every indicator whose value is a change (a shift against the unit's own
 // baseline, previous test, pre-fault sample or the sisters' median) as a bar, with the watch/investigate/critical
-// thresholds the engine judged it by, taken from the screening's own criteria set. Bars are grouped by their unit of
-// measure (%, percentage points, ppm) so that no axis mixes units. Pure; no Vue, no I/O.
+// thresholds the engine judged it by, taken from the screening's own criteria set. Bars are grouped by test method and
+// unit of measure (capacitance in %, power factor in %, reactance spread in percentage points, gases in ppm …) so that
+// no axis mixes units and a 0.5 % capacitance shift is not drawn beside a 25 % power-factor rise. Pure; no Vue, no I/O.
 import type { Band, Criteria } from '../screening/criteria.js';
 import { criteriaV2 } from '../screening/criteria-sets.js';
-import type { Indicator, Level } from '../schemas/result.js';
+import type { Indicator, Level, Method } from '../schemas/result.js';
 import { iecReactanceCategory } from '../screening/reactance.js';
-import { basisLabel, indicatorLabel, indicatorUnit, LEVEL_LABELS } from '../vocabulary.js';
+import { basisLabel, indicatorLabel, indicatorUnit, LEVEL_LABELS, METHOD_LABELS } from '../vocabulary.js';
 
 export type ShiftUnit = '%' | 'points' | 'ppm';
 export type ThresholdLevel = Exclude<Level, 'ok'>;
@@ -44,6 +45,9 @@ export interface ShiftBar {
 }
 
 export interface ShiftGroup {
+  /** `method|unit`: one chart per test method and unit. */
+  id: string;
+  method: Method;
   unit: ShiftUnit;
   /** Axis title with its unit. */
   axisTitle: string;
@@ -57,6 +61,14 @@ export const SHIFT_AXIS_TITLES: Record<ShiftUnit, string> = {
 };
 
 const UNITS: readonly ShiftUnit[] = ['%', 'points', 'ppm'];
+/** The order of the charts: the engine's methods as the indicator table lists them. */
+const METHODS: readonly Method[] = ['capacitance', 'power-factor', 'reactance', 'sweep', 'excitation', 'resistance', 'ratio', 'gas', 'bushing', 'sisters', 'duty'];
+
+/** A group's axis title: the method, then what is measured and its unit ("Capacitance: shift (%)"). */
+function groupAxisTitle(method: Method, unit: ShiftUnit): string {
+  const t = SHIFT_AXIS_TITLES[unit];
+  return `${METHOD_LABELS[method]}: ${t.charAt(0).toLowerCase()}${t.slice(1)}`;
+}
 
 /**
  * The criteria bands behind an indicator key (as the engine's method files apply them); null when the key is judged by
@@ -142,9 +154,9 @@ export function thresholdsOf(b: ShiftBands, value: number, cap?: Level): ShiftTh
     .filter((t): t is ShiftThreshold => t.level !== 'ok');
 }
 
-/** The bars of a result's shift indicators under the screening's criteria set, grouped by unit (%, points, ppm). */
+/** The bars of a result's shift indicators under the screening's criteria set, one group per method and unit. */
 export function shiftChart(indicators: readonly Indicator[], criteria: Criteria, opts: { ratedKVA?: number } = {}): ShiftGroup[] {
-  const groups = new Map<ShiftUnit, ShiftBar[]>();
+  const groups = new Map<string, { method: Method; unit: ShiftUnit; bars: ShiftBar[] }>();
   for (const i of indicators) {
     if (!isShiftIndicator(i)) continue;
     const unit = indicatorUnit(i.key) as ShiftUnit;
@@ -168,9 +180,13 @@ export function shiftChart(indicators: readonly Indicator[], criteria: Criteria,
       thresholds: bands ? thresholdsOf(bands, value, fromSisters ? criteria.sisters.referenceCap : undefined) : [],
       notes,
     };
-    (groups.get(unit) ?? groups.set(unit, []).get(unit)!).push(bar);
+    const id = `${i.method}|${unit}`;
+    (groups.get(id) ?? groups.set(id, { method: i.method, unit, bars: [] }).get(id)!).bars.push(bar);
   }
-  return UNITS.filter((u) => groups.has(u)).map((u) => ({ unit: u, axisTitle: SHIFT_AXIS_TITLES[u], bars: groups.get(u)! }));
+  const rank = (g: { method: Method; unit: ShiftUnit }) => METHODS.indexOf(g.method) * UNITS.length + UNITS.indexOf(g.unit);
+  return [...groups.entries()]
+    .sort(([, a], [, b]) => rank(a) - rank(b))
+    .map(([id, g]) => ({ id, method: g.method, unit: g.unit, axisTitle: groupAxisTitle(g.method, g.unit), bars: g.bars }));
 }
 
 const UNIT_TEXT: Record<ShiftUnit, string> = { '%': ' %', points: ' points', ppm: ' ppm' };

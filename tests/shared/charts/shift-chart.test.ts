@@ -5,13 +5,16 @@ import { bandsForKey, isShiftIndicator, shiftAxisRange, shiftChart, thresholdWor
 import { criteriaV1, criteriaV2 } from '../../../shared/screening/criteria-sets.js';
 import type { Indicator } from '../../../shared/schemas/result.js';
 
+/** The engine's method of a key, as its method files set it (dissipation over frequency is a power-factor test). */
+const METHOD_OF: Record<string, Indicator['method']> = { capacitance: 'capacitance', powerFactor: 'power-factor', dfFrequency: 'power-factor', reactance: 'reactance', resistance: 'resistance', excitation: 'excitation', gas: 'gas', sweep: 'sweep', duty: 'duty' };
+
 const ind = (key: string, value: Indicator['value'], level: Indicator['level'], basis?: Indicator['basis'], extra: Partial<Indicator> = {}): Indicator => ({
   key,
   value,
   level,
   rule: 'r',
   source: 's',
-  method: 'capacitance',
+  method: METHOD_OF[key.split('.')[0]] ?? 'capacitance',
   ...(basis ? { basis } : {}),
   ...(value === null ? { note: 'no value' } : {}),
   ...extra,
@@ -62,11 +65,14 @@ describe('thresholds from criteria set 2', () => {
   const groups = shiftChart(RESULT, criteriaV2, { ratedKVA: 20000 });
   const bar = (key: string) => groups.flatMap((g) => g.bars).find((b) => b.key === key)!;
 
-  it('groups bars by unit so no axis mixes units, each with its axis title', () => {
-    expect(groups.map((g) => [g.unit, g.axisTitle, g.bars.length])).toEqual([
-      ['%', 'Shift (%)', 6],
-      ['points', 'Change (percentage points)', 1],
-      ['ppm', 'Rise (ppm)', 2],
+  it('groups bars by method and unit so no axis mixes units or methods, each with its axis title', () => {
+    expect(groups.map((g) => [g.id, g.axisTitle, g.bars.map((b) => b.key)])).toEqual([
+      ['capacitance|%', 'Capacitance: shift (%)', ['capacitance.CHL.shiftPercent', 'capacitance.CH.shiftPercent']],
+      ['power-factor|%', 'Power factor: shift (%)', ['powerFactor.CHL.riseFromBaselinePercent', 'dfFrequency.CHL.seriesChangePercent']],
+      ['reactance|%', 'Leakage reactance: shift (%)', ['reactance.A.shiftPercent']],
+      ['reactance|points', 'Leakage reactance: change (percentage points)', ['reactance.phaseSpreadChangePoints']],
+      ['resistance|%', 'Winding resistance: shift (%)', ['resistance.A.changePercent']],
+      ['gas|ppm', 'Dissolved gases: rise (ppm)', ['gas.C2H2.risePPM', 'gas.H2.risePPM']],
     ]);
   });
 
@@ -159,10 +165,13 @@ describe('words and axis', () => {
     const ppm = groups.find((g) => g.unit === 'ppm')!;
     // values 3 and 140, first thresholds 1 and 100: 0 … 140, padded by 5 % of 140 = 7
     expect(shiftAxisRange(ppm)).toEqual({ min: 0, max: 147 });
-    const pct = groups.find((g) => g.unit === '%')!;
-    // −3.4 (CHL shift) … 60 (PF rise; its first threshold 50 is below it): pad 5 % of 63.4 = 3.17
-    const r = shiftAxisRange(pct);
-    expect(r.min).toBeCloseTo(-6.57, 10);
-    expect(r.max).toBeCloseTo(63.17, 10);
+    const pf = groups.find((g) => g.id === 'power-factor|%')!;
+    // 0 … 60 (PF rise; its first threshold 50 is below it; the DF series change 12 has none): pad 5 % of 60 = 3
+    expect(shiftAxisRange(pf)).toEqual({ min: 0, max: 63 });
+    const cap = groups.find((g) => g.id === 'capacitance|%')!;
+    // −3.4 (CHL shift, first threshold −2) … 6 (CH against the sisters, first threshold +2): pad 5 % of 9.4 = 0.47
+    const r = shiftAxisRange(cap);
+    expect(r.min).toBeCloseTo(-3.87, 10);
+    expect(r.max).toBeCloseTo(6.47, 10);
   });
 });
