@@ -325,6 +325,37 @@ describe('the event file', () => {
   });
 });
 
+describe('the event file on paper', () => {
+  it('prints the duty curve and every sweep overlay as vector drawings (the PDF report\'s), folded sections too, and no screen chart', async () => {
+    // Folded as the manager finds the page: paper shows every section anyway (event-print.css).
+    const page = await openAs(browser, running.url, api, 'manager', `/events/${historyEventId}`, 1440);
+    await page.waitForSelector('[data-test="event-title"]');
+    await page.locator('[data-test="duty-curve-print"] svg').waitFor({ state: 'attached', timeout: 15_000 });
+    await page.locator('[data-test="sweep-overlay-print"] svg').first().waitFor({ state: 'attached', timeout: 15_000 });
+    expect(await page.locator('[data-test="duty-curve-print"]').isVisible(), 'no drawing on screen').toBe(false);
+    await page.emulateMedia({ media: 'print' });
+    const drawings = await page.evaluate(() =>
+      Array.from(document.querySelectorAll('[data-test="duty-curve-print"], [data-test="sweep-overlay-print"]')).map((d) => {
+        const svg = d.querySelector('svg');
+        const box = svg?.getBoundingClientRect();
+        return { name: d.getAttribute('data-test'), width: box?.width ?? 0, text: Array.from(d.querySelectorAll('text')).map((t) => t.textContent).join(' | ') };
+      }),
+    );
+    const duty = drawings.filter((d) => d.name === 'duty-curve-print');
+    const sweeps = drawings.filter((d) => d.name === 'sweep-overlay-print');
+    expect(duty).toHaveLength(1);
+    expect(sweeps.length, 'one drawing per sweep overlay').toBe(await page.locator('[data-test="sweep-overlay"]').count());
+    for (const d of drawings) expect(d.width, `${d.name} is drawn on paper`).toBeGreaterThan(200);
+    expect(duty[0].text).toContain('Current (per unit of rated)');
+    expect(duty[0].text).toContain('Time (s)');
+    for (const d of sweeps) expect(d.text).toContain('Frequency (Hz)');
+    // The interactive charts stay off paper.
+    const screenCharts = await page.evaluate(() => Array.from(document.querySelectorAll('.gs-screen-chart')).filter((e) => e.getBoundingClientRect().height > 0).length);
+    expect(screenCharts).toBe(0);
+    await page.close();
+  });
+});
+
 describe('the design family page', () => {
   it('compares the family on CHL capacitance: the outlier named, the strip drawn, a table of every unit', async () => {
     const page = await openAs(browser, running.url, api, 'engineer', `/designs/${largeDesignId}`, 1440);

@@ -2,7 +2,8 @@
 // titles and band labels drawn in the rendered PDF (in Roboto, every glyph present), R per band as the engine gives it.
 import { describe, expect, it } from 'vitest';
 import { renderPdf } from '../../../server/reports/pdf.js';
-import { bandsInWords, frequencyResponseOf, sweepMagnitudeSvg } from '../../../server/reports/pdf-sweep.js';
+import { bandsInWords, frequencyResponseOf } from '../../../server/reports/pdf-sweep.js';
+import { sweepMagnitudeSvg } from '../../../shared/charts/sweep-overlay-svg.js';
 import { buildReportDocDefinition } from '../../../server/reports/screening-report.js';
 import { criteriaV2 } from '../../../shared/screening/criteria-sets.js';
 import { compareTraces } from '../../../shared/screening/sweep.js';
