@@ -41,8 +41,8 @@ export async function createAudited<E extends ObjectLiteral & { id: number }, V>
 }
 
 /**
- * Loads a row by id (404 when missing), runs the checks, applies the change, saves it and audits the view before and
- * after as `update`; returns the view.
+ * Loads a row by id (404 when missing), runs the checks, applies the change, saves it and audits as `update` the view's
+ * fields the change names (`fields`, the patch's keys) before and after; returns the whole view.
  */
 export async function updateAudited<E extends ObjectLiteral & { id: number }, V>(
   m: EntityManager,
@@ -50,7 +50,7 @@ export async function updateAudited<E extends ObjectLiteral & { id: number }, V>
   userId: number,
   kind: AuditedKind<E, V>,
   id: number,
-  change: { check?: (row: E) => Promise<void>; apply: (row: E) => void },
+  change: { check?: (row: E) => Promise<void>; apply: (row: E) => void; fields: readonly string[] },
 ): Promise<V> {
   const repo = m.getRepository(kind.target);
   const row = await repo.findOne({ where: { id } as FindOptionsWhere<E> });
@@ -59,6 +59,18 @@ export async function updateAudited<E extends ObjectLiteral & { id: number }, V>
   const before = kind.view(row);
   change.apply(row);
   await repo.save(row);
-  await audit(m, clock, { userId, action: 'update', entity: kind.entity, entityId: id, before, after: kind.view(row) });
-  return kind.view(row);
+  const after = kind.view(row);
+  await audit(m, clock, { userId, action: 'update', entity: kind.entity, entityId: id, before: pick(before, change.fields), after: pick(after, change.fields) });
+  return after;
+}
+
+/** The named fields of a view (those it has), for an audit entry that shows only what a change named. */
+export function pick<V>(view: V, fields: readonly string[]): Record<string, unknown> {
+  const all = view as Record<string, unknown>;
+  return Object.fromEntries(fields.filter((f) => Object.hasOwn(all, f)).map((f) => [f, all[f]]));
+}
+
+/** A parsed patch without its absent keys: what a PATCH writes (a key sent as null is kept: it clears the field). */
+export function present<P extends object>(patch: P): Partial<P> {
+  return Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined)) as Partial<P>;
 }

@@ -65,29 +65,40 @@ export const siteBodySchema = z.object({
     .nullable()
     .optional(),
 });
+/** PATCH /api/sites/:siteId — only the fields sent change (the site body has no defaults). */
 export const sitePatchSchema = siteBodySchema.partial();
 
-export const designBodySchema = z.object({
+/** A design's fields without create defaults: the patch schema is built from these, so an absent field stays absent. */
+const designFields = {
   reference: z.string().trim().min(1, 'required').max(80),
   maker: z.string().trim().min(1, 'required').max(120),
-  windings: windingsSchema.default('two-winding'),
+  windings: windingsSchema,
   vectorGroup: z.string().trim().min(1, 'required').max(20),
-  phases: z.union([z.literal(1), z.literal(3)]).default(3),
+  phases: z.union([z.literal(1), z.literal(3)]),
   hvKV: finite.positive(),
   lvKV: finite.positive(),
   tvKV: finite.positive().nullable().optional(),
   coolingStages: z.array(z.object({ stage: z.string().trim().min(1).max(20), kVA: finite.positive() })).min(1, 'at least one cooling stage'),
   impedancePercent: finite.positive().max(100),
   impedanceBaseKVA: finite.positive(),
-  conductor: conductorSchema.default('Cu'),
-  requiredCapacitance: z.array(z.string().trim().regex(/^[A-Za-z]{1,10}$/, 'letters only, e.g. CHL')).default([]),
+  conductor: conductorSchema,
+  requiredCapacitance: z.array(z.string().trim().regex(/^[A-Za-z]{1,10}$/, 'letters only, e.g. CHL')),
   notes: z.string().max(5000).nullable().optional(),
+};
+export const designBodySchema = z.object({
+  ...designFields,
+  windings: designFields.windings.default('two-winding'),
+  phases: designFields.phases.default(3),
+  conductor: designFields.conductor.default('Cu'),
+  requiredCapacitance: designFields.requiredCapacitance.default([]),
 });
-export const designPatchSchema = designBodySchema.partial();
+/** PATCH /api/designs/:designId — only the fields sent change: no create defaults (zod's `.partial()` keeps them). */
+export const designPatchSchema = z.object(designFields).partial();
 
-export const unitBodySchema = z.object({
+/** A unit's fields without create defaults: the patch schema is built from these, so an absent field stays absent. */
+const unitFields = {
   serial: z.string().trim().min(1, 'required').max(60),
-  position: z.string().trim().max(60).default(''),
+  position: z.string().trim().max(60),
   siteId: idSchema,
   designId: idSchema,
   year: z.number().int().min(1900).max(2100).nullable().optional(),
@@ -96,10 +107,16 @@ export const unitBodySchema = z.object({
   lvKV: finite.positive().optional(),
   ratedKVA: finite.positive().optional(),
   impedancePercent: finite.positive().max(100).optional(),
-  systemImpedancePercent: finite.nonnegative().max(100).default(0),
+  systemImpedancePercent: finite.nonnegative().max(100),
   conductor: conductorSchema.optional(),
+};
+export const unitBodySchema = z.object({
+  ...unitFields,
+  position: unitFields.position.default(''),
+  systemImpedancePercent: unitFields.systemImpedancePercent.default(0),
 });
-export const unitPatchSchema = unitBodySchema.partial();
+/** PATCH /api/units/:unitId — only the fields sent change: no create defaults (zod's `.partial()` keeps them). */
+export const unitPatchSchema = z.object(unitFields).partial();
 
 export const unitListQuerySchema = z.object({
   q: z.string().trim().max(60).optional(),

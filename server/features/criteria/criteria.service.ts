@@ -119,8 +119,9 @@ export async function patchDraft(m: EntityManager, clock: Clock, userId: number,
     action: 'update',
     entity: 'criteria_set',
     entityId: row.id,
-    before: { version, notes: before.notes },
-    after: { version, notes: row.notes, changes },
+    // Only what the patch named: notes when sent, the changed threshold leaves (the name is one) when thresholds or a name were.
+    before: { version, ...(body.notes !== undefined && { notes: before.notes }) },
+    after: { version, ...(body.notes !== undefined && { notes: row.notes }), ...((body.thresholds !== undefined || body.name !== undefined) && { changes }) },
   });
   return view(row, await namesOf(m, [row]));
 }

@@ -5,7 +5,7 @@ import { mergeReadingSets } from '../../../shared/readings/merge.js';
 import type { designBodySchema, designPatchSchema } from '../../../shared/schemas/fleet.js';
 import type { DesignDetail, DesignListItem, DesignSisters, DesignView } from '../../../shared/schemas/responses/index.js';
 import { badRequest, notFound } from '../../common/app-error.js';
-import { assertUnique, createAudited, updateAudited, type AuditedKind } from '../../common/audited-row.js';
+import { assertUnique, createAudited, present, updateAudited, type AuditedKind } from '../../common/audited-row.js';
 import type { Clock } from '../../common/clock.js';
 import { loadCriteria } from '../criteria/criteria.service.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
@@ -127,6 +127,7 @@ export async function updateDesign(m: EntityManager, clock: Clock, userId: numbe
     check: async () => {
       if (patch.reference !== undefined) await assertUnique(m, Design, 'reference', patch.reference, REFERENCE_TAKEN, id);
     },
-    apply: (d) => Object.assign(d, patch, { updatedAt: clock.now() }),
+    apply: (d) => Object.assign(d, present(patch), { updatedAt: clock.now() }),
+    fields: Object.keys(present(patch)),
   });
 }

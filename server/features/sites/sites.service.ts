@@ -2,7 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { siteBodySchema, sitePatchSchema } from '../../../shared/schemas/fleet.js';
 import type { SiteView } from '../../../shared/schemas/responses/index.js';
-import { assertUnique, createAudited, updateAudited, type AuditedKind } from '../../common/audited-row.js';
+import { assertUnique, createAudited, present, updateAudited, type AuditedKind } from '../../common/audited-row.js';
 import type { Clock } from '../../common/clock.js';
 import { Site } from './site.entity.js';
 
@@ -28,6 +28,7 @@ export async function updateSite(m: EntityManager, clock: Clock, userId: number,
     check: async () => {
       if (patch.name !== undefined) await assertUnique(m, Site, 'name', patch.name, NAME_TAKEN, id);
     },
-    apply: (site) => Object.assign(site, patch),
+    apply: (site) => Object.assign(site, present(patch)),
+    fields: Object.keys(present(patch)),
   });
 }

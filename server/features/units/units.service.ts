@@ -4,7 +4,7 @@ import type { ReadingSetBody, unitBodySchema, unitListQuerySchema, unitPatchSche
 import type { CreatedReadingSet, ReadingSetConditions, UnitDetail, UnitListPage, UnitView } from '../../../shared/schemas/responses/index.js';
 import { dutyWithPriorFaults } from '../../../shared/screening/duty-history.js';
 import { AppError, notFound } from '../../common/app-error.js';
-import { assertUnique, createAudited, updateAudited, type AuditedKind } from '../../common/audited-row.js';
+import { assertUnique, createAudited, present, updateAudited, type AuditedKind } from '../../common/audited-row.js';
 import type { Clock } from '../../common/clock.js';
 import { Design } from '../designs/design.entity.js';
 import { designView } from '../designs/designs.service.js';
@@ -201,9 +201,10 @@ export async function updateUnit(m: EntityManager, clock: Clock, userId: number,
       if (patch.serial !== undefined) await assertUnique(m, Unit, 'serial', patch.serial, SERIAL_TAKEN, id);
     },
     apply: (u) => {
-      for (const [k, v] of Object.entries(patch)) if (v !== undefined) (u as unknown as Record<string, unknown>)[k] = v;
+      Object.assign(u, present(patch));
       u.updatedAt = clock.now();
     },
+    fields: Object.keys(present(patch)),
   });
 }
 

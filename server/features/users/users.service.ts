@@ -3,6 +3,7 @@ import { randomBytes } from 'node:crypto';
 import { In, type EntityManager } from 'typeorm';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
+import { pick, present } from '../../common/audited-row.js';
 import type { Clock } from '../../common/clock.js';
 import type { PasswordChange, UserCreate, UserCreateBody, UserDto, UserListQuery, UserPatch } from '../../../shared/schemas/auth.js';
 import type { PersonPage, PersonView, PersonWithPassword } from '../../../shared/schemas/responses/admin.js';
@@ -110,7 +111,9 @@ export async function updateUser(m: EntityManager, clock: Clock, actorId: number
   user.updatedAt = now;
   await m.getRepository(User).save(user);
   const after = toPersonView(user, now);
-  await audit(m, clock, { userId: actorId, action: 'update', entity: 'user', entityId: id, before, after });
+  // The audit shows the fields the change named, nothing else.
+  const fields = Object.keys(present(patch));
+  await audit(m, clock, { userId: actorId, action: 'update', entity: 'user', entityId: id, before: pick(before, fields), after: pick(after, fields) });
   return after;
 }
 
