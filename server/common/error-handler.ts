@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import multer from 'multer';
+import type { DataSource } from 'typeorm';
 import { requestId } from '../logger.js';
 import { AppError } from './app-error.js';
 
@@ -35,6 +36,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
     });
     return;
   }
+  const dup = duplicateEntry(err, req.app.locals.ctx?.db as DataSource | undefined);
+  if (dup) {
+    res.status(409).json({ error: { code: 'conflict', message: dup.message, ...(dup.fields ? { fields: dup.fields } : {}) } });
+    return;
+  }
   // body-parser errors (bad JSON, body too large) carry a status and a type.
   const e = err as { status?: number; type?: string; message?: string };
   if (e && typeof e.status === 'number' && e.status >= 400 && e.status < 500) {
@@ -48,3 +54,28 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
     error: { code: 'internal', message: 'Something went wrong on the server; the error was logged.', requestId: requestId(req) },
   });
 };
+
+/**
+ * A unique-key violation from MariaDB (ER_DUP_ENTRY, errno 1062: two requests created the same serial, name, e-mail at
+ * once, after each checked it was free) as a 409 naming the field when the key is a known entity's unique index
+ * ("serial: a unit with this serial already exists."), a generic 409 otherwise; undefined for any other error.
+ */
+export function duplicateEntry(err: unknown, db?: DataSource): { message: string; fields?: Record<string, string> } | undefined {
+  const e = err as { code?: string; errno?: number; driverError?: { code?: string; errno?: number; sqlMessage?: string }; sqlMessage?: string; message?: string };
+  const driver = e?.driverError ?? e;
+  if (!driver || (driver.code !== 'ER_DUP_ENTRY' && driver.errno !== 1062)) return undefined;
+  const text = driver.sqlMessage ?? e.message ?? '';
+  const key = /for key '(?:[^']*\.)?([^'.]+)'/.exec(text)?.[1];
+  if (key && db?.isInitialized !== false) {
+    for (const meta of db?.entityMetadatas ?? []) {
+      const index = meta.indices.find((i) => i.name === key) ?? meta.uniques.find((u) => u.name === key);
+      if (!index) continue;
+      const cols = index.columns.map((c) => c.propertyName);
+      const field = cols.join(', ');
+      const thing = meta.tableName.replace(/_/g, ' ');
+      const msg = `a ${thing} with this ${cols.length > 1 ? 'combination of ' + field : field} already exists`;
+      return { message: `${field}: ${msg}.`, fields: Object.fromEntries(cols.map((c) => [c, 'already in use'])) };
+    }
+  }
+  return { message: 'This record already exists (another request created it at the same moment).' };
+}
