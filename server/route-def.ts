@@ -4,6 +4,8 @@ import type { z } from 'zod';
 import type { UserDto } from '../shared/schemas/auth.js';
 import type { Role } from '../shared/schemas/roles.js';
 import type { Clock } from './common/clock.js';
+import { AppError } from './common/app-error.js';
+import { loneSurrogateFields } from './common/unicode.js';
 import { singleFile } from './common/upload.js';
 import { validate } from './common/validate.js';
 import { ctx, type AppContext } from './context.js';
@@ -84,7 +86,9 @@ export function route<
   const parts = { params: spec.params, query: spec.query, body: spec.body };
   const validates = parts.params || parts.query || parts.body;
   const handlers: RequestHandler[] = [
+    ...(spec.body && spec.upload === undefined ? [jsonOnly] : []),
     ...(spec.upload !== undefined ? singleFile(spec.upload) : []),
+    wellFormedText,
     ...(validates ? [validate(parts as { params?: z.ZodType; query?: z.ZodType; body?: z.ZodType })] : []),
     async (req, res) => {
       const c = ctx(req);
@@ -115,6 +119,31 @@ export function route<
   ];
   return { method: spec.method, path: spec.path, access: spec.access, handlers };
 }
+
+/** True when the request carries body bytes (chunked, or a Content-Length above 0). */
+function hasBodyBytes(req: Request): boolean {
+  if (req.headers['transfer-encoding'] !== undefined) return true;
+  const n = Number(req.headers['content-length']);
+  return Number.isFinite(n) && n > 0;
+}
+
+// A route that takes a JSON body answers 415 to a body of another type (text/plain, form-encoded, none), which the JSON
+// parser would otherwise leave unread and the route would see as `{}`.
+const jsonOnly: RequestHandler = (req, _res, next) => {
+  if (hasBodyBytes(req) && !req.is('application/json')) {
+    const sent = req.headers['content-type'] ? `"${req.headers['content-type'].split(';')[0]!.trim()}"` : 'no content type';
+    return next(new AppError('unsupported_media_type', `This route takes a JSON body: send it with Content-Type "application/json" (the request had ${sent}).`, 415));
+  }
+  next();
+};
+
+// Every string of the parsed body, query and path (keys too) must be well-formed Unicode: JSON.parse accepts a lone
+// surrogate ("\ud800"), which the database's utf8mb4 columns reject. 400 naming each field.
+const wellFormedText: RequestHandler = (req, _res, next) => {
+  const fields = { ...loneSurrogateFields(req.params, 'params'), ...loneSurrogateFields(req.query, 'query'), ...loneSurrogateFields(req.body) };
+  if (Object.keys(fields).length) return next(new AppError('invalid_input', 'Some fields are invalid.', 400, fields));
+  next();
+};
 
 function send(res: Response, out: unknown, status: number): void {
   if (!(out instanceof Reply)) {
