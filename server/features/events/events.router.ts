@@ -2,7 +2,8 @@ import { fileReply, route, type RouteDef } from '../../route-def.js';
 import { attachmentParams, eventParams, sessionParams, sweepParams } from '../../common/params.js';
 import { UPLOAD_LIMITS } from '../../common/upload.js';
 import { eventBodySchema, eventListQuerySchema, eventPatchSchema, sessionBodySchema, sessionPatchSchema, sweepUploadFieldsSchema } from '../../../shared/schemas/fleet.js';
-import { addEventAttachment, attachmentDisposition, getEventAttachment } from '../attachments/attachments.service.js';
+import { addEventAttachment, getEventAttachment } from '../attachments/attachments.service.js';
+import { disposition } from '../../common/disposition.js';
 import { getSweep, parseSweepUpload } from '../readings/sweeps.service.js';
 import { buildEventCase } from './case-export.service.js';
 import { correctEvent, logEvent } from './events.service.js';
@@ -71,7 +72,7 @@ export const eventRoutes: RouteDef[] = [
     handler: async ({ m, params }) => {
       const a = await getEventAttachment(m, params.eventId, params.attachmentId);
       return fileReply(a.data, a.contentType, {
-        'Content-Disposition': attachmentDisposition(a.name),
+        'Content-Disposition': disposition(a.name, { utf8: 'always' }),
         'X-Content-SHA256': a.sha256,
       });
     },

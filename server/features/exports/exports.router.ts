@@ -1,11 +1,11 @@
 import { fileReply, route, type RouteDef } from '../../route-def.js';
 import { eventParams, screeningParams, unitParams } from '../../common/params.js';
 import { exportFormatQuerySchema } from '../../../shared/schemas/exports.js';
-import { attachmentDisposition } from '../attachments/attachments.service.js';
+import { disposition } from '../../common/disposition.js';
 import { exportEventAudit, exportScreeningIndicators, exportUnitReadings } from './exports.service.js';
 
 const download = (out: { data: Buffer; contentType: string; fileName: string; written: number }) =>
-  fileReply(out.data, out.contentType, { 'Content-Disposition': attachmentDisposition(out.fileName), 'X-Exported-Count': String(out.written) });
+  fileReply(out.data, out.contentType, { 'Content-Disposition': disposition(out.fileName, { utf8: 'always' }), 'X-Exported-Count': String(out.written) });
 
 // Spreadsheet exports (.xlsx or CSV) of a unit's readings, a screening's indicators and an event's audit trail.
 export const exportRoutes: RouteDef[] = [

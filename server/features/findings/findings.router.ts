@@ -1,7 +1,8 @@
 import { fileReply, route, type RouteDef } from '../../route-def.js';
 import { findingAttachmentParams, findingParams } from '../../common/params.js';
 import { UPLOAD_LIMITS } from '../../common/upload.js';
-import { addFindingAttachment, attachmentDisposition, getFindingAttachment } from '../attachments/attachments.service.js';
+import { addFindingAttachment, getFindingAttachment } from '../attachments/attachments.service.js';
+import { disposition } from '../../common/disposition.js';
 
 // Photos and documents on inspection findings.
 export const findingRoutes: RouteDef[] = [
@@ -23,7 +24,7 @@ export const findingRoutes: RouteDef[] = [
     params: findingAttachmentParams,
     handler: async ({ m, params }) => {
       const a = await getFindingAttachment(m, params.findingId, params.attachmentId);
-      return fileReply(a.data, a.contentType, { 'Content-Disposition': attachmentDisposition(a.name), 'X-Content-SHA256': a.sha256 });
+      return fileReply(a.data, a.contentType, { 'Content-Disposition': disposition(a.name, { utf8: 'always' }), 'X-Content-SHA256': a.sha256 });
     },
   }),
 ];

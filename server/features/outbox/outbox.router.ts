@@ -1,7 +1,7 @@
 import { route, type RouteDef } from '../../route-def.js';
 import { notFound } from '../../common/app-error.js';
 import { outboxAttachmentParams } from '../../common/params.js';
-import { attachmentDisposition } from '../attachments/attachments.service.js';
+import { disposition } from '../../common/disposition.js';
 import { fileReply } from '../../route-def.js';
 import { getOutboxAttachment, listOutbox } from './outbox.service.js';
 
@@ -27,7 +27,7 @@ export const outboxRoutes: RouteDef[] = [
     handler: async ({ m, ctx, params }) => {
       if (!ctx.mailSinkRunning) throw notFound(OUTBOX_OFF);
       const a = await getOutboxAttachment(m, params.messageId, params.index);
-      return fileReply(a.data, a.contentType.split(';')[0]?.trim() || 'application/octet-stream', { 'Content-Disposition': attachmentDisposition(a.filename), 'X-Content-Type-Options': 'nosniff' });
+      return fileReply(a.data, a.contentType.split(';')[0]?.trim() || 'application/octet-stream', { 'Content-Disposition': disposition(a.filename, { utf8: 'always' }), 'X-Content-Type-Options': 'nosniff' });
     },
   }),
 ];

@@ -2,6 +2,7 @@ import { fileReply, route, type RouteDef } from '../../route-def.js';
 import { caseSchema } from '../../../shared/schemas/case.js';
 import { decisionBodySchema, energisedBodySchema, findingBodySchema, followUpCloseSchema, liftRestrictionsBodySchema, screeningRunBodySchema } from '../../../shared/schemas/screening.js';
 import { eventParams, followUpParams, screeningParams } from '../../common/params.js';
+import { disposition } from '../../common/disposition.js';
 import { screeningReportPdf } from '../../reports/report.service.js';
 import { assertMayRunScreening, closeFollowUp, decide, liftRestrictions, previewScreening, recordEnergised, recordFinding, runScreening, screenedCase } from './screenings.service.js';
 
@@ -38,7 +39,7 @@ export const screeningRoutes: RouteDef[] = [
     params: screeningParams,
     handler: async ({ m, params, ctx, req }) => {
       const report = await screeningReportPdf(m, params.screeningId, ctx.appUrl ?? `${req.protocol}://${req.get('host')}`);
-      return fileReply(report.pdf, 'application/pdf', { 'Content-Disposition': `inline; filename="${report.filename}"` });
+      return fileReply(report.pdf, 'application/pdf', { 'Content-Disposition': disposition(report.filename, { type: 'inline' }) });
     },
   }),
   // GET /api/screenings/:screeningId/case — the gapsight-case/1 exactly as it was screened (the charts of the evidence

@@ -1,5 +1,6 @@
 import { fileReply, Reply, route, type RouteDef } from '../../route-def.js';
 import { UPLOAD_LIMITS } from '../../common/upload.js';
+import { disposition } from '../../common/disposition.js';
 import { unitParams } from '../../common/params.js';
 import { readingSetsImportFieldsSchema, unitExportQuerySchema, unitImportFieldsSchema, unitReadingSetImportFieldsSchema } from '../../../shared/schemas/units-io.js';
 import { importReadingSets } from './reading-sets-import.service.js';
@@ -17,7 +18,7 @@ export const unitIoRoutes: RouteDef[] = [
     handler: async ({ m, clock, query }) => {
       const out = await exportUnits(m, clock, query);
       return fileReply(out.data, out.contentType, {
-        'Content-Disposition': `attachment; filename="${out.fileName}"`,
+        'Content-Disposition': disposition(out.fileName),
         'X-Total-Count': String(out.total),
         'X-Exported-Count': String(out.written),
       });
