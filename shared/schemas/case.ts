@@ -104,6 +104,9 @@ export const dissolvedGasSchema = z.looseObject({
 
 const phaseValues = () => z.record(z.string().min(1), positive());
 
+/** A tap position as text or a number; text fits the stored column (20 characters). */
+const tapPositionSchema = () => z.union([z.string().max(20, 'at most 20 characters'), finite()]);
+
 /** One bushing terminal's readings (C1 main insulation, C2 tap insulation, their DF in percent). */
 export const bushingSchema = z.looseObject({
   c1PF: positive(),
@@ -118,7 +121,7 @@ export const bushingSchema = z.looseObject({
 export const readingSetSchema = z.looseObject({
   takenAt: isoDate().optional(),
   temperatureC: finite().optional(),
-  tapPosition: z.union([z.string(), finite()]).optional(),
+  tapPosition: tapPositionSchema().optional(),
   /** The core was demagnetised before the excitation and sweep tests (or they came before any DC test). */
   demagnetised: z.boolean().optional(),
   /** Hours between de-energising and the tests. */
@@ -151,12 +154,12 @@ export const sweepTestTypeSchema = z.enum([
   'inductive-interwinding',
 ]);
 export const sweepSchema = z.looseObject({
-  label: z.string().min(1),
+  label: z.string().min(1).max(60, 'at most 60 characters'),
   testType: sweepTestTypeSchema,
   winding: sweepWindingSchema.optional(),
   phase: sweepPhaseSchema.optional(),
-  baselineTapPosition: z.union([z.string(), finite()]).optional(),
-  tapPosition: z.union([z.string(), finite()]).optional(),
+  baselineTapPosition: tapPositionSchema().optional(),
+  tapPosition: tapPositionSchema().optional(),
   demagnetised: z.boolean().optional(),
   baseline: z.array(sweepPointSchema).optional(),
   postFault: z.array(sweepPointSchema),

@@ -55,6 +55,10 @@ export async function insertSweepTrace(
   fileName: string | null,
   userId: number | null,
 ): Promise<SweepTrace> {
+  // The multipart parser reads a file name as Latin-1: store the name as the browser sent it (UTF-8), and refuse one
+  // longer than its column (255 characters) by name rather than fail in the database.
+  if (fileName !== null) fileName = utf8Name(fileName);
+  if (fileName !== null && [...fileName].length > 255) throw new AppError('invalid_input', 'The file name is longer than 255 characters: rename the file.', 400, { file: 'file name longer than 255 characters' });
   const repo = m.getRepository(SweepTrace);
   const trace = await repo.save(
     repo.create({
