@@ -7,10 +7,12 @@ import { describe, expect, it } from 'vitest';
 import { Attachment } from '../../server/features/attachments/attachment.entity.js';
 import { Design } from '../../server/features/designs/design.entity.js';
 import { ReadingSet } from '../../server/features/readings/reading-set.entity.js';
+import { SweepTrace } from '../../server/features/readings/sweep-trace.entity.js';
 import { Site } from '../../server/features/sites/site.entity.js';
 import { Unit } from '../../server/features/units/unit.entity.js';
 import { User } from '../../server/features/users/user.entity.js';
 import { makeDesign, makeSite, makeUnit } from '../helpers/factories.js';
+import { sweepCsv } from '../helpers/sweep-csv.js';
 import { correctionsFlow } from './corrections/flow.js';
 
 const f = correctionsFlow();
@@ -122,6 +124,23 @@ describe('file names outside Latin-1', () => {
     expect(header).toMatch(/^attachment; filename="[\x20-\x7e]+"; filename\*=UTF-8''/);
     expect(header).toContain(`filename*=UTF-8''${encodeURIComponent(name)}`);
     expect(parseDisposition(header)).toMatchObject({ type: 'attachment', parameters: { filename: name } });
+  });
+
+  it('a sweep file named outside Latin-1 is stored as sent; a name over 255 characters is a 400 naming the file', async () => {
+    const { sessionId } = await f.event();
+    const upload = (name: string, label: string) =>
+      f.api().post(`/api/sessions/${sessionId}/sweeps`).set(f.as.tester).field('label', label).field('testType', 'open-circuit').attach('file', Buffer.from(sweepCsv()), name);
+    const name = 'Wicklung-Ä-变压器.csv';
+    const ok = await upload(name, 'HV-A-open');
+    expect(ok.status).toBe(201);
+    expect((await f.env.db.getRepository(SweepTrace).findOneByOrFail({ readingSetId: sessionId })).fileName).toBe(name);
+    const long = await upload(`${'变'.repeat(256)}.csv`, 'HV-B-open');
+    expect(long.status).toBe(400);
+    expect(long.body.error.fields.file).toMatch(/255/);
+    const label = await upload('b.csv', 'L'.repeat(61));
+    expect(label.status).toBe(400);
+    expect(Object.keys(label.body.error.fields)).toContain('label');
+    expect(await f.env.db.getRepository(SweepTrace).countBy({ readingSetId: sessionId })).toBe(1);
   });
 
   it('a unit serial outside Latin-1 names the screening report without a 500', async () => {
