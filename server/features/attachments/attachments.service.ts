@@ -45,7 +45,8 @@ async function storeAttachment(
   contentType: string,
 ) {
   const sha256 = createHash('sha256').update(file.buffer).digest('hex');
-  const name = utf8Name(file.originalname).replace(/[\\/]/g, '_').slice(0, 255);
+  // Cut by characters, not UTF-16 units: half an emoji would be a lone surrogate the database refuses.
+  const name = Array.from(utf8Name(file.originalname).replace(/[\\/]/g, '_')).slice(0, 255).join('');
   const a = await m.getRepository(Attachment).save(
     m.getRepository(Attachment).create({ ...owner, name, contentType, kind, size: file.buffer.length, sha256, createdById: userId, createdAt: clock.now() }),
   );
@@ -78,16 +79,6 @@ async function attachmentWithBytes(m: EntityManager, where: Pick<Attachment, 'id
   if (!a) throw notFound('Attachment');
   const c = await m.getRepository(AttachmentContent).findOneOrFail({ where: { attachmentId: a.id } });
   return { name: a.name, contentType: a.contentType, sha256: a.sha256, data: c.data };
-}
-
-/**
- * A Content-Disposition header that is safe for any file name: a plain ASCII `filename` with quotes, backslashes and
- * control characters replaced, and the exact name as UTF-8 in `filename*` (RFC 5987 / RFC 6266).
- */
-export function attachmentDisposition(name: string): string {
-  const fallback = name.replace(/[^\x20-\x7e]|["\\%]/g, '_') || 'file';
-  const encoded = encodeURIComponent(name).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
-  return `attachment; filename="${fallback}"; filename*=UTF-8''${encoded}`;
 }
 
 /** An attachment's bytes with its name and type (404 when it is not this event's). */
