@@ -53,7 +53,7 @@ export function findMariadbd(env: NodeJS.ProcessEnv = process.env): string | nul
   return which(env.MARIADBD_BIN ?? 'mariadbd');
 }
 
-function clientBinary(name: 'mariadb' | 'mariadb-admin' | 'mariadb-install-db'): string {
+export function clientBinary(name: 'mariadb' | 'mariadb-admin' | 'mariadb-install-db' | 'mariadb-dump' | 'mariadb-binlog'): string {
   const found = which(name);
   if (!found) throw new ProvisionError(`${name} was not found; install it with: apt-get install -y mariadb-server`);
   return found;
@@ -178,8 +178,14 @@ export interface StartResult {
   pid: number | null;
 }
 
+/** The binary log's base name: files `<datadir>/binlog.000001` … (kept 7 days, 64 MiB each), for point-in-time restores. */
+export const binlogBase = (p: MariaDbPaths) => path.join(p.datadir, 'binlog');
+
 /** Starts the private server detached (or finds it already up); clear errors for a taken port or a failed start. */
-export async function startMariaDb(p: MariaDbPaths, opts: { bufferPoolMB?: number; timeoutMs?: number } = {}): Promise<StartResult> {
+export async function startMariaDb(
+  p: MariaDbPaths,
+  opts: { bufferPoolMB?: number; timeoutMs?: number; binlog?: boolean } = {},
+): Promise<StartResult> {
   const bin = findMariadbd() ?? ensureMariaDbInstalled();
   mkdirSync(p.baseDir, { recursive: true });
   initDatadir(p);
@@ -217,7 +223,10 @@ export async function startMariaDb(p: MariaDbPaths, opts: { bufferPoolMB?: numbe
     '--table-open-cache=400',
     '--performance-schema=OFF',
     '--max-allowed-packet=64M',
-    '--skip-log-bin',
+    // The binary log (on unless a caller turns it off): row events from a backup's position replay to any later moment.
+    ...(opts.binlog === false
+      ? ['--skip-log-bin']
+      : [`--log-bin=${binlogBase(p)}`, '--binlog-format=ROW', '--server-id=1', '--binlog-expire-logs-seconds=604800', '--max-binlog-size=64M']),
   ];
   const child = spawn(bin, args, { detached: true, stdio: 'ignore' });
   let exited: number | null = null;
