@@ -36,6 +36,20 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
     });
     return;
   }
+  const fault = databaseFault(err);
+  if (fault === 'unavailable') {
+    // Expected while the database restarts: a warning with the driver's code, not a stack trace per request.
+    req.log?.warn({ code: faultCode(err) }, 'database unavailable');
+    res.setHeader('Retry-After', String(DB_RETRY_AFTER_SECONDS));
+    res.status(503).json({ error: { code: 'db_unavailable', message: 'The database is not reachable; try again in a moment.', requestId: requestId(req) } });
+    return;
+  }
+  if (fault === 'deadlock') {
+    res.status(409).json({
+      error: { code: 'conflict', message: 'Another change to the same records was being saved at the same moment; nothing of this request was saved. Try again.' },
+    });
+    return;
+  }
   const dup = duplicateEntry(err, req.app.locals.ctx?.db as DataSource | undefined);
   if (dup) {
     res.status(409).json({ error: { code: 'conflict', message: dup.message, ...(dup.fields ? { fields: dup.fields } : {}) } });
@@ -78,4 +92,72 @@ export function duplicateEntry(err: unknown, db?: DataSource): { message: string
     }
   }
   return { message: 'This record already exists (another request created it at the same moment).' };
+}
+
+/** Seconds a client is asked to wait (Retry-After) before trying again while the database is unreachable. */
+export const DB_RETRY_AFTER_SECONDS = 5;
+
+// Socket errors of the database connection (mysql2 marks them `fatal`); the same codes from anything else (a mail
+// server) are not the database's.
+const SOCKET_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'EPIPE', 'ETIMEDOUT', 'EHOSTUNREACH', 'ENETUNREACH', 'ENOTFOUND', 'EAI_AGAIN', 'ECONNABORTED']);
+// mysql2's own codes for a lost or unusable connection, and server errors that mean "not now" rather than "never".
+const UNAVAILABLE_CODES = new Set([
+  'PROTOCOL_CONNECTION_LOST', // the server closed the connection (killed, restarted)
+  'PROTOCOL_SEQUENCE_TIMEOUT',
+  'PROTOCOL_ENQUEUE_AFTER_FATAL_ERROR',
+  'PROTOCOL_ENQUEUE_AFTER_QUIT',
+  'POOL_ACQUIRE_TIMEOUT', // no free connection in time (server/db/create-data-source.ts)
+  'ER_CON_COUNT_ERROR', // 1040 too many connections
+  'ER_TOO_MANY_USER_CONNECTIONS', // 1203
+  'ER_SERVER_SHUTDOWN', // 1053 server shutdown in progress
+  'ER_LOCK_WAIT_TIMEOUT', // 1205 a lock held too long by another transaction: busy, the request's transaction is rolled back
+  'ER_QUERY_INTERRUPTED', // 1317 interrupted by a shutdown
+  'ER_CONNECTION_KILLED', // 1927 (MariaDB)
+]);
+const UNAVAILABLE_ERRNOS = new Set([1040, 1053, 1203, 1205, 1317, 1927, 2002, 2003, 2006, 2013]);
+// mysql2 errors that carry no code: the pool closed or full, a command on a connection the server closed.
+const UNAVAILABLE_MESSAGES = [/^Pool is closed\.?$/, /^Queue limit reached\.?$/, /^No connections available\.?$/, /Can't add new command when connection is in closed state/, /Can't write in closed state/];
+// TypeORM's errors for a data source that is not connected (not yet, or closed by a shutdown).
+const UNAVAILABLE_NAMES = new Set(['CannotExecuteNotConnectedError', 'ConnectionIsNotSetError']);
+const NOT_CONNECTED = /^Connection is not established with \w+ database/;
+
+type DriverLike = { code?: unknown; errno?: unknown; fatal?: unknown; message?: unknown; name?: unknown; driverError?: unknown; cause?: unknown; errors?: unknown };
+
+/** The error and what it wraps (TypeORM's `driverError`, `cause`, an AggregateError's `errors`), a few levels deep. */
+function* errorChain(err: unknown, depth = 0): Generator<DriverLike> {
+  if (!err || typeof err !== 'object' || depth > 4) return;
+  const e = err as DriverLike;
+  yield e;
+  yield* errorChain(e.driverError, depth + 1);
+  yield* errorChain(e.cause, depth + 1);
+  if (Array.isArray(e.errors)) for (const x of e.errors) yield* errorChain(x, depth + 1);
+}
+
+function unavailable(e: DriverLike): boolean {
+  if (typeof e.code === 'string') {
+    if (UNAVAILABLE_CODES.has(e.code)) return true;
+    if (SOCKET_CODES.has(e.code) && e.fatal === true) return true;
+  }
+  if (typeof e.errno === 'number' && UNAVAILABLE_ERRNOS.has(e.errno)) return true;
+  if (typeof e.message === 'string' && UNAVAILABLE_MESSAGES.some((re) => re.test(e.message as string))) return true;
+  if (e.name === 'TypeORMError' && typeof e.message === 'string' && NOT_CONNECTED.test(e.message)) return true;
+  return typeof e.name === 'string' && UNAVAILABLE_NAMES.has(e.name);
+}
+
+/**
+ * What a database error means for the client: 'unavailable' (503 db_unavailable with Retry-After: the server is down,
+ * restarting, unreachable, out of connections, or a lock wait timed out — the request's transaction did not commit),
+ * 'deadlock' (ER_LOCK_DEADLOCK 1213: InnoDB rolled the transaction back; 409, try again), undefined for anything else.
+ */
+export function databaseFault(err: unknown): 'unavailable' | 'deadlock' | undefined {
+  for (const e of errorChain(err)) {
+    if (e.code === 'ER_LOCK_DEADLOCK' || e.errno === 1213) return 'deadlock';
+    if (unavailable(e)) return 'unavailable';
+  }
+  return undefined;
+}
+
+function faultCode(err: unknown): string | undefined {
+  for (const e of errorChain(err)) if (typeof e.code === 'string') return e.code;
+  return undefined;
 }
