@@ -37,6 +37,40 @@ export function separatorProblem(delimiter: ',' | ';' | '\t'): string | null {
   return null;
 }
 
+/**
+ * The non-blank lines of a normalised CSV text, counted in one cheap scan (no parsing). A record never spans fewer lines
+ * than one, so this is an upper bound on the records: a file within a row cap by this count is within it by records too.
+ */
+export function countNonBlankLines(normalisedText: string): number {
+  let count = 0;
+  let start = 0;
+  while (start <= normalisedText.length) {
+    let end = normalisedText.indexOf('\n', start);
+    if (end < 0) end = normalisedText.length;
+    for (let i = start; i < end; i += 1) {
+      const c = normalisedText.charCodeAt(i);
+      // Anything but a space or a tab makes the line count (a line of separators counts too: still an upper bound).
+      if (c !== 32 && c !== 9) {
+        count += 1;
+        break;
+      }
+    }
+    start = end + 1;
+  }
+  return count;
+}
+
+/** "file: at most N rows; this file has M" — the message of a file over its row cap (null within it). */
+export function rowCapProblem(dataLines: number, maxRows: number, what = 'rows'): string | null {
+  if (dataLines <= maxRows) return null;
+  return `at most ${groupThousands(maxRows)} ${what} a file; this file has ${groupThousands(dataLines)}: split it into smaller files`;
+}
+
+/** 12 345 → "12 345" (a thin grouping as the other messages write it). */
+export function groupThousands(n: number): string {
+  return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ' ');
+}
+
 /** Every non-blank record of a normalised CSV text with the file line it starts on (1-based), plus quoting errors by line. */
 export function csvRecords(
   normalisedText: string,

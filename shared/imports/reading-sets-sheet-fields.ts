@@ -40,4 +40,4 @@ export const READING_SET_SHEET_FIELD_LABELS: Record<ReadingSetSheetField, string
 };
 
 /** Most reading rows one import takes. */
-export const READING_SET_IMPORT_ROW_LIMIT = 20000;
+export const READING_SET_IMPORT_ROW_LIMIT = 10000;

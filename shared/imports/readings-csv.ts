@@ -5,6 +5,7 @@
 import {
   DECIMAL_COMMA_MESSAGE,
   collectRowErrors,
+  countNonBlankLines,
   csvRecords,
   detectDelimiter,
   isDecimalCommaNumber,
@@ -12,6 +13,7 @@ import {
   parseDecimalCell,
   quoteCell,
   readFixedHeader,
+  rowCapProblem,
   separatorProblem,
 } from './csv.js';
 
@@ -167,6 +169,11 @@ const CONFIGURATION = /^[A-Za-z]{1,16}$/;
 const TERMINAL = /^[A-Za-z0-9](?:[A-Za-z0-9._-]{0,18}[A-Za-z0-9])?$/;
 /** Above this many bad rows the rest are counted, not listed, so a wrong file cannot produce a huge answer. */
 const MAX_LISTED_BAD_ROWS = 1000;
+/**
+ * Readings a file may hold. A unit's full set (every configuration, phase, gas and bushing of a three-winding unit) is a
+ * few hundred rows; 5 000 leaves room for any real file and keeps the largest one's check to tens of milliseconds.
+ */
+export const READINGS_MAX_ROWS = 5000;
 
 // ---------------------------------------------------------------------------------------------------------------------
 // Readings
@@ -273,6 +280,10 @@ export function parseReadingsCsv(text: string, options: ReadingsCsvOptions = {})
   const normalised = normaliseCsvText(text);
   if (normalised.trim() === '') return { ok: false, fields: { file: 'the file is empty: expected a header quantity,configuration,phase,value,unit and one reading a row' } };
 
+  // The row cap first, by a cheap count of lines: a file over it is refused before it is parsed.
+  const tooMany = rowCapProblem(countNonBlankLines(normalised) - 1, READINGS_MAX_ROWS);
+  if (tooMany !== null) return { ok: false, fields: { file: tooMany } };
+
   const delimiter = detectDelimiter(normalised);
   const fields: Record<string, string> = {};
   const separator = separatorProblem(delimiter);
@@ -280,6 +291,7 @@ export function parseReadingsCsv(text: string, options: ReadingsCsvOptions = {})
 
   const { records, quoteErrorLines } = csvRecords(normalised, delimiter);
   const [headerRecord, ...dataRecords] = records;
+  if (headerRecord === undefined) return { ok: false, fields: { file: 'the file has no values (only separators): expected a header quantity,configuration,phase,value,unit and one reading a row' } };
   const header = readHeader(headerRecord.cells);
   if ('error' in header) return { ok: false, fields: { ...fields, header: header.error } };
   if (dataRecords.length === 0) {
@@ -337,21 +349,24 @@ export function parseReadingsCsv(text: string, options: ReadingsCsvOptions = {})
   return { ok: true, rows };
 }
 
-/** Checked rows → the matching part of a case-format reading set (reactance as `{ percent }`, bushings by terminal). */
+/**
+ * Checked rows → the matching part of a case-format reading set (reactance as `{ percent }`, bushings by terminal).
+ * One pass, each section filled in place (no copy per row), so a file of many rows takes time in proportion to its rows.
+ */
 export function readingRowsToSet(rows: readonly ReadingRow[]): ReadingSetPart {
   const set: ReadingSetPart = {};
+  const sections = set as Record<string, Record<string, unknown> | number | undefined>;
   for (const row of rows) {
     const spec = QUANTITIES[row.quantity];
     const label = (spec.keyedBy === 'phase' ? row.phase : row.configuration) ?? '';
-    if (spec.setKey === 'reactance') {
-      set.reactance = { ...set.reactance, [label]: { percent: row.value } };
-    } else if (spec.setKey === 'bushings') {
-      set.bushings = { ...set.bushings, [label]: { ...set.bushings?.[label], [spec.bushingKey!]: row.value } };
-    } else if (spec.setKey === 'excitationKV' || spec.setKey === 'windingTemperatureC') {
+    if (spec.setKey === 'excitationKV' || spec.setKey === 'windingTemperatureC') {
       set[spec.setKey] = row.value;
-    } else {
-      set[spec.setKey] = { ...set[spec.setKey], [label]: row.value };
+      continue;
     }
+    const section = (sections[spec.setKey] ??= {}) as Record<string, unknown>;
+    if (spec.setKey === 'reactance') section[label] = { percent: row.value };
+    else if (spec.setKey === 'bushings') ((section[label] ??= {}) as ImportedBushing)[spec.bushingKey!] = row.value;
+    else section[label] = row.value;
   }
   return set;
 }

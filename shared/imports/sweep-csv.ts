@@ -4,10 +4,13 @@
 import {
   DECIMAL_COMMA_MESSAGE,
   collectRowErrors,
+  countNonBlankLines,
   csvRecords,
   detectDelimiter,
   normaliseCsvText,
+  groupThousands,
   parseDecimalCell,
+  rowCapProblem,
   separatorProblem,
 } from './csv.js';
 
@@ -62,10 +65,6 @@ function readHeader(cells: string[]): { columns: SweepColumn[] } | { error: stri
   return problems.length > 0 ? { error: problems.join('; ') } : { columns };
 }
 
-function groupThousands(n: number): string {
-  return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ' ');
-}
-
 /** Parse a sweep CSV into `[frequencyHz, magnitudeDb(, phaseDeg)]` points, strictly increasing in frequency. */
 export function parseSweepCsv(text: string): SweepCsvResult {
   const normalised = normaliseCsvText(text);
@@ -73,7 +72,12 @@ export function parseSweepCsv(text: string): SweepCsvResult {
   const separator = separatorProblem(detectDelimiter(normalised));
   if (separator !== null) return { ok: false, fields: { file: separator } };
 
+  // Far over the cap by a cheap count of lines (header or not): refused before it is parsed.
+  const tooMany = rowCapProblem(countNonBlankLines(normalised) - 1, SWEEP_MAX_POINTS, 'points');
+  if (tooMany !== null) return { ok: false, fields: { file: tooMany } };
+
   const { records, quoteErrorLines } = csvRecords(normalised, ',');
+  if (records.length === 0) return { ok: false, fields: { file: 'the file has no values (only separators): expected frequencyHz,magnitudeDb[,phaseDeg] rows' } };
   let columns: SweepColumn[];
   let data = records;
   if (isHeaderRecord(records[0].cells)) {

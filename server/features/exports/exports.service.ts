@@ -20,8 +20,11 @@ export async function exportUnitReadings(m: EntityManager, clock: Clock, unitId:
   if (!unit) throw notFound('Unit');
   const sets = await m.getRepository(ReadingSet).find({ where: { unitId }, order: { takenAt: 'ASC', id: 'ASC' } });
   const readings = sets.length ? await m.getRepository(Reading).find({ where: { readingSetId: In(sets.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
+  // Readings grouped by set in one pass (not a scan of every reading per set).
+  const bySet = new Map<number, Reading[]>();
+  for (const r of readings) (bySet.get(r.readingSetId) ?? bySet.set(r.readingSetId, []).get(r.readingSetId)!).push(r);
   const sheet = readingsExportSheet(
-    sets.map((s) => ({ id: s.id, kind: s.kind, takenAt: s.takenAt.toISOString(), isReference: s.isReference, eventId: s.eventId, readings: readings.filter((r) => r.readingSetId === s.id) })),
+    sets.map((s) => ({ id: s.id, kind: s.kind, takenAt: s.takenAt.toISOString(), isReference: s.isReference, eventId: s.eventId, readings: bySet.get(s.id) ?? [] })),
     unit.site.timeZone,
   );
   const safeSerial = unit.serial.replace(/[^A-Za-z0-9._-]/g, '_');

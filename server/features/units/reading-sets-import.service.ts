@@ -10,7 +10,9 @@ import { sheetColumnHeaders } from '../../../shared/imports/units-sheet.js';
 import type { ReadingSetsImportAnswer, ReadingSetsImportPreview } from '../../../shared/schemas/responses/units-io.js';
 import { AppError, badRequest } from '../../common/app-error.js';
 import type { Clock } from '../../common/clock.js';
-import { readSheetFile, unitIdsBySerial } from './units-import.service.js';
+import { READING_SET_IMPORT_ROW_LIMIT } from '../../../shared/imports/reading-sets-sheet-fields.js';
+import { UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
+import { readSheetFile, unitIdsBySerial, yieldToEventLoop } from './units-import.service.js';
 import { addUnitReadingSet } from './units.service.js';
 
 // Reading sets of many units from one .xlsx or CSV file (one reading a row): every row checked before anything is
@@ -33,7 +35,8 @@ export async function importReadingSets(
   file: { buffer: Buffer },
   opts: { mapping?: ReadingSetSheetMapping; dryRun?: boolean },
 ): Promise<ReadingSetsImportAnswer | ReadingSetsImportPreview> {
-  const read = await readSheetFile(file, 'A reading-sets import', 'readings');
+  const read = await readSheetFile(file, 'A reading-sets import', 'readings', UPLOAD_TYPES.spreadsheet, READING_SET_IMPORT_ROW_LIMIT, 'readings');
+  await yieldToEventLoop();
   const located = locateReadingSetSheet(read.rows, opts.mapping);
   const result = readReadingSetRows(located, await unitIdsBySerial(m, readingSheetSerials(located)));
   const fields = { ...read.fields, ...result.fields };

@@ -1,8 +1,9 @@
 import ExcelJS from 'exceljs';
 import { In, type EntityManager } from 'typeorm';
 import type { z } from 'zod';
-import { quoteCell } from '../../../shared/imports/csv.js';
-import { parseReadingsCsv, readingRowsToSet } from '../../../shared/imports/readings-csv.js';
+import { countNonBlankLines, normaliseCsvText, quoteCell, rowCapProblem } from '../../../shared/imports/csv.js';
+import { parseReadingsCsv, readingRowsToSet, READINGS_MAX_ROWS } from '../../../shared/imports/readings-csv.js';
+import { UNIT_IMPORT_ROW_LIMIT } from '../../../shared/imports/units-sheet-fields.js';
 import { detectSpreadsheet, looksLikeCsvText } from '../../../shared/imports/sniff.js';
 import {
   columnHeaders,
@@ -55,7 +56,7 @@ function cellText(value: CellValue): string {
 }
 
 /** The worksheet of an .xlsx as rows of cell texts; a merged cell reads as its master cell's value. */
-async function workbookRows(bytes: Buffer, sheetName: string): Promise<{ sheet: string; rows: SheetRow[] }> {
+async function workbookRows(bytes: Buffer, sheetName: string, maxRows: number, what: string): Promise<{ sheet: string; rows: SheetRow[] }> {
   const wb = new ExcelJS.Workbook();
   try {
     await wb.xlsx.load(bytes as unknown as ArrayBuffer);
@@ -65,6 +66,9 @@ async function workbookRows(bytes: Buffer, sheetName: string): Promise<{ sheet: 
   // The sheet of the given name if there is one, else the first.
   const ws = wb.worksheets.find((w) => w.name.trim().toLowerCase() === sheetName) ?? wb.worksheets[0];
   if (!ws) throw new AppError('invalid_file', 'The workbook has no worksheet.', 400, { file: 'the workbook has no worksheet' });
+  // The row cap before any row is read (a header and a few title rows above it are allowed for).
+  const tooMany = rowCapProblem(ws.actualRowCount - 1, maxRows + HEADER_ALLOWANCE, what);
+  if (tooMany !== null) throw rowCapError(tooMany);
   const columns = Math.min(ws.columnCount, MAX_COLUMNS);
   const rows: SheetRow[] = [];
   ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
@@ -87,6 +91,8 @@ export async function readSheetFile(
   what = 'A units import',
   sheetName = 'units',
   type: UploadType = UPLOAD_TYPES.spreadsheet,
+  maxRows: number = UNIT_IMPORT_ROW_LIMIT,
+  rowWord = 'rows',
 ): Promise<{ sheet: string | null; rows: SheetRow[]; fields: Record<string, string>; kind: 'xlsx' | 'csv' }> {
   // The name first (415 naming the file and the types this uploader takes, from the list the picker reads), then the bytes.
   if (typeof file.originalname === 'string') refuseOtherTypes(type, { originalname: file.originalname, mimetype: file.mimetype });
@@ -95,9 +101,26 @@ export async function readSheetFile(
     if (check.tooLarge) throw new AppError('file_too_large', 'The workbook is too large.', 413, { file: check.error });
     throw unsupportedType(`${what} is an .xlsx workbook or a CSV file: ${check.error}.`);
   }
-  if (check.kind === 'xlsx') return { ...(await workbookRows(file.buffer, sheetName)), fields: {}, kind: 'xlsx' };
-  return { sheet: null, ...csvSheetRows(file.buffer.toString('utf8')), kind: 'csv' };
+  if (check.kind === 'xlsx') return { ...(await workbookRows(file.buffer, sheetName, maxRows, rowWord)), fields: {}, kind: 'xlsx' };
+  const text = file.buffer.toString('utf8');
+  // The row cap by a cheap count of lines, before the text is parsed.
+  const tooMany = rowCapProblem(countNonBlankLines(normaliseCsvText(text)) - 1, maxRows + HEADER_ALLOWANCE, rowWord);
+  if (tooMany !== null) throw rowCapError(tooMany);
+  // Parsed after a turn of the event loop, so requests waiting since the upload arrived answer first.
+  await yieldToEventLoop();
+  return { sheet: null, ...csvSheetRows(text), kind: 'csv' };
 }
+
+/** Title rows a sheet may have above its header, on top of the data rows of a row cap. */
+const HEADER_ALLOWANCE = 10;
+
+/** 400 naming `file` for an upload over its row cap ("at most N rows a file; this file has M"). */
+export function rowCapError(problem: string): AppError {
+  return new AppError('invalid_file', `The file is too long; nothing was imported: ${problem}.`, 400, { file: problem });
+}
+
+/** Lets other requests run (health, reads) between the steps of a long import. */
+export const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /** Sheet rows as CSV text, each row on the line of its number (so errors name the sheet's rows). */
 function sheetRowsAsCsv(rows: readonly SheetRow[]): string {
@@ -137,7 +160,7 @@ export async function importUnits(
   file: { buffer: Buffer; originalname: string; mimetype?: string },
   opts: { mapping?: UnitSheetMapping; dryRun?: boolean },
 ): Promise<UnitImportAnswer | UnitImportPreview> {
-  const read = await readSheetFile(file);
+  const read = await readSheetFile(file, 'A units import', 'units', UPLOAD_TYPES.spreadsheet, UNIT_IMPORT_ROW_LIMIT, 'units');
   const located = locateUnitSheet(read.rows, opts.mapping);
   const sites = await m.getRepository(Site).find({ select: { id: true, name: true } });
   const designs = await m.getRepository(Design).find({ select: { id: true, reference: true } });
@@ -187,7 +210,7 @@ export async function importUnitReadingSet(
   let text: string;
   if (fileExtension(utf8Name(file.originalname)) === '.xlsx') {
     // A workbook: its first sheet's rows, each on its own line, read as the readings CSV.
-    const read = await readSheetFile(file, 'A readings import', 'readings', UPLOAD_TYPES.unitReadingSet);
+    const read = await readSheetFile(file, 'A readings import', 'readings', UPLOAD_TYPES.unitReadingSet, READINGS_MAX_ROWS, 'readings');
     text = sheetRowsAsCsv(read.rows);
   } else {
     if (!looksLikeCsvText(new Uint8Array(file.buffer))) {
