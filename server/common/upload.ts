@@ -15,16 +15,48 @@ export const UPLOAD_LIMITS = {
   unitSheetUnpackedBytes: 64 * 1024 * 1024,
 } as const;
 
-// One file in memory under `file`; oversize → 413 (error middleware), no file → 400 naming the field.
+// One file in memory under `file`; oversize → 413, no file → 400 naming the field; a body the multipart parser cannot
+// read (cut off half-way, no boundary, a malformed part header), a second file or a file under another field name →
+// 400 `invalid_upload` naming `file`, never a 500.
 export function singleFile(maxBytes: number): RequestHandler[] {
   const mw = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 20, fieldSize: 64 * 1024 } }).single('file');
   return [
-    mw,
+    (req, res, next) => mw(req, res, (err?: unknown) => next(err === undefined || err === null ? undefined : uploadError(err, maxBytes))),
     (req, _res, next) => {
       if (!req.file) return next(new AppError('invalid_input', 'Attach a file in the field "file".', 400, { file: 'required' }));
       next();
     },
   ];
+}
+
+const MULTER_MESSAGES: Partial<Record<multer.ErrorCode, string>> = {
+  LIMIT_FILE_COUNT: 'send one file only, in the field "file"',
+  LIMIT_UNEXPECTED_FILE: 'send the file in the field "file" (and only one file)',
+  LIMIT_PART_COUNT: 'too many parts in the form',
+  LIMIT_FIELD_KEY: 'a field name is too long',
+  LIMIT_FIELD_VALUE: 'a field value is too long',
+  LIMIT_FIELD_COUNT: 'too many fields in the form',
+};
+
+/** What the multipart parser (multer, busboy) raised, as the API's error: 413 for a file too large, else 400 naming `file`. */
+export function uploadError(err: unknown, maxBytes: number): AppError {
+  if (err instanceof AppError) return err;
+  if (err instanceof multer.MulterError) {
+    if (err.code === 'LIMIT_FILE_SIZE') {
+      const limit = `at most ${(maxBytes / (1024 * 1024)).toFixed(maxBytes % (1024 * 1024) === 0 ? 0 : 1)} MiB`;
+      return new AppError('file_too_large', `The file is larger than the upload limit (${limit}).`, 413, { file: `too large: ${limit}` });
+    }
+    const message = MULTER_MESSAGES[err.code] ?? err.message;
+    return new AppError('invalid_upload', `Upload rejected: ${message}.`, 400, { file: message });
+  }
+  // busboy: "Unexpected end of form", "Multipart: Boundary not found", "Malformed part header", …
+  const raw = err instanceof Error ? err.message : String(err);
+  const message = /boundary/i.test(raw)
+    ? 'the multipart body has no boundary: send the file as multipart/form-data in the field "file"'
+    : /end of form/i.test(raw)
+      ? 'the upload was cut off before its end: send the file again'
+      : `the multipart body cannot be read (${raw.slice(0, 120)})`;
+  return new AppError('invalid_upload', `Upload rejected: ${message}.`, 400, { file: message });
 }
 
 /** The lower-case extension of a file name, with its dot ('.csv'), or ''. */
