@@ -15,7 +15,7 @@ export const UPLOAD_LIMITS = {
   unitSheetUnpackedBytes: 64 * 1024 * 1024,
 } as const;
 
-// One file in memory under `file`; oversize → 413, no file → 400 naming the field; a body the multipart parser cannot
+// One file in memory under `file`; oversize → 413, no file or an empty one → 400 naming the field; a body the multipart parser cannot
 // read (cut off half-way, no boundary, a malformed part header), a second file or a file under another field name →
 // 400 `invalid_upload` naming `file`, never a 500.
 export function singleFile(maxBytes: number): RequestHandler[] {
@@ -24,6 +24,7 @@ export function singleFile(maxBytes: number): RequestHandler[] {
     (req, res, next) => mw(req, res, (err?: unknown) => next(err === undefined || err === null ? undefined : uploadError(err, maxBytes))),
     (req, _res, next) => {
       if (!req.file) return next(new AppError('invalid_input', 'Attach a file in the field "file".', 400, { file: 'required' }));
+      if (req.file.size === 0) return next(new AppError('invalid_input', 'The file is empty; nothing was saved.', 400, { file: 'the file is empty' }));
       next();
     },
   ];
