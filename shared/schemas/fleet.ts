@@ -1,13 +1,10 @@
 import { z } from 'zod';
 import {
-  bushingSchema,
-  capacitanceModeSchema,
   conductorSchema,
   currentIsSchema,
   faultSideSchema,
   faultTypeSchema,
   protectionSchema,
-  reactancePhaseSchema,
   readingSetSchema,
   shotSchema,
   sweepPhaseSchema,
@@ -15,6 +12,7 @@ import {
   sweepWindingSchema,
   windingsSchema,
 } from './case.js';
+import { dateInRange, keyedBy, listOf, quantity } from './bounds.js';
 import { validLocale } from '../format.js';
 import { parseDateOrInstant } from '../lists.js';
 import { ROW_KEYS } from '../readings/rows.js';
@@ -24,17 +22,16 @@ export { UNIT_SORTS };
 // Request bodies of the fleet, reading and event routes (api.md), shared by server validation and client forms.
 
 const finite = z.number().finite();
-const isoDateTime = z
-  .string()
-  .min(1, 'required')
-  .refine((s) => !Number.isNaN(Date.parse(s)), { message: 'not an ISO 8601 date or date-time' });
+/** An event or test date: ISO 8601, a real day, 1900-01-01 … a day after now (shared/schemas/bounds.ts). */
+const isoDateTime = dateInRange();
 const idSchema = z.number().int().positive('not a valid id');
 
-export const siteBodySchema = z.object({
+export const siteBodySchema = z.strictObject({
   name: z.string().trim().min(1, 'required').max(120),
   timeZone: z
     .string()
     .min(1, 'required')
+    .max(64, 'at most 64 characters')
     .refine(
       (tz) => {
         try {
@@ -75,17 +72,17 @@ const designFields = {
   windings: windingsSchema,
   vectorGroup: z.string().trim().min(1, 'required').max(20),
   phases: z.union([z.literal(1), z.literal(3)]),
-  hvKV: finite.positive(),
-  lvKV: finite.positive(),
-  tvKV: finite.positive().nullable().optional(),
-  coolingStages: z.array(z.object({ stage: z.string().trim().min(1).max(20), kVA: finite.positive() })).min(1, 'at least one cooling stage'),
-  impedancePercent: finite.positive().max(100),
-  impedanceBaseKVA: finite.positive(),
+  hvKV: quantity('kV'),
+  lvKV: quantity('kV'),
+  tvKV: quantity('kV').nullable().optional(),
+  coolingStages: listOf(z.strictObject({ stage: z.string().trim().min(1).max(20), kVA: quantity('kVA') }), 'coolingStages', 'cooling stages').min(1, 'at least one cooling stage'),
+  impedancePercent: quantity('impedancePercent'),
+  impedanceBaseKVA: quantity('kVA'),
   conductor: conductorSchema,
-  requiredCapacitance: z.array(z.string().trim().regex(/^[A-Za-z]{1,10}$/, 'letters only, e.g. CHL')),
+  requiredCapacitance: listOf(z.string().trim().regex(/^[A-Za-z]{1,10}$/, 'letters only, e.g. CHL'), 'configurations'),
   notes: z.string().max(5000).nullable().optional(),
 };
-export const designBodySchema = z.object({
+export const designBodySchema = z.strictObject({
   ...designFields,
   windings: designFields.windings.default('two-winding'),
   phases: designFields.phases.default(3),
@@ -93,7 +90,7 @@ export const designBodySchema = z.object({
   requiredCapacitance: designFields.requiredCapacitance.default([]),
 });
 /** PATCH /api/designs/:designId — only the fields sent change: no create defaults (zod's `.partial()` keeps them). */
-export const designPatchSchema = z.object(designFields).partial();
+export const designPatchSchema = z.strictObject(designFields).partial();
 
 /** A unit's fields without create defaults: the patch schema is built from these, so an absent field stays absent. */
 const unitFields = {
@@ -103,20 +100,20 @@ const unitFields = {
   designId: idSchema,
   year: z.number().int().min(1900).max(2100).nullable().optional(),
   phases: z.union([z.literal(1), z.literal(3)]).optional(),
-  hvKV: finite.positive().optional(),
-  lvKV: finite.positive().optional(),
-  ratedKVA: finite.positive().optional(),
-  impedancePercent: finite.positive().max(100).optional(),
-  systemImpedancePercent: finite.nonnegative().max(100),
+  hvKV: quantity('kV').optional(),
+  lvKV: quantity('kV').optional(),
+  ratedKVA: quantity('kVA').optional(),
+  impedancePercent: quantity('impedancePercent').optional(),
+  systemImpedancePercent: quantity('systemImpedancePercent'),
   conductor: conductorSchema.optional(),
 };
-export const unitBodySchema = z.object({
+export const unitBodySchema = z.strictObject({
   ...unitFields,
   position: unitFields.position.default(''),
   systemImpedancePercent: unitFields.systemImpedancePercent.default(0),
 });
 /** PATCH /api/units/:unitId — only the fields sent change: no create defaults (zod's `.partial()` keeps them). */
-export const unitPatchSchema = z.object(unitFields).partial();
+export const unitPatchSchema = z.strictObject(unitFields).partial();
 
 export const unitListQuerySchema = z.object({
   q: z.string().trim().max(60).optional(),
@@ -137,42 +134,32 @@ const sessionConditions = {
   humidityPercent: finite.min(0).max(100).optional(),
   instrument: z.string().max(120).optional(),
   instrumentSerial: z.string().max(60).optional(),
-  testKV: finite.positive().optional(),
-  testFrequencyHz: finite.positive().optional(),
+  testKV: quantity('testKV').optional(),
+  testFrequencyHz: quantity('testFrequencyHz').optional(),
   /** The older spelling of the case format's `hoursDeEnergised` (still accepted; give one of the two). */
-  hoursDeenergised: finite.nonnegative().optional(),
+  hoursDeenergised: quantity('hours').optional(),
   notes: z.string().max(5000).optional(),
 };
 
-/**
- * A keyed section of a reading-set body: labels fit the reading rows' columns (a configuration, gas or bushing terminal
- * 20 characters, a phase 8), so a long label is a 400 naming it, not a database error.
- */
-function keyed<T extends z.ZodType>(values: T, maxKey: number, what: string) {
-  return z.record(z.string().min(1).max(maxKey), values, {
-    error: (issue) => (issue.code === 'invalid_key' ? `a ${what} label of 1 to ${maxKey} characters` : undefined),
-  });
-}
-const positiveValue = finite.positive();
-const nonNegativeValue = finite.nonnegative();
-
-/** The case format's reading-set sections as the API takes them (same shapes, labels bounded, values checked). */
+/** The case format's reading-set sections as the API takes them: the case's own bounded shapes (labels fit the reading
+ * rows' columns: a configuration, gas or bushing terminal 20 characters, a phase 8; values in their physical ranges). */
+const caseSections = readingSetSchema.shape;
 const readingSections = {
-  capacitancePF: keyed(positiveValue, 20, 'configuration').optional(),
-  capacitanceModes: keyed(capacitanceModeSchema, 20, 'configuration').optional(),
-  dissipationPercent: keyed(nonNegativeValue, 20, 'configuration').optional(),
-  reactance: keyed(reactancePhaseSchema, 8, 'phase').optional(),
-  excitationCurrentMA: keyed(positiveValue, 8, 'phase').optional(),
-  excitationKV: positiveValue.optional(),
-  windingResistanceOhm: keyed(positiveValue, 8, 'phase').optional(),
-  resistanceTemperatureC: finite.min(-60).max(250).optional(),
-  turnsRatio: keyed(positiveValue, 8, 'phase').optional(),
+  capacitancePF: caseSections.capacitancePF,
+  capacitanceModes: caseSections.capacitanceModes,
+  dissipationPercent: caseSections.dissipationPercent,
+  reactance: caseSections.reactance,
+  excitationCurrentMA: caseSections.excitationCurrentMA,
+  excitationKV: caseSections.excitationKV,
+  windingResistanceOhm: caseSections.windingResistanceOhm,
+  resistanceTemperatureC: caseSections.resistanceTemperatureC,
+  turnsRatio: caseSections.turnsRatio,
   /** Gases in ppm: H2, CH4, C2H6, C2H4, C2H2, CO, CO2 (others, such as O2 and N2, are kept too). */
-  dissolvedGasPPM: keyed(nonNegativeValue, 20, 'gas').optional(),
-  dissipationByFrequency: keyed(z.array(z.tuple([positiveValue, nonNegativeValue])), 20, 'configuration').optional(),
-  bushings: keyed(bushingSchema, 20, 'bushing terminal').optional(),
-  demagnetised: z.boolean().optional(),
-  hoursDeEnergised: nonNegativeValue.optional(),
+  dissolvedGasPPM: keyedBy(quantity('gasPPM'), 20, 'gases', 'gas').optional(),
+  dissipationByFrequency: caseSections.dissipationByFrequency,
+  bushings: caseSections.bushings,
+  demagnetised: caseSections.demagnetised,
+  hoursDeEnergised: caseSections.hoursDeEnergised,
   windingTemperatureC: finite.min(-60, 'must be -60 or more (°C)').max(250, 'must be 250 or less (°C: check the unit)').optional(),
 };
 
@@ -204,9 +191,9 @@ export type ReadingSetBody = z.infer<typeof readingSetBodySchema>;
  * The unit's pre-fault dissolved-gas sample, entered with a post-fault session: stored as a routine reading set of the
  * unit dated at its sampling time (before the fault), so that the case's `previous` carries it.
  */
-export const preFaultGasSchema = z.object({
+export const preFaultGasSchema = z.strictObject({
   takenAt: isoDateTime,
-  dissolvedGasPPM: keyed(nonNegativeValue, 20, 'gas').refine((g) => Object.keys(g).length > 0, { message: 'at least one gas (H2, CH4, C2H6, C2H4, C2H2, CO, CO2) in ppm' }),
+  dissolvedGasPPM: readingSections.dissolvedGasPPM.unwrap().refine((g) => Object.keys(g).length > 0, { message: 'at least one gas (H2, CH4, C2H6, C2H4, C2H2, CO, CO2) in ppm' }),
 });
 export type PreFaultGas = z.infer<typeof preFaultGasSchema>;
 
@@ -227,7 +214,7 @@ export const sessionPatchSchema = z
   .strictObject({
     takenAt: isoDateTime.optional(),
     temperatureC: clearable(readingSetSchema.shape.temperatureC.unwrap()),
-    tapPosition: clearable(z.union([z.string().trim().min(1).max(20, 'at most 20 characters'), finite])),
+    tapPosition: clearable(z.union([z.string().trim().min(1).max(20, 'at most 20 characters'), quantity('tapNumber')])),
     topOilC: clearable(sessionConditions.topOilC.unwrap()),
     bottomOilC: clearable(sessionConditions.bottomOilC.unwrap()),
     ambientC: clearable(sessionConditions.ambientC.unwrap()),
@@ -267,13 +254,16 @@ const eventFacts = {
   /** What the shots' currents are (rules revision 2): `line` (default) or `winding`. */
   currentIs: currentIsSchema,
   faultedPhases: z.string().trim().regex(/^[ABCN]{1,4}$/, 'phases like A, BC or ABC'),
-  shots: z.array(shotSchema.pick({ currentKA: true, durationS: true }).extend({ currentKA: finite.positive().max(500, 'above 500 kA: check the unit'), durationS: finite.positive().max(60, 'above 60 s: check the unit') })).min(1, 'at least one shot'),
+  shots: listOf(
+    shotSchema.extend({ currentKA: finite.positive().max(500, 'above 500 kA: check the unit'), durationS: finite.positive().max(60, 'above 60 s: check the unit') }),
+    'shots',
+  ).min(1, 'at least one shot'),
   transformerTripped: z.boolean(),
-  protectionOperated: z.array(protectionSchema),
+  protectionOperated: listOf(protectionSchema, 'protections'),
   notes: z.string().max(5000),
 };
 
-export const eventBodySchema = z.object({
+export const eventBodySchema = z.strictObject({
   unitId: idSchema,
   occurredAt: eventFacts.occurredAt,
   type: eventFacts.type,
@@ -368,7 +358,7 @@ export const followUpListQuerySchema = z.object({
 });
 export type FollowUpListQuery = z.infer<typeof followUpListQuerySchema>;
 
-export const sweepUploadFieldsSchema = z.object({
+export const sweepUploadFieldsSchema = z.strictObject({
   label: z.string().trim().min(1, 'required').max(60),
   testType: sweepTestTypeSchema,
   terminals: z.string().trim().max(60).optional(),

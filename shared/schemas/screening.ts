@@ -1,10 +1,11 @@
 import { z } from 'zod';
 import { FOLLOW_UPS } from '../screening/verdict.js';
+import { dateInRange, LIST_MAX, plannedDate } from './bounds.js';
 import { DECISION_OUTCOMES, FINDING_CLASSIFICATIONS, type DecisionOutcome, type Recommendation } from './enums.js';
 
 // Bodies of the screening, decision, follow-up and finding routes, and the decision rules both sides apply.
 
-export const screeningRunBodySchema = z.object({
+export const screeningRunBodySchema = z.strictObject({
   criteriaVersion: z.number().int().positive('not a criteria-set version').optional(),
   comparison: z.boolean().default(false),
 });
@@ -21,21 +22,18 @@ export function decisionGoesAgainst(recommendation: Recommendation, outcome: Dec
   return outcome !== 'hold';
 }
 
-export const followUpInputSchema = z.object({
+export const followUpInputSchema = z.strictObject({
   task: z.string().trim().min(1, 'required').max(300),
-  dueAt: z
-    .string()
-    .refine((s) => !Number.isNaN(Date.parse(s)), { message: 'not an ISO 8601 date-time' })
-    .nullable()
-    .optional(),
+  /** A planned date: a real one, at most 100 years ahead (the database's dates end in 9999). */
+  dueAt: plannedDate().nullable().optional(),
 });
 
 export const decisionBodySchema = z
-  .object({
+  .strictObject({
     outcome: z.enum(DECISION_OUTCOMES),
     reason: z.string().trim().min(1, 'required').max(5000),
     restrictions: z.string().trim().max(5000).optional(),
-    followUps: z.array(followUpInputSchema).max(20).optional(),
+    followUps: z.array(followUpInputSchema).max(LIST_MAX.followUps, `at most ${LIST_MAX.followUps} follow-ups`).optional(),
   })
   .superRefine((v, ctx) => {
     if (v.outcome === 'release-with-restrictions' && !v.restrictions) {
@@ -45,16 +43,16 @@ export const decisionBodySchema = z
 export type DecisionBody = z.infer<typeof decisionBodySchema>;
 
 /** POST /api/events/:eventId/energised — when the released unit was re-energised. */
-export const energisedBodySchema = z.object({
-  at: z.string().min(1, 'required').refine((s) => !Number.isNaN(Date.parse(s)), { message: 'not an ISO 8601 date-time' }),
+export const energisedBodySchema = z.strictObject({
+  at: dateInRange({ formatMessage: 'not an ISO 8601 date-time' }),
 });
 
 /** POST /api/events/:eventId/restrictions/lift — why the restrictions no longer apply. */
-export const liftRestrictionsBodySchema = z.object({ reason: z.string().trim().min(1, 'required').max(5000) });
+export const liftRestrictionsBodySchema = z.strictObject({ reason: z.string().trim().min(1, 'required').max(5000) });
 
-export const followUpCloseSchema = z.object({ result: z.string().trim().min(1, 'required').max(5000) });
+export const followUpCloseSchema = z.strictObject({ result: z.string().trim().min(1, 'required').max(5000) });
 
-export const findingBodySchema = z.object({
+export const findingBodySchema = z.strictObject({
   classification: z.enum(FINDING_CLASSIFICATIONS),
   text: z.string().trim().min(1, 'required').max(10000),
 });

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { READING_SET_SHEET_FIELDS } from '../imports/reading-sets-sheet-fields.js';
 import { UNIT_SHEET_FIELDS, type UnitSheetField } from '../imports/units-sheet-fields.js';
+import { dateInRange } from './bounds.js';
 import { UNIT_READING_SET_KINDS } from './enums.js';
 import { unitListQuerySchema } from './fleet.js';
 
@@ -51,13 +52,13 @@ const dryRunField = z
   .transform((v) => v === 'true')
   .optional();
 
-export const unitImportFieldsSchema = z.object({
+export const unitImportFieldsSchema = z.strictObject({
   mapping: mappingField<UnitSheetField>(UNIT_SHEET_FIELDS, 'unit'),
   dryRun: dryRunField,
 });
 
 /** POST /api/units/reading-sets/import — `mapping` over the reading-sets sheet's fields, and `dryRun`. */
-export const readingSetsImportFieldsSchema = z.object({
+export const readingSetsImportFieldsSchema = z.strictObject({
   mapping: mappingField(READING_SET_SHEET_FIELDS, 'reading-sets sheet'),
   dryRun: dryRunField,
 });
@@ -66,12 +67,9 @@ export const readingSetsImportFieldsSchema = z.object({
  * POST /api/units/:unitId/reading-sets/import — the multipart fields beside `file` (a readings CSV, the format of
  * POST /api/sessions/:id/imports): the set's kind, when it was taken, and a few conditions.
  */
-export const unitReadingSetImportFieldsSchema = z.object({
+export const unitReadingSetImportFieldsSchema = z.strictObject({
   kind: z.enum(UNIT_READING_SET_KINDS, { message: UNIT_READING_SET_KINDS.join(', ') }),
-  takenAt: z
-    .string()
-    .min(1, 'required')
-    .refine((s) => !Number.isNaN(Date.parse(s)), { message: 'not an ISO 8601 date or date-time' }),
+  takenAt: dateInRange(),
   isReference: z.enum(['true', 'false'], { message: 'true or false' }).transform((v) => v === 'true').optional(),
   tapPosition: z.string().trim().max(20, 'at most 20 characters').optional(),
   instrument: z.string().max(120).optional(),

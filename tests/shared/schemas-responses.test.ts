@@ -69,12 +69,11 @@ describe('answers of the fleet routes', () => {
     expect(bad({ designId: 2.5 })).toEqual(['designId']);
   });
 
-  it('rejects a key added deep inside the unit file (the site of the unit), but keeps the case format’s open values', () => {
+  it('rejects a key added deep inside the unit file (the site of the unit) and inside the case format’s values', () => {
     const unit = unitDetail();
     expect(unitDetailSchema.safeParse({ ...unit, site: { ...unit.site, region: 'North' } }).error?.issues[0].path).toEqual(['site']);
-    unit.readingSets[0].values = { ...unit.readingSets[0].values, operatorNote: 'kept' };
-    const parsed = unitDetailSchema.parse(unit);
-    expect((parsed.readingSets[0].values as Record<string, unknown>).operatorNote).toBe('kept');
+    unit.readingSets[0].values = { ...unit.readingSets[0].values, operatorNote: 'not in the format' };
+    expect(unitDetailSchema.safeParse(unit).error?.issues[0].path).toEqual(['readingSets', 0, 'values']);
   });
 });
 

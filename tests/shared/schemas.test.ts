@@ -1,14 +1,15 @@
-// Case and criteria schemas: field paths in errors, extras allowed, criteria JSON round trip.
+// Case and criteria schemas: field paths in errors, unknown fields refused, criteria JSON round trip.
 import { describe, expect, it } from 'vitest';
 import { parseCase, readingSetSchema, shotSchema } from '../../shared/schemas/case.js';
 import { criteriaSchema, criteriaV1 } from '../../shared/screening/index.js';
 import { cleanCase } from './case-builder.js';
 
 describe('parseCase', () => {
-  it('accepts a valid case and keeps unknown optional fields', () => {
+  it('accepts a valid case and refuses a field the format does not name, at any level, naming it', () => {
+    expect(parseCase(cleanCase()).ok).toBe(true);
     const parsed = parseCase({ ...cleanCase(), note: 'extra', unit: { ...cleanCase().unit, siteName: 'Harrow Cross' } });
-    expect(parsed.ok).toBe(true);
-    if (parsed.ok) expect((parsed.value.unit as Record<string, unknown>).siteName).toBe('Harrow Cross');
+    expect(parsed.ok).toBe(false);
+    if (!parsed.ok) expect(parsed.errors).toEqual(expect.arrayContaining([{ path: 'note', message: 'unknown field' }, { path: 'unit.siteName', message: 'unknown field' }]));
   });
 
   it('names every bad field by its dotted path', () => {
