@@ -160,7 +160,9 @@ export function dateProblem(text: string, latestMs: number): DateProblem | null 
   const m = ISO.exec(text.trim());
   if (!m) return 'format';
   const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
-  const day = new Date(Date.UTC(y, mo - 1, d));
+  // setUTCFullYear, not Date.UTC: Date.UTC reads years 0–99 as 1900–1999.
+  const day = new Date(Date.UTC(2000, mo - 1, d));
+  day.setUTCFullYear(y, mo - 1, d);
   if (day.getUTCFullYear() !== y || day.getUTCMonth() !== mo - 1 || day.getUTCDate() !== d) return 'not-real';
   if (m[4] !== undefined && (Number(m[4]) > 23 || Number(m[5]) > 59 || Number(m[6] ?? 0) > 59)) return 'not-real';
   const t = Date.parse(text.trim().replace(' ', 'T'));
