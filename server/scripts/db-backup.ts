@@ -28,7 +28,7 @@ export type DbTarget =
   | { kind: 'tcp'; host: string; port: number; user: string; password: string; what: string };
 
 /** The private server's admin account over its socket (the OS user, no password). */
-export function adminTarget(p: Pick<MariaDbPaths, 'socket'>): DbTarget {
+export function adminTarget(p: Pick<MariaDbPaths, 'socket'>): Extract<DbTarget, { kind: 'socket' }> {
   return { kind: 'socket', socket: p.socket, user: os.userInfo().username, what: `the private MariaDB (admin over ${p.socket})` };
 }
 
