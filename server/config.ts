@@ -15,6 +15,10 @@ const envSchema = z.object({
   DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, 'letters, digits and _ only').default('gapsight'),
   DB_USER: z.string().default('gapsight'),
   DB_PASSWORD: z.string().optional(),
+  // The migrator account: owns the schema (migrations only); the app's DB_USER gets row rights only. Default <DB_USER>_owner,
+  // password DB_OWNER_PASSWORD or DATA_DIR/db-owner-password (written by the provisioning).
+  DB_OWNER_USER: z.string().regex(/^[A-Za-z0-9_]+$/, 'letters, digits and _ only').optional(),
+  DB_OWNER_PASSWORD: z.string().optional(),
   JWT_SECRET: z.string().optional(),
   JWT_EXPIRES_IN: z.string().regex(/^\d+[smhd]$/, 'a number followed by s, m, h or d (e.g. 8h)').default('8h'),
   DEMO: z.enum(['on', 'off']).default('on'),
@@ -31,7 +35,7 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 
-export type Config = z.infer<typeof envSchema> & { dataDir: string; dbPassword: string; jwtSecret: string };
+export type Config = z.infer<typeof envSchema> & { dataDir: string; dbPassword: string; dbOwnerUser: string; dbOwnerPassword: string; jwtSecret: string };
 
 /** Reads a secret kept in the data folder (created by the provisioning script), or '' when absent. */
 export function readDataSecret(dataDir: string, name: string): string {
@@ -76,6 +80,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, opts: { require
     ...c,
     dataDir,
     dbPassword: c.DB_PASSWORD || readDataSecret(dataDir, 'db-password'),
+    dbOwnerUser: c.DB_OWNER_USER || `${c.DB_USER}_owner`,
+    dbOwnerPassword: c.DB_OWNER_PASSWORD || readDataSecret(dataDir, 'db-owner-password'),
     jwtSecret,
   };
 }

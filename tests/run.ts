@@ -108,13 +108,17 @@ async function main(): Promise<number> {
   paths = mariaDbPaths(path.join(tmp, 'db'), dbPort);
   await startMariaDb(paths, { bufferPoolMB: 128 });
   const dbPassword = randomBytes(12).toString('hex');
-  ensureDatabaseAndUser(paths, 'gapsight_test', 'gapsight', dbPassword);
+  // Two accounts, as `npm start` makes them: the migrator (gapsight_owner: the schema) and the app (gapsight: rows only).
+  const owner = { user: 'gapsight_owner', password: randomBytes(12).toString('hex') };
+  ensureDatabaseAndUser(paths, 'gapsight_test', 'gapsight', dbPassword, owner);
   // A second, empty database for tests that need a database of their own (the demo seed at a fixed date).
-  ensureDatabaseAndUser(paths, 'gapsight_fixed', 'gapsight', dbPassword);
+  ensureDatabaseAndUser(paths, 'gapsight_fixed', 'gapsight', dbPassword, owner);
   // The browser tests' own database (their app server runs a mail worker and walks the demo flow).
-  ensureDatabaseAndUser(paths, 'gapsight_e2e', 'gapsight', dbPassword);
+  ensureDatabaseAndUser(paths, 'gapsight_e2e', 'gapsight', dbPassword, owner);
   // An empty database (migrated, nothing seeded) for the browser test that onboards a utility from DEMO=off.
-  ensureDatabaseAndUser(paths, 'gapsight_e2e_empty', 'gapsight', dbPassword);
+  ensureDatabaseAndUser(paths, 'gapsight_e2e_empty', 'gapsight', dbPassword, owner);
+  // An audit trail of its own for the tests that tamper with it (tests/server/ops/audit-chain.test.ts).
+  ensureDatabaseAndUser(paths, 'gapsight_audit', 'gapsight', dbPassword, owner);
   console.log(`✓ MariaDB on 127.0.0.1:${dbPort} (datadir ${paths.datadir})`);
 
   Object.assign(process.env, {
@@ -126,6 +130,9 @@ async function main(): Promise<number> {
     TEST_DB_NAME_EMPTY: 'gapsight_e2e_empty',
     DB_USER: 'gapsight',
     DB_PASSWORD: dbPassword,
+    DB_OWNER_USER: owner.user,
+    DB_OWNER_PASSWORD: owner.password,
+    TEST_DB_NAME_AUDIT: 'gapsight_audit',
     JWT_SECRET: randomBytes(32).toString('hex'),
     DEMO: 'on',
     PORT: '0',
@@ -138,17 +145,11 @@ async function main(): Promise<number> {
   delete process.env.SMTP_HOST;
 
   step('Migrations');
-  const { default: db } = await import('../server/db/data-source.js');
-  await db.initialize();
-  const ran = await db.runMigrations({ transaction: 'each' });
-  await db.destroy();
-  const { DataSource } = await import('typeorm');
-  for (const database of ['gapsight_e2e', 'gapsight_e2e_empty']) {
-    const e2eDb = new DataSource({ ...db.options, database } as typeof db.options);
-    await e2eDb.initialize();
-    await e2eDb.runMigrations({ transaction: 'each' });
-    await e2eDb.destroy();
-  }
+  // As the migrator, which then gives the app account its table rights (as npm start does).
+  const { loadConfig } = await import('../server/config.js');
+  const { migrateAsOwner } = await import('../server/scripts/prepare.js');
+  const ran = await migrateAsOwner(loadConfig());
+  for (const database of ['gapsight_e2e', 'gapsight_e2e_empty']) await migrateAsOwner({ ...loadConfig(), DB_NAME: database });
   console.log(`✓ ${ran.length} migration(s) applied (test and browser-test databases)`);
 
   if (!process.env.SKIP_E2E_BUILD) {

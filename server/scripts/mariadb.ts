@@ -263,21 +263,74 @@ export function adminSql(p: MariaDbPaths, sql: string): string {
 
 const quoteString = (s: string) => `'${s.replace(/\\/g, '\\\\').replace(/'/g, "\\'")}'`;
 
-/** Creates the database and the app user (password from the data folder, generated once). Returns the password. */
-export function ensureDatabaseAndUser(p: MariaDbPaths, dbName: string, user: string, password?: string): string {
-  if (!/^[A-Za-z0-9_]+$/.test(dbName) || !/^[A-Za-z0-9_]+$/.test(user)) throw new ProvisionError('DB_NAME and DB_USER: letters, digits and _ only');
+/**
+ * Creates the database and its two accounts (passwords from the data folder, generated once, unless given):
+ * - the migrator, `<user>_owner` (or owner.user): ALL on the database WITH GRANT OPTION; runs the migrations and then
+ *   gives the app its rights (applyAppGrants); password in DATA_DIR/db-owner-password;
+ * - the app, `user`: row rights on each table only (appGrantStatements), never on the schema; password in
+ *   DATA_DIR/db-password. A database-wide grant from an earlier provisioning is taken back.
+ * Returns the app account's password.
+ */
+export function ensureDatabaseAndUser(p: MariaDbPaths, dbName: string, user: string, password?: string, owner: { user?: string; password?: string } = {}): string {
+  const ownerUser = owner.user || `${user}_owner`;
+  if (!/^[A-Za-z0-9_]+$/.test(dbName) || !/^[A-Za-z0-9_]+$/.test(user) || !/^[A-Za-z0-9_]+$/.test(ownerUser)) {
+    throw new ProvisionError('DB_NAME, DB_USER and DB_OWNER_USER: letters, digits and _ only');
+  }
+  if (ownerUser === user) throw new ProvisionError('DB_OWNER_USER must differ from DB_USER');
   const pw = password || ensureSecretFile(p.baseDir, 'db-password');
+  const ownerPw = owner.password || ensureSecretFile(p.baseDir, 'db-owner-password');
   adminSql(
     p,
     [
       `CREATE DATABASE IF NOT EXISTS \`${dbName}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
+      `CREATE USER IF NOT EXISTS '${ownerUser}'@'127.0.0.1' IDENTIFIED BY ${quoteString(ownerPw)}`,
+      `ALTER USER '${ownerUser}'@'127.0.0.1' IDENTIFIED BY ${quoteString(ownerPw)}`,
+      `GRANT ALL PRIVILEGES ON \`${dbName}\`.* TO '${ownerUser}'@'127.0.0.1' WITH GRANT OPTION`,
       `CREATE USER IF NOT EXISTS '${user}'@'127.0.0.1' IDENTIFIED BY ${quoteString(pw)}`,
       `ALTER USER '${user}'@'127.0.0.1' IDENTIFIED BY ${quoteString(pw)}`,
-      `GRANT ALL PRIVILEGES ON \`${dbName}\`.* TO '${user}'@'127.0.0.1'`,
-      'FLUSH PRIVILEGES',
     ].join(';\n'),
   );
+  const tables = adminSql(p, `SELECT TABLE_NAME FROM information_schema.TABLES WHERE TABLE_SCHEMA = ${quoteString(dbName)} AND TABLE_TYPE = 'BASE TABLE'`)
+    .split('\n')
+    .map((l) => l.trim())
+    .filter(Boolean);
+  adminSql(p, [...appGrantStatements(dbName, user, tables), 'FLUSH PRIVILEGES'].join(';\n'));
   return pw;
+}
+
+/** The app account's rights where they are not SELECT, INSERT, UPDATE, DELETE: the audit trail is append-only. */
+export const APP_TABLE_RIGHTS: Readonly<Record<string, { grant: string; revoke: string }>> = {
+  audit_entry: { grant: 'SELECT, INSERT', revoke: 'UPDATE, DELETE' },
+  migrations: { grant: 'SELECT', revoke: 'INSERT, UPDATE, DELETE' },
+};
+
+/**
+ * The statements that give the app account (user@host) its rights on the given tables of dbName, table by table:
+ * SELECT, INSERT, UPDATE, DELETE, but only SELECT and INSERT on audit_entry and only SELECT on the migrations' log;
+ * then any database-wide right is taken back (the GRANT before the REVOKE makes sure there is one to take back).
+ * Run by the migrator (or the admin) after every migration run: new tables need their grants.
+ */
+export function appGrantStatements(dbName: string, user: string, tables: readonly string[], host = '127.0.0.1'): string[] {
+  const who = `'${user}'@'${host}'`;
+  const out: string[] = [];
+  for (const t of tables) {
+    if (!/^[A-Za-z0-9_]+$/.test(t)) continue;
+    const target = `\`${dbName}\`.\`${t}\``;
+    const special = APP_TABLE_RIGHTS[t];
+    if (!special) out.push(`GRANT SELECT, INSERT, UPDATE, DELETE ON ${target} TO ${who}`);
+    else out.push(`GRANT ${special.grant} ON ${target} TO ${who}`, `REVOKE ${special.revoke} ON ${target} FROM ${who}`);
+  }
+  out.push(`GRANT SELECT ON \`${dbName}\`.* TO ${who}`, `REVOKE ALL PRIVILEGES ON \`${dbName}\`.* FROM ${who}`);
+  return out;
+}
+
+/**
+ * Gives the app account its table rights on every table of the database, through a connection with GRANT OPTION on it
+ * (the migrator's). Called after every migration run (server/scripts/prepare.ts).
+ */
+export async function applyAppGrants(query: (sql: string, params?: unknown[]) => Promise<unknown>, dbName: string, user: string, host = '127.0.0.1'): Promise<void> {
+  const rows = (await query("SELECT TABLE_NAME AS name FROM information_schema.TABLES WHERE TABLE_SCHEMA = ? AND TABLE_TYPE = 'BASE TABLE'", [dbName])) as { name: string }[];
+  for (const sql of appGrantStatements(dbName, user, rows.map((r) => r.name), host)) await query(sql);
 }
 
 /** A random secret kept in a 0600 file of the data folder, created on first use. */

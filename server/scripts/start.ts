@@ -19,7 +19,7 @@ async function main(): Promise<void> {
   console.log(`Data folder: ${settings.dataDir}`);
   const db0 = await startMariaDb(p);
   console.log(db0.alreadyRunning ? `MariaDB: already running on 127.0.0.1:${p.port} (reused)` : `MariaDB: started on 127.0.0.1:${p.port}`);
-  ensureDatabaseAndUser(p, settings.DB_NAME, settings.DB_USER, settings.DB_PASSWORD);
+  ensureDatabaseAndUser(p, settings.DB_NAME, settings.DB_USER, settings.DB_PASSWORD, { user: settings.DB_OWNER_USER, password: settings.DB_OWNER_PASSWORD });
   if (settings.JWT_SECRET === undefined) ensureSecretFile(settings.dataDir, 'jwt-secret', 48);
   const config = loadConfig(process.env, { requireJwtSecret: true });
 
@@ -33,11 +33,13 @@ async function main(): Promise<void> {
     console.log('Client: up to date (dist/).');
   }
 
+  // Migrations as the migrator account (which then gives the app account its table rights); the seed as the app.
+  const { migrateAsOwner, seedOn } = await import('./prepare.js');
+  await migrateAsOwner(config, (l) => console.log(l));
   const { createDataSource } = await import('../db/create-data-source.js');
   const db = createDataSource(config);
   await db.initialize();
-  const { migrateAndSeedOn } = await import('./prepare.js');
-  await migrateAndSeedOn(db, { seed: config.DEMO === 'on', log: (l) => console.log(l) });
+  await seedOn(db, { seed: config.DEMO === 'on', log: (l) => console.log(l) });
 
   const { serve } = await import('../index.js');
   const running = await serve(db, config, { staticDir: dev ? undefined : path.join(root, 'dist'), handleSignals: !dev });
