@@ -11,6 +11,8 @@ import { boundPoolWait, createDataSource } from '../../../server/db/create-data-
 import { route, type RouteDef } from '../../../server/route-def.js';
 import { routeTable } from '../../../server/routes.js';
 import { bearer, createTestUser, openTestEnv, TEST_PASSWORD, type TestEnv } from '../../helpers/db.js';
+import { makeSite } from '../../helpers/factories.js';
+import { Site } from '../../../server/features/sites/site.entity.js';
 import { closedPort, silentServer, startFaultProxy, type FaultProxy } from '../../helpers/fault-proxy.js';
 
 // The database unreachable is a 503 db_unavailable with Retry-After on every route, decided by the error handler from
@@ -122,19 +124,19 @@ describe('databaseFault on real driver errors', () => {
   });
 
   it('a lock wait timeout (1205) through TypeORM is unavailable; a deadlock (1213) is a deadlock', async () => {
-    const table = `fault_probe_${randomUUID().slice(0, 8)}`;
+    // Two sites of this test, locked by transactions that are rolled back: nothing is changed.
+    const [s1, s2] = [await makeSite(env.db), await makeSite(env.db)];
+    const lock = (id: number) => `UPDATE site SET timeZone = timeZone WHERE id = ${id}`;
     const a = await testConnection();
     const b = await testConnection();
     try {
-      await a.query(`CREATE TABLE \`${table}\` (id INT PRIMARY KEY, v INT) ENGINE=InnoDB`);
-      await a.query(`INSERT INTO \`${table}\` VALUES (1, 0), (2, 0)`);
-      // Lock wait: a holds row 1, a TypeORM transaction waiting for it gives up after 1 s.
+      // Lock wait: a holds site 1, a TypeORM transaction waiting for it gives up after 1 s.
       await a.query('START TRANSACTION');
-      await a.query(`UPDATE \`${table}\` SET v = 1 WHERE id = 1`);
+      await a.query(lock(s1.id));
       const waitErr = await caught(
         env.db.transaction(async (m) => {
           await m.query('SET SESSION innodb_lock_wait_timeout = 1');
-          await m.query(`UPDATE \`${table}\` SET v = 2 WHERE id = 1`);
+          await m.query(lock(s1.id));
         }),
       );
       expect((waitErr as { driverError?: { code?: string } }).driverError?.code).toBe('ER_LOCK_WAIT_TIMEOUT');
@@ -143,17 +145,16 @@ describe('databaseFault on real driver errors', () => {
       // Deadlock: a holds 1 and wants 2, b holds 2 and wants 1; InnoDB picks one victim.
       await a.query('START TRANSACTION');
       await b.query('START TRANSACTION');
-      await a.query(`UPDATE \`${table}\` SET v = 1 WHERE id = 1`);
-      await b.query(`UPDATE \`${table}\` SET v = 1 WHERE id = 2`);
-      const results = await Promise.allSettled([a.query(`UPDATE \`${table}\` SET v = 2 WHERE id = 2`), b.query(`UPDATE \`${table}\` SET v = 2 WHERE id = 1`)]);
+      await a.query(lock(s1.id));
+      await b.query(lock(s2.id));
+      const results = await Promise.allSettled([a.query(lock(s2.id)), b.query(lock(s1.id))]);
       const failed = results.filter((r): r is PromiseRejectedResult => r.status === 'rejected');
       expect(failed).toHaveLength(1);
       expect((failed[0]!.reason as { code?: string }).code).toBe('ER_LOCK_DEADLOCK');
       expect(databaseFault(failed[0]!.reason)).toBe('deadlock');
-      await a.query('ROLLBACK');
-      await b.query('ROLLBACK');
     } finally {
-      await a.query(`DROP TABLE IF EXISTS \`${table}\``);
+      await a.query('ROLLBACK').catch(() => undefined);
+      await b.query('ROLLBACK').catch(() => undefined);
       await a.end();
       await b.end();
     }
@@ -177,7 +178,9 @@ describe('the app while its database is cut off and back', () => {
   let proxy: FaultProxy;
   let db: DataSource;
   let app: ReturnType<typeof createApp>;
-  const table = `fault_write_${randomUUID().slice(0, 8)}`;
+  // The probe route's rows: sites with this name (the app account has no right to create tables).
+  const probeName = `Probe ${randomUUID().slice(0, 8)}`;
+  const probeRows = async () => Number((await env.db.query('SELECT COUNT(*) AS n FROM site WHERE name LIKE ?', [`${probeName}%`]))[0].n);
   let releaseWrite: () => void = () => undefined;
   let writeEntered: () => void = () => undefined;
 
@@ -188,7 +191,7 @@ describe('the app while its database is cut off and back', () => {
       path: '/probe-write',
       access: 'public',
       handler: async ({ m }) => {
-        await m.query(`INSERT INTO \`${table}\` (note) VALUES ('first')`);
+        await m.getRepository(Site).save(m.getRepository(Site).create({ name: `${probeName} ${randomUUID().slice(0, 4)}`, timeZone: 'Europe/London' }));
         writeEntered();
         await new Promise<void>((r) => (releaseWrite = r));
         return { saved: true };
@@ -197,7 +200,6 @@ describe('the app while its database is cut off and back', () => {
   ];
 
   beforeAll(async () => {
-    await env.db.query(`CREATE TABLE \`${table}\` (id INT AUTO_INCREMENT PRIMARY KEY, note VARCHAR(20)) ENGINE=InnoDB`);
     proxy = await startFaultProxy({ host: env.config.DB_HOST, port: env.config.DB_PORT });
     db = createDataSource({ ...env.config, DB_PORT: proxy.port });
     await db.initialize();
@@ -206,7 +208,6 @@ describe('the app while its database is cut off and back', () => {
   afterAll(async () => {
     await proxy?.close();
     if (db?.isInitialized) await db.destroy();
-    await env.db.query(`DROP TABLE IF EXISTS \`${table}\``);
   });
 
   const expect503 = (res: request.Response) => {
@@ -248,13 +249,12 @@ describe('the app while its database is cut off and back', () => {
     expect503(await answer);
     await proxy.restore();
     // The server rolled the transaction back when its connection went; counted on the test's own connection.
-    const rows = await env.db.query(`SELECT COUNT(*) AS n FROM \`${table}\``);
-    expect(Number(rows[0].n)).toBe(0);
+    expect(await probeRows()).toBe(0);
     // And the same write goes through once the database is back.
     const again = request(app).post('/api/probe-write').then((r) => r);
     await new Promise<void>((r) => (writeEntered = r));
     releaseWrite();
     expect((await again).status).toBe(200);
-    expect(Number((await env.db.query(`SELECT COUNT(*) AS n FROM \`${table}\``))[0].n)).toBe(1);
+    expect(await probeRows()).toBe(1);
   });
 });
