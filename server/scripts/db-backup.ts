@@ -1,6 +1,6 @@
 import { spawn, spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { createWriteStream, mkdirSync, readdirSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { createWriteStream, existsSync, mkdirSync, readdirSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { Transform } from 'node:stream';
@@ -35,13 +35,17 @@ export function adminTarget(p: Pick<MariaDbPaths, 'socket'>): Extract<DbTarget, 
 const LOCAL_HOSTS = new Set(['127.0.0.1', 'localhost', '::1']);
 
 /**
- * The private server under DATA_DIR when DB_HOST is this machine and its socket answers (admin over the socket);
- * otherwise the configured server over TCP with DB_USER and its password.
+ * The private server under DATA_DIR when DB_HOST is this machine and its socket answers (admin over the socket; an
+ * error when its datadir is there but it does not answer); otherwise (no private server) the configured server over TCP
+ * with DB_USER and its password.
  */
 export function targetFor(config: Config): { target: DbTarget; paths: MariaDbPaths | null } {
   if (LOCAL_HOSTS.has(config.DB_HOST)) {
     const p = mariaDbPaths(config.dataDir, config.DB_PORT);
     if (pingSocket(p)) return { target: adminTarget(p), paths: p };
+    if (existsSync(p.datadir)) {
+      throw new ProvisionError(`The private MariaDB under ${p.baseDir} does not answer on ${p.socket}: start it with npm run db:start.`);
+    }
   }
   return {
     target: {
