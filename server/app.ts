@@ -7,6 +7,8 @@ import { apiNotFound, errorHandler } from './common/error-handler.js';
 import { createLogger, requestLogger, type Logger } from './logger.js';
 import type { RouteDef } from './route-def.js';
 import { buildApiRouter, routeTable } from './routes.js';
+import { loginRateLimit, trustProxySetting } from './features/auth/sign-in-protection.js';
+import { recordRefusals } from './features/security/security.service.js';
 
 export interface AppOptions {
   /** Folder of the built client (dist/); when absent only the API is served. */
@@ -22,7 +24,8 @@ export function createApp(context: AppContext, opts: AppOptions = {}): Express {
   const app = express();
   app.locals.ctx = context;
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // The client's address (sign-in throttling, security log): X-Forwarded-For only from the proxies TRUST_PROXY names.
+  app.set('trust proxy', trustProxySetting(context.config.TRUST_PROXY));
   // First, so every answer (404s, static files and errors included) carries X-Request-Id.
   app.use(requestLogger(opts.logger ?? createLogger(context.config.LOG_LEVEL)));
   app.use(
@@ -42,7 +45,9 @@ export function createApp(context: AppContext, opts: AppOptions = {}): Express {
     }),
   );
   app.use('/api', express.json({ limit: '5mb' }));
+  app.use('/api/auth/login', loginRateLimit(context));
   app.use('/api', buildApiRouter(opts.routes ?? routeTable));
+  app.use('/api', recordRefusals);
   app.use('/api', apiNotFound);
 
   const dir = opts.staticDir;

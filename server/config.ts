@@ -32,6 +32,16 @@ const envSchema = z.object({
   MAIL_SINK_PORT: portSchema.default(2526),
   LOGIN_MAX_FAILURES: z.coerce.number().int().min(1).default(5),
   LOGIN_LOCK_MINUTES: z.coerce.number().min(0.01).default(15),
+  // Failed sign-ins one client address may make in the window before 429 (every account together).
+  LOGIN_RATE_LIMIT_MAX: z.coerce.number().int().min(1).default(20),
+  LOGIN_RATE_LIMIT_WINDOW_MINUTES: z.coerce.number().min(0.01).default(15),
+  // Which proxies Express believes about the client's address (X-Forwarded-For): off (default), a hop count, or
+  // addresses/subnets/names such as loopback or 10.0.0.0/8 (comma separated).
+  TRUST_PROXY: z
+    .string()
+    .trim()
+    .regex(/^(off|\d{1,2}|[A-Za-z0-9.:/]+(\s*,\s*[A-Za-z0-9.:/]+)*)$/, 'off, a number of hops, or addresses, subnets or names (loopback, 10.0.0.0/8)')
+    .default('off'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 

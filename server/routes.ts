@@ -17,6 +17,7 @@ import { followUpRoutes } from './features/follow-ups/follow-ups.router.js';
 import { findingRoutes } from './features/findings/findings.router.js';
 import { exportRoutes } from './features/exports/exports.router.js';
 import { criteriaRoutes } from './features/criteria/criteria.router.js';
+import { securityRoutes } from './features/security/security.router.js';
 
 /** Every API route with who may call it; the router is built from this table and the role-matrix test reads it. */
 export const routeTable: RouteDef[] = [
@@ -36,6 +37,7 @@ export const routeTable: RouteDef[] = [
   ...criteriaRoutes,
   ...outboxRoutes,
   ...notificationRoutes,
+  ...securityRoutes,
 ];
 
 /** The /api router: authentication and role guards come from each row's access. */

@@ -9,9 +9,12 @@ import { AppError } from './app-error.js';
 
 const unauthorized = (message: string) => new AppError('unauthorized', message, 401, undefined, { 'WWW-Authenticate': 'Bearer' });
 
-/** Signs a session token for a user id (HS256, expiring). */
-export function signToken(userId: number, secret: string, expiresIn: string): string {
-  return jwt.sign({ sub: String(userId) }, secret, { algorithm: 'HS256', expiresIn: expiresIn as jwt.SignOptions['expiresIn'] });
+/**
+ * Signs a session token for a user id (HS256, expiring) carrying the user's token version (`ver`): raising the version
+ * (password change or reset, deactivation, reactivation, sign-out) ends every token signed before.
+ */
+export function signToken(userId: number, secret: string, expiresIn: string, version = 0): string {
+  return jwt.sign({ sub: String(userId), ver: version }, secret, { algorithm: 'HS256', expiresIn: expiresIn as jwt.SignOptions['expiresIn'] });
 }
 
 // Verifies the bearer token and reloads the user on every request, so a deactivation takes effect at once.
@@ -21,16 +24,20 @@ export const authenticate: RequestHandler = async (req, res, next) => {
   if (!m) return next(unauthorized('Sign in first (no bearer token).'));
   const { db, config } = ctx(req);
   let sub: string;
+  let ver: number;
   try {
     const payload = jwt.verify(m[1], config.jwtSecret, { algorithms: ['HS256'] });
     if (typeof payload === 'string' || typeof payload.sub !== 'string') throw new Error('no subject');
+    if (!Number.isInteger(payload.ver)) throw new Error('no token version');
     sub = payload.sub;
+    ver = payload.ver as number;
   } catch (err) {
     const expired = err instanceof jwt.TokenExpiredError;
     return next(unauthorized(expired ? 'Your session has expired; sign in again.' : 'The session token is not valid; sign in again.'));
   }
   const user = await db.getRepository(User).findOne({ where: { id: Number(sub) }, relations: { sites: true } });
   if (!user || !user.active) return next(unauthorized('This account is not active; sign in again or ask an administrator.'));
+  if (user.tokenVersion !== ver) return next(unauthorized('This session has ended (signed out, or the password changed); sign in again.'));
   // A one-time password still in use: only reading oneself and choosing a new password are allowed.
   if (user.mustChangePassword && !PASSWORD_CHANGE_ROUTES.has(`${req.method} ${req.route?.path ?? req.path}`)) {
     return next(new AppError('password_change_required', 'Choose a new password first: the one-time password allows nothing else.', 403));
@@ -40,7 +47,7 @@ export const authenticate: RequestHandler = async (req, res, next) => {
 };
 
 // The routes a person who must replace a one-time password may still call.
-const PASSWORD_CHANGE_ROUTES = new Set(['GET /auth/me', 'POST /auth/password']);
+const PASSWORD_CHANGE_ROUTES = new Set(['GET /auth/me', 'POST /auth/password', 'POST /auth/logout']);
 
 /** The signed-in user of a request (after authenticate). */
 export function currentUser(res: { locals: Record<string, unknown> }): UserDto {

@@ -18,6 +18,7 @@ import { Unit } from '../features/units/unit.entity.js';
 import { User } from '../features/users/user.entity.js';
 import { SinkAttachment } from '../mail/sink-attachment.entity.js';
 import { SinkMessage } from '../mail/sink-message.entity.js';
+import { SecurityEvent } from '../features/security/security-event.entity.js';
 
 // Every entity the data source knows (imported as classes: globs of .ts files break under vitest).
 export const entities = [
@@ -41,4 +42,5 @@ export const entities = [
   SweepTrace,
   Unit,
   User,
+  SecurityEvent,
 ];

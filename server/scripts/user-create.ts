@@ -24,8 +24,8 @@ async function main(): Promise<number> {
     console.log(usage);
     return 0;
   }
-  const { randomBytes } = await import('node:crypto');
-  const generated = values.password ? null : randomBytes(12).toString('base64url');
+  const { newOneTimePassword } = await import('../features/users/users.service.js');
+  const generated = values.password ? null : newOneTimePassword();
   const parsed = userCreateSchema.safeParse({
     email: values.email,
     name: values.name,
@@ -37,6 +37,13 @@ async function main(): Promise<number> {
   if (!parsed.success) {
     for (const i of parsed.error.issues) console.error(`${i.path.join('.') || 'input'}: ${i.message}`);
     console.error(usage);
+    return 2;
+  }
+  // The password policy (at least 12 characters, at most 72 bytes, not a common or guessable password).
+  const { passwordPolicyProblem } = await import('../../shared/auth/password-policy.js');
+  const problem = passwordPolicyProblem(parsed.data.password, [parsed.data.email, parsed.data.name]);
+  if (problem) {
+    console.error(`password: ${problem}`);
     return 2;
   }
   const config = loadConfig();

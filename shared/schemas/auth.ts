@@ -9,20 +9,24 @@ export const loginBodySchema = z.object({
 });
 export type LoginBody = z.infer<typeof loginBodySchema>;
 
-export const passwordSchema = z.string().min(10, 'at least 10 characters').max(200, 'at most 200 characters');
-
-/** bcrypt reads at most 72 bytes of a password. */
+/** bcrypt reads at most 72 bytes of a password (the same limits as shared/auth/password-policy.ts, kept here as a leaf). */
 export const PASSWORD_MAX_BYTES = 72;
 export const NEW_PASSWORD_MIN = 12;
+const withinBytes = (v: string) => new TextEncoder().encode(v).length <= PASSWORD_MAX_BYTES;
+const BYTES_MESSAGE = `at most ${PASSWORD_MAX_BYTES} bytes (fewer characters with accents or symbols)`;
+
+/** A new password's length: 12 characters or more, 72 bytes of UTF-8 at most. Whether it is guessable: the policy. */
+export const passwordSchema = z
+  .string()
+  .refine((v) => [...v].length >= NEW_PASSWORD_MIN, `at least ${NEW_PASSWORD_MIN} characters`)
+  .refine(withinBytes, BYTES_MESSAGE);
 
 /** POST /api/auth/password: the current password and a new one (12 characters or more, 72 bytes of UTF-8 at most). */
 export const passwordChangeSchema = z
   .object({
-    currentPassword: z.string().min(1, 'required').max(200, 'too long'),
-    newPassword: z
-      .string()
-      .min(NEW_PASSWORD_MIN, `at least ${NEW_PASSWORD_MIN} characters`)
-      .refine((v) => new TextEncoder().encode(v).length <= PASSWORD_MAX_BYTES, `at most ${PASSWORD_MAX_BYTES} bytes (fewer characters with accents or symbols)`),
+    // A stored password has 72 bytes at most: a longer one cannot be it (bcrypt would compare only its first 72).
+    currentPassword: z.string().min(1, 'required').max(200, 'too long').refine(withinBytes, BYTES_MESSAGE),
+    newPassword: passwordSchema,
   })
   .refine((v) => v.newPassword !== v.currentPassword, { path: ['newPassword'], message: 'must differ from the current password' });
 export type PasswordChange = z.infer<typeof passwordChangeSchema>;
@@ -66,3 +70,10 @@ export type UserListQuery = z.infer<typeof userListQuerySchema>;
 
 /** The user as the API shows it (its schema: responses/auth.ts). */
 export type { UserView as UserDto } from './responses/auth.js';
+
+/** GET /api/security-events: one page of the security log, newest first. */
+export const securityEventQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).max(100000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+});
+export type SecurityEventQuery = z.infer<typeof securityEventQuerySchema>;

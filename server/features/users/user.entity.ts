@@ -40,6 +40,10 @@ export class User {
   @Column({ type: 'int', unsigned: true, default: 0 })
   failedSignIns!: number;
 
+  /** Carried in every session token (`ver`); raised by a password change or reset, a (re)activation and a sign-out. */
+  @Column({ type: 'int', unsigned: true, default: 0 })
+  tokenVersion!: number;
+
   @Column({ type: 'datetime', precision: 3, nullable: true })
   lockedUntil!: Date | null;
 

@@ -2,6 +2,13 @@ import { route, type RouteDef } from '../../route-def.js';
 import { userParams } from '../../common/params.js';
 import { userCreateBodySchema, userListQuerySchema, userPatchSchema } from '../../../shared/schemas/auth.js';
 import { createPerson, listUsers, resetPassword, unlockUser, updateUser } from './users.service.js';
+import { recordSecurityEvent, requestFacts } from '../security/security.service.js';
+import type { RouteInput } from '../../route-def.js';
+
+/** Records an ended sign-in lock in the security log once the request's transaction has committed. */
+const unlockRecorder =
+  (i: Pick<RouteInput<readonly ['admin'], unknown, unknown, unknown, undefined>, 'afterCommit' | 'ctx' | 'clock' | 'req'>, userId: number, how: string) => () =>
+    i.afterCommit(() => void recordSecurityEvent(i.ctx.db, i.clock, requestFacts(i.req), { kind: 'account_unlocked', userId, detail: how }, i.req.log));
 
 export const userRoutes: RouteDef[] = [
   // GET /api/users — one page of people (search by name or e-mail, role, active), by name
@@ -23,7 +30,7 @@ export const userRoutes: RouteDef[] = [
     path: '/users/:userId/reset-password',
     access: ['admin'],
     params: userParams,
-    handler: ({ m, clock, user, params }) => resetPassword(m, clock, user.id, params.userId),
+    handler: (i) => resetPassword(i.m, i.clock, i.user.id, i.params.userId, unlockRecorder(i, i.params.userId, `password reset by ${i.user.name}`)),
   }),
   // POST /api/users/:userId/unlock — end a sign-in lock after too many failures
   route({
@@ -31,6 +38,6 @@ export const userRoutes: RouteDef[] = [
     path: '/users/:userId/unlock',
     access: ['admin'],
     params: userParams,
-    handler: ({ m, clock, user, params }) => unlockUser(m, clock, user.id, params.userId),
+    handler: (i) => unlockUser(i.m, i.clock, i.user.id, i.params.userId, unlockRecorder(i, i.params.userId, `unlocked by ${i.user.name}`)),
   }),
 ];

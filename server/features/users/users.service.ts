@@ -5,6 +5,10 @@ import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
 import { pick, present } from '../../common/audited-row.js';
 import type { Clock } from '../../common/clock.js';
+import { signToken } from '../../common/auth.js';
+import type { Config } from '../../config.js';
+import { passwordPolicyProblem } from '../../../shared/auth/password-policy.js';
+import type { LoginAnswer } from '../../../shared/schemas/responses/auth.js';
 import type { PasswordChange, UserCreate, UserCreateBody, UserDto, UserListQuery, UserPatch } from '../../../shared/schemas/auth.js';
 import type { PersonPage, PersonView, PersonWithPassword } from '../../../shared/schemas/responses/admin.js';
 import { Site } from '../sites/site.entity.js';
@@ -36,9 +40,21 @@ export async function listUsers(m: EntityManager, clock: Clock, q: UserListQuery
   return { items: users.map((u) => toPersonView(u, now)), total, page: q.page, pageSize: q.pageSize } satisfies PersonPage;
 }
 
-/** A one-time password: 12 random bytes, 16 characters of base64url. */
-function newOneTimePassword(): string {
-  return randomBytes(12).toString('base64url');
+/**
+ * A one-time password: 12 random bytes, 16 characters of base64url, drawn again in the rare case the password policy
+ * would refuse it (a run of repeats or a dictionary word by chance), so every password the app hands out passes it.
+ */
+export function newOneTimePassword(): string {
+  for (;;) {
+    const candidate = randomBytes(12).toString('base64url');
+    if (passwordPolicyProblem(candidate) === null) return candidate;
+  }
+}
+
+/** 400 naming the field when a new password breaks the policy (shared/auth/password-policy.ts). */
+export function assertPasswordPolicy(field: string, password: string, personal: readonly string[]): void {
+  const problem = passwordPolicyProblem(password, personal);
+  if (problem) throw new AppError('invalid_input', `The new password is refused: ${problem}.`, 400, { [field]: problem });
 }
 
 /** POST /api/users: creates the person with a one-time password, answered this once (only its hash is stored). */
@@ -58,6 +74,8 @@ async function loadUser(m: EntityManager, id: number): Promise<User> {
 /** Creates a user (audited); the e-mail must be new. */
 export async function createUser(m: EntityManager, clock: Clock, actorId: number | null, input: UserCreate, opts: { demo?: boolean; passwordHash?: string; mustChangePassword?: boolean } = {}): Promise<UserDto> {
   const email = input.email.trim().toLowerCase();
+  // A typed password must pass the policy; the demo accounts' password is seeded (passwordHash given), not typed.
+  if (!opts.passwordHash && !opts.demo) assertPasswordPolicy('password', input.password, [email, input.name]);
   if (await m.getRepository(User).exists({ where: { email } })) {
     throw new AppError('email_taken', 'A user with this e-mail already exists.', 409, { email: 'already in use' });
   }
@@ -101,7 +119,11 @@ export async function updateUser(m: EntityManager, clock: Clock, actorId: number
   if (patch.name !== undefined) user.name = patch.name;
   if (patch.roles !== undefined) user.roles = [...new Set(patch.roles)];
   if (patch.allSites !== undefined) user.allSites = patch.allSites;
-  if (patch.active !== undefined) user.active = patch.active;
+  if (patch.active !== undefined && patch.active !== user.active) {
+    user.active = patch.active;
+    // Deactivated or reactivated: every token issued before ends (a reactivation must not revive an old session).
+    user.tokenVersion += 1;
+  }
   if (patch.siteIds !== undefined) user.sites = await sitesByIds(m, patch.siteIds);
   if (wasAdmin && !(user.active && user.roles.includes('admin')) && (await otherActiveAdmins(m, id)) === 0) {
     throw new AppError('last_admin', 'This is the last active administrator: give another person the administrator role first.', 409, {
@@ -124,13 +146,15 @@ async function otherActiveAdmins(m: EntityManager, id: number): Promise<number> 
 }
 
 /** POST /api/users/:id/reset-password: a new one-time password (answered once, stored hashed); clears a sign-in lock. */
-export async function resetPassword(m: EntityManager, clock: Clock, actorId: number, id: number): Promise<PersonWithPassword> {
+export async function resetPassword(m: EntityManager, clock: Clock, actorId: number, id: number, onUnlocked?: () => void): Promise<PersonWithPassword> {
   const user = await loadUser(m, id);
   const now = clock.now();
   const before = toPersonView(user, now);
   const oneTimePassword = newOneTimePassword();
   user.passwordHash = await bcrypt.hash(oneTimePassword, BCRYPT_COST);
   user.mustChangePassword = true;
+  user.tokenVersion += 1;
+  if (before.lockedUntil !== null) onUnlocked?.();
   user.failedSignIns = 0;
   user.lockedUntil = null;
   user.updatedAt = now;
@@ -141,10 +165,11 @@ export async function resetPassword(m: EntityManager, clock: Clock, actorId: num
 }
 
 /** POST /api/users/:id/unlock: ends a sign-in lock and clears the failure count (audited). */
-export async function unlockUser(m: EntityManager, clock: Clock, actorId: number, id: number): Promise<PersonView> {
+export async function unlockUser(m: EntityManager, clock: Clock, actorId: number, id: number, onUnlocked?: () => void): Promise<PersonView> {
   const user = await loadUser(m, id);
   const now = clock.now();
   const before = { ...toPersonView(user, now), failedSignIns: user.failedSignIns };
+  if (before.lockedUntil !== null) onUnlocked?.();
   user.failedSignIns = 0;
   user.lockedUntil = null;
   user.updatedAt = now;
@@ -155,21 +180,24 @@ export async function unlockUser(m: EntityManager, clock: Clock, actorId: number
 }
 
 /**
- * POST /api/auth/password: the signed-in person replaces their password (the current one checked); ends the duty to
- * change a one-time password. Audited without any hash.
+ * POST /api/auth/password: the signed-in person replaces their password (the current one checked, the new one held to
+ * the password policy); ends the duty to change a one-time password and every token issued before, so the answer is a
+ * new token with the user. Audited without any hash.
  */
-export async function changeOwnPassword(m: EntityManager, clock: Clock, userId: number, input: PasswordChange): Promise<UserDto> {
+export async function changeOwnPassword(m: EntityManager, clock: Clock, config: Config, userId: number, input: PasswordChange): Promise<LoginAnswer> {
   const user = await loadUser(m, userId);
   if (!(await bcrypt.compare(input.currentPassword, user.passwordHash))) {
     throw new AppError('invalid_input', 'The current password is wrong.', 400, { currentPassword: 'wrong password' });
   }
+  assertPasswordPolicy('newPassword', input.newPassword, [user.email, user.name]);
   const now = clock.now();
   const before = toUserDto(user);
   user.passwordHash = await bcrypt.hash(input.newPassword, BCRYPT_COST);
   user.mustChangePassword = false;
+  user.tokenVersion += 1;
   user.updatedAt = now;
   await m.getRepository(User).save(user);
   const after = toUserDto(user);
   await audit(m, clock, { userId, action: 'update', entity: 'user', entityId: userId, before, after, note: 'password changed by its owner' });
-  return after;
+  return { token: signToken(userId, config.jwtSecret, config.JWT_EXPIRES_IN, user.tokenVersion), user: after };
 }

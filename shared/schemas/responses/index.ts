@@ -10,3 +10,4 @@ export * from './outbox.js';
 export * from './notifications.js';
 export * from './followups.js';
 export * from './criteria.js';
+export * from './security.js';

@@ -96,6 +96,10 @@ const ADDED: ReadonlyArray<readonly [string, Who]> = [
   ['GET /screenings/:id/case', 'signed in'],
   // Not an api.md row: the signed-in person replaces their own password (a one-time password first of all).
   ['POST /auth/password', 'signed in'],
+  // Not an api.md row: signing out ends every token of the person (their token version is raised).
+  ['POST /auth/logout', 'signed in'],
+  // Not an api.md row: the security log (failed and refused sign-ins, locks, unlocks, authorization refusals).
+  ['GET /security-events', ['admin']],
 ];
 
 // api.md: "`admin` may do everything a row names except sign decisions".
@@ -175,6 +179,8 @@ function call(method: string, path: string) {
 }
 
 const SCREENING_RUN = routeKey('post', '/events/:id/screenings');
+// Signing out ends every token of the person: called with a token of its own, so the role's token lives on.
+const LOGOUT = routeKey('post', '/auth/logout');
 const allows = (access: Access, role: Role) => access === 'signed-in' || (access !== 'public' && access.includes(role));
 
 describe('every route called as every role', () => {
@@ -193,7 +199,8 @@ describe('every route called as every role', () => {
     for (const role of ROLES) {
       const allowed = allows(r.access, role);
       it(`${name} ${allowed ? 'does not refuse' : 'refuses with 403'} ${role}`, async () => {
-        let req = call(r.method, r.path).set(tokens[role]);
+        const token = routeKey(r.method, r.path) === LOGOUT ? bearer(env.config, (await createTestUser(env.db, [role])).id) : tokens[role];
+        let req = call(r.method, r.path).set(token);
         // An engineer may run comparison screenings only (checked below).
         if (routeKey(r.method, r.path) === SCREENING_RUN) req = req.send({ comparison: true });
         const res = await req;
