@@ -1,8 +1,9 @@
-import { spawn } from 'node:child_process';
+import { execFile, spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { copyFileSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { promisify } from 'node:util';
 import mysql from 'mysql2/promise';
 import request from 'supertest';
 import type { DataSource } from 'typeorm';
@@ -31,6 +32,7 @@ const tag = randomBytes(4).toString('hex');
 const SRC = `gapsight_bk_${tag}`;
 const PITR = `gapsight_bk_${tag}_pitr`;
 const made = new Set<string>([SRC, PITR]);
+const execFileAsync = promisify(execFile);
 const tmp = mkdtempSync(path.join(os.tmpdir(), 'gapsight-backup-'));
 
 let src: DataSource;
@@ -185,6 +187,34 @@ describe('backup and restore', () => {
     expect((e2 as Error).message).toMatch(new RegExp(`database ${SRC} already exists and has \\d+ table`));
     expect(existsSync(backup.file)).toBe(true);
   });
+
+  it('works as the commands npm run db:backup and db:restore (the private server found under DATA_DIR)', async () => {
+    // DATA_DIR pointing at the test server's folder makes the commands take it for the private server (admin, socket).
+    const dataDir = path.dirname(socket);
+    const env = { ...process.env, DATA_DIR: dataDir, DB_NAME: SRC, BACKUP_KEEP: '3' };
+    const run = (script: string, args: string[] = []) =>
+      execFileAsync(path.join('node_modules', '.bin', 'tsx'), ['--tsconfig', 'server/tsconfig.json', `server/scripts/${script}`, ...args], { env });
+    const before = await snapshot(SRC);
+    try {
+      const backup = await run('db-backup.ts');
+      const file = /^Backup: +(.+)$/m.exec(backup.stdout)?.[1] ?? '';
+      expect(path.dirname(file)).toBe(path.join(dataDir, 'backups'));
+      expect(backup.stdout).toMatch(/^SHA-256: +[0-9a-f]{64} /m);
+      expect(backup.stdout).toMatch(/^Binary log position: binlog\.\d+ at \d+/m);
+
+      const restore = await run('db-restore.ts', [file]);
+      const name = /^ {2}DB_NAME=(\w+) npm start$/m.exec(restore.stdout)?.[1] ?? '';
+      expect(name).toMatch(new RegExp(`^${SRC}_restore_\\d{8}_\\d{6}$`));
+      made.add(name);
+      expect(await snapshot(name)).toEqual(before);
+
+      const refused = await run('db-restore.ts', [file, '--into', SRC]).catch((e: { code: number; stderr: string }) => e);
+      expect(refused).toMatchObject({ code: 1 });
+      expect((refused as { stderr: string }).stderr).toContain(`database ${SRC} already exists`);
+    } finally {
+      rmSync(path.join(dataDir, 'backups'), { recursive: true, force: true });
+    }
+  }, 180_000); // three tsx start-ups on a busy machine
 
   it('keeps the newest BACKUP_KEEP backups with their checksum files', async () => {
     const dir = path.join(tmp, 'rotation');
