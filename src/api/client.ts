@@ -175,13 +175,32 @@ export interface UploadFile {
   name: string;
 }
 
+/** Told of an upload's progress: bytes sent so far of `total` (0 when the browser cannot tell the total). */
+export type UploadProgress = (sent: number, total: number) => void;
+
+let nextUploadProgress: UploadProgress | null = null;
+
+/**
+ * Runs `start` — a src/api wrapper that uploads a file — with `onProgress` told of its bytes as they are sent: the one
+ * upload `start` begins (synchronously, as every wrapper does) goes through XMLHttpRequest, which reports upload progress.
+ */
+export function withUploadProgress<T>(onProgress: UploadProgress, start: () => Promise<T>): Promise<T> {
+  nextUploadProgress = onProgress;
+  try {
+    return start();
+  } finally {
+    nextUploadProgress = null;
+  }
+}
+
 // Send a multipart form (`file` plus text fields) and return the parsed JSON. The Content-Type (with its boundary)
-// is left to the browser: setting it by hand would drop the boundary and the server could not read the form.
+// is left to the browser: setting it by hand would drop the boundary and the server could not read the form. With
+// `onProgress` (or inside withUploadProgress) the bytes sent are reported as they go.
 export function apiUpload<T>(
   path: string,
   upload: UploadFile,
   fields: Record<string, string | number | boolean | null | undefined> = {},
-  options: Omit<RequestOptions, 'body'> = {},
+  options: Omit<RequestOptions, 'body'> & { onProgress?: UploadProgress } = {},
 ): Promise<T> {
   const form = new FormData();
   for (const [key, value] of Object.entries(fields)) {
@@ -189,7 +208,54 @@ export function apiUpload<T>(
     form.append(key, String(value));
   }
   form.append('file', upload.file, upload.name);
-  return apiRequest<T>('POST', path, { ...options, body: form });
+  const { onProgress = nextUploadProgress, ...rest } = options;
+  nextUploadProgress = null;
+  if (onProgress && upload.file.size >= PROGRESS_MIN_BYTES && typeof XMLHttpRequest !== 'undefined') return uploadWithProgress<T>(path, rest, form, onProgress);
+  // A small file is sent at once: reported as sent, so the uploader shows that the server is checking it.
+  onProgress?.(upload.file.size, upload.file.size);
+  return apiRequest<T>('POST', path, { ...rest, body: form });
+}
+
+/** Files from this size on are sent through XMLHttpRequest, whose upload progress is worth showing. */
+const PROGRESS_MIN_BYTES = 256 * 1024;
+
+/** The upload of apiUpload through XMLHttpRequest (fetch cannot report upload progress): the same answers and errors. */
+async function uploadWithProgress<T>(path: string, options: Omit<RequestOptions, 'body'>, form: FormData, onProgress: UploadProgress): Promise<T> {
+  const { query, auth = true, signal } = options;
+  const sentToken = auth ? readStoredToken() : null;
+  const headers: Record<string, string> = { Accept: 'application/json', ...options.headers };
+  if (sentToken) headers.Authorization = `Bearer ${sentToken}`;
+  const response = await new Promise<Response>((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', buildUrl(path, query));
+    for (const [k, v] of Object.entries(headers)) xhr.setRequestHeader(k, v);
+    xhr.upload.onprogress = (e) => onProgress(e.loaded, e.lengthComputable ? e.total : 0);
+    xhr.onload = () => {
+      const answerHeaders = new Headers();
+      for (const line of xhr.getAllResponseHeaders().trim().split(/[\r\n]+/)) {
+        const at = line.indexOf(':');
+        if (at > 0) answerHeaders.append(line.slice(0, at).trim(), line.slice(at + 1).trim());
+      }
+      const empty = xhr.status === 204 || xhr.responseText === '';
+      resolve(new Response(empty ? null : xhr.responseText, { status: xhr.status, headers: answerHeaders }));
+    };
+    xhr.onerror = () => reject(new ApiError(0, 'network_error', 'Cannot reach the Gapsight server. Check the connection and try again.'));
+    xhr.onabort = () => reject(signal?.reason ?? new DOMException('The upload was stopped.', 'AbortError'));
+    signal?.addEventListener('abort', () => xhr.abort(), { once: true });
+    xhr.send(form);
+  });
+  if (!response.ok) {
+    const error = await errorFromResponse(response);
+    if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) unauthorizedHandler(error);
+    throw error;
+  }
+  const text = await response.text();
+  if (!text) return undefined as T;
+  try {
+    return JSON.parse(text) as T;
+  } catch {
+    throw new ApiError(response.status, 'invalid_response', 'The server sent an answer the app could not read.');
+  }
 }
 
 // GET a file (an attachment's bytes) with the bearer token; a plain link could not send the token.
