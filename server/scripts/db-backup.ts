@@ -70,6 +70,12 @@ export function clientInvocation(t: DbTarget): { args: string[]; env: NodeJS.Pro
   };
 }
 
+/** The error lines of a mariadb client's stderr (it also echoes the failing statement, which may be a whole table). */
+export function clientErrors(stderr: string): string {
+  const lines = stderr.split('\n').filter((l) => /^(ERROR|mariadb(-dump)?:)/.test(l.trim()));
+  return (lines.length ? lines.join('\n') : stderr.slice(-500)).trim();
+}
+
 /** One SQL statement through the mariadb client; its tab-separated output. */
 export function querySql(t: DbTarget, sql: string, database?: string): string {
   const { args, env } = clientInvocation(t);
@@ -77,7 +83,7 @@ export function querySql(t: DbTarget, sql: string, database?: string): string {
     encoding: 'utf8',
     env,
   });
-  if (r.status !== 0) throw new ProvisionError(`SQL on ${t.what} failed: ${(r.stderr || '').trim()}`);
+  if (r.status !== 0) throw new ProvisionError(`SQL on ${t.what} failed: ${clientErrors(r.stderr || '')}`);
   return r.stdout;
 }
 
@@ -141,7 +147,7 @@ export async function runBackup(o: BackupOptions): Promise<BackupResult> {
   try {
     await pipeline(child.stdout, watch, createGzip({ level: 6 }), count, createWriteStream(partial, { mode: 0o600 }));
     const code = await exited;
-    if (code !== 0) throw new ProvisionError(`mariadb-dump of ${o.database} on ${o.target.what} failed (exit ${code}):\n${stderr.trim()}`);
+    if (code !== 0) throw new ProvisionError(`mariadb-dump of ${o.database} on ${o.target.what} failed (exit ${code}):\n${clientErrors(stderr)}`);
   } catch (err) {
     rmSync(partial, { force: true });
     if (child.exitCode === null) child.kill();

@@ -10,7 +10,7 @@ import { DataSource } from 'typeorm';
 import { loadConfig, type Config } from '../config.js';
 import { createDataSource } from '../db/create-data-source.js';
 import { CHECKSUM_SUFFIX, checksumProblem, databaseNameProblem, parseChecksumFile, parseRestoreArgs, restoreDatabaseName } from './backup-files.js';
-import { clientInvocation, querySql, targetFor, type DbTarget } from './db-backup.js';
+import { clientErrors, clientInvocation, querySql, targetFor, type DbTarget } from './db-backup.js';
 import { clientBinary } from './mariadb.js';
 import { migrateAndSeedOn } from './prepare.js';
 
@@ -82,8 +82,11 @@ async function load(t: DbTarget, file: string, database: string): Promise<void> 
   let streamError: Error | null = null;
   await pipeline(createReadStream(file), createGunzip(), child.stdin).catch((err: Error) => (streamError = err));
   const code = await exited;
-  if (code !== 0) throw new RestoreError(`loading ${file} into ${database} failed (mariadb exit ${code}):\n${stderr.trim()}`);
-  if (streamError) throw new RestoreError(`reading ${file} failed: ${(streamError as Error).message}`);
+  if (streamError) {
+    const why = (streamError as Error).message;
+    throw new RestoreError(`reading ${file} failed (${why}): the backup is cut off or damaged${code !== 0 ? `\n${clientErrors(stderr)}` : ''}`);
+  }
+  if (code !== 0) throw new RestoreError(`loading ${file} into ${database} failed (mariadb exit ${code}):\n${clientErrors(stderr)}`);
 }
 
 /** Verify, load into a fresh database, migrate. A database this call created is dropped again when the load fails. */

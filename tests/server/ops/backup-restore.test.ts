@@ -12,7 +12,8 @@ import { createApp } from '../../../server/app.js';
 import { systemClock } from '../../../server/common/clock.js';
 import { loadConfig } from '../../../server/config.js';
 import { adminTarget, querySql, runBackup, type BackupResult } from '../../../server/scripts/db-backup.js';
-import { adminDataSource, migratorFor, RestoreError, runRestore } from '../../../server/scripts/db-restore.js';
+import { checksumLine } from '../../../server/scripts/backup-files.js';
+import { adminDataSource, migratorFor, RestoreError, runRestore, sha256OfFile } from '../../../server/scripts/db-restore.js';
 import { clientBinary } from '../../../server/scripts/mariadb.js';
 import { migrateAndSeedOn } from '../../../server/scripts/prepare.js';
 import { bearer, createTestUser } from '../../helpers/db.js';
@@ -166,7 +167,7 @@ describe('backup and restore', () => {
     for (const t of Object.keys(changed)) expect(rolledForward[t], `table ${t} after the binary log`).toBe(changed[t]);
   });
 
-  it('refuses a damaged backup (naming the file) and a target database that has tables, creating nothing', async () => {
+  it('refuses a damaged or cut-off backup (naming the file) and a target database that has tables, leaving no database behind', async () => {
     const backup = await runBackup({ target: admin, database: SRC, dir: tmp, keep: 14 });
     const damaged = path.join(tmp, 'damaged.sql.gz');
     copyFileSync(backup.file, damaged);
@@ -180,6 +181,15 @@ describe('backup and restore', () => {
     const e1 = await runRestore({ target: admin, file: damaged, into: target, sourceDb: SRC, migrate }).catch((e: unknown) => e);
     expect(e1).toBeInstanceOf(RestoreError);
     expect((e1 as Error).message).toContain(damaged);
+    expect(querySql(admin, `SELECT COUNT(*) FROM information_schema.SCHEMATA WHERE SCHEMA_NAME = '${target}'`).trim()).toBe('0');
+
+    // Cut off, with a checksum that matches the cut file: the load fails and the database it created is dropped again.
+    const cut = path.join(tmp, 'cut.sql.gz');
+    writeFileSync(cut, readFileSync(backup.file).subarray(0, Math.floor(bytes.length * 0.6)));
+    writeFileSync(cut + '.sha256', checksumLine(await sha256OfFile(cut), 'cut.sql.gz'));
+    const e3 = await runRestore({ target: admin, file: cut, into: target, sourceDb: SRC, migrate }).catch((e: unknown) => e);
+    expect(e3).toBeInstanceOf(RestoreError);
+    expect((e3 as Error).message).toContain(`reading ${cut} failed`);
     expect(querySql(admin, `SELECT COUNT(*) FROM information_schema.SCHEMATA WHERE SCHEMA_NAME = '${target}'`).trim()).toBe('0');
 
     const e2 = await runRestore({ target: admin, file: backup.file, into: SRC, sourceDb: SRC, migrate }).catch((e: unknown) => e);
