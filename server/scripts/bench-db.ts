@@ -20,18 +20,24 @@ function freePort(): Promise<number> {
 
 const SEED_RUNS = 3;
 
-export async function benchDatabase(opts: { fleet: boolean }): Promise<void> {
+export async function benchDatabase(opts: { fleet: boolean; imports?: boolean }): Promise<void> {
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'gapsight-bench-'));
   const p = mariaDbPaths(path.join(tmp, 'db'), await freePort());
   try {
     await startMariaDb(p, { bufferPoolMB: 256 });
     const pw = randomBytes(12).toString('hex');
-    ensureDatabaseAndUser(p, 'gapsight_bench', 'gapsight', pw);
-    for (let i = 1; i <= SEED_RUNS; i++) ensureDatabaseAndUser(p, `gapsight_seed_${i}`, 'gapsight', pw);
+    // The bench connects as the schema's owner (migrations, then the app on the same account): the provisioning gives
+    // the app's own account row rights only, granted table by table after each migration run, which a bench need not
+    // repeat. (Passed as a loose call: the owner's password is the provisioning's fifth argument.)
+    const provision = ensureDatabaseAndUser as (...args: unknown[]) => string;
+    const owner = { user: 'gapsight_owner', password: randomBytes(12).toString('hex') };
+    provision(p, 'gapsight_bench', 'gapsight', pw, owner);
+    for (let i = 1; i <= SEED_RUNS; i++) provision(p, `gapsight_seed_${i}`, 'gapsight', pw, owner);
     Object.assign(process.env, {
       DB_PORT: String(p.port),
       DB_NAME: 'gapsight_bench',
-      DB_PASSWORD: pw,
+      DB_USER: owner.user,
+      DB_PASSWORD: owner.password,
       JWT_SECRET: randomBytes(32).toString('hex'),
       DATA_DIR: path.join(tmp, 'data'),
       LOG_LEVEL: 'warn',
@@ -42,7 +48,7 @@ export async function benchDatabase(opts: { fleet: boolean }): Promise<void> {
 
     // The demo seed as `npm start` runs it on a first start: migrated, empty database; one fresh database a run.
     const seedMs: number[] = [];
-    for (let i = 1; i <= SEED_RUNS; i++) {
+    for (let i = 1; i <= (opts.imports && !opts.fleet ? 0 : SEED_RUNS); i++) {
       const fresh = new DataSource({ ...db.options, database: `gapsight_seed_${i}` } as typeof db.options);
       await fresh.initialize();
       await fresh.runMigrations({ transaction: 'each' });
@@ -52,10 +58,10 @@ export async function benchDatabase(opts: { fleet: boolean }): Promise<void> {
       await fresh.destroy();
     }
     const median = [...seedMs].sort((a, b) => a - b)[Math.floor(SEED_RUNS / 2)];
-    console.log(
+    if (seedMs.length) console.log(
       `${'seedDemo into a fresh database'.padEnd(44)} ${String(SEED_RUNS).padStart(7)} runs  ${median.toFixed(0).padStart(9)} ms/run (median; ${seedMs.map((ms) => ms.toFixed(0)).join(', ')} ms)`,
     );
-    if (!opts.fleet) return;
+    if (!opts.fleet && !opts.imports) return;
 
     const { loadConfig } = await import('../config.js');
     const { createApp } = await import('../app.js');
@@ -64,7 +70,12 @@ export async function benchDatabase(opts: { fleet: boolean }): Promise<void> {
     const { migrateAndSeedOn } = await import('./prepare.js');
     const { default: request } = await import('supertest');
     await db.initialize();
-    await migrateAndSeedOn(db, { seed: true });
+    await migrateAndSeedOn(db, { seed: opts.fleet });
+    if (!opts.fleet) {
+      await benchImports(db, createApp({ db, clock: systemClock, config: loadConfig(), mailSinkRunning: false }), loadConfig().jwtSecret, signToken);
+      await db.destroy();
+      return;
+    }
     const [site] = await db.query('SELECT id FROM site ORDER BY id LIMIT 1');
     const designs: { id: number }[] = await db.query('SELECT id FROM design ORDER BY id');
     const t0 = performance.now();
@@ -102,9 +113,100 @@ export async function benchDatabase(opts: { fleet: boolean }): Promise<void> {
       const per = (performance.now() - start) / n;
       console.log(`${name.padEnd(48)} ${per.toFixed(1).padStart(7)} ms/request (mean of ${n}, one client)`);
     }
+    await benchImports(db, app, config.jwtSecret, signToken);
     await db.destroy();
   } finally {
     await stopMariaDb(p).catch(() => undefined);
     rmSync(tmp, { recursive: true, force: true });
+  }
+}
+
+/** A configuration label of letters for row i (A, B, …, Z, BA, …), so every reading of a big file is a distinct one. */
+function letters(i: number): string {
+  let out = '';
+  let n = i;
+  do {
+    out = String.fromCharCode(65 + (n % 26)) + out;
+    n = Math.floor(n / 26);
+  } while (n > 0);
+  return `C${out}`;
+}
+
+/** A readings CSV of `rows` capacitance readings, each value cell padded with spaces (trimmed by the parser) to reach `bytes`. */
+function readingsFile(rows: number, bytes: number): Buffer {
+  const header = 'quantity,configuration,phase,value,unit\n';
+  const plain = Array.from({ length: rows }, (_, i) => `capacitance,${letters(i)},,${1000 + (i % 9000)}.5,pF`);
+  const room = Math.max(0, bytes - header.length - plain.reduce((n, l) => n + l.length + 1, 0));
+  const pad = ' '.repeat(Math.floor(room / Math.max(1, rows)));
+  return Buffer.from(header + plain.map((l) => l.replace(',pF', `${pad},pF`)).join('\n') + '\n');
+}
+
+/**
+ * The largest allowed readings import (the row cap, padded to the byte limit) and a 2 MiB file far over the cap, each
+ * through a listening server while another client asks GET /api/health every 10 ms: the import's time and the health
+ * answers' latency (p50, p99, max) during it.
+ */
+async function benchImports(
+  db: import('typeorm').DataSource,
+  app: import('express').Express,
+  jwtSecret: string,
+  signToken: (userId: number, secret: string, expiresIn: string) => string,
+): Promise<void> {
+  const { READINGS_MAX_ROWS } = await import('../../shared/imports/readings-csv.js');
+  const { UPLOAD_LIMITS } = await import('../common/upload.js');
+  const server = app.listen(0, '127.0.0.1');
+  await new Promise((resolve) => server.once('listening', resolve));
+  const base = `http://127.0.0.1:${(server.address() as net.AddressInfo).port}`;
+  try {
+    // Its own people and unit (invented), so it needs no demo seed.
+    const { User } = await import('../features/users/user.entity.js');
+    const { makeDesign, makeSite, makeUnit } = await import('../../tests/helpers/factories.js');
+    const who = async (role: 'protection' | 'tester') => {
+      const repo = db.getRepository(User);
+      const u = await repo.save(repo.create({ email: `bench-${role}-${randomBytes(4).toString('hex')}@bench.example`, name: `Bench ${role}`, passwordHash: '!', roles: [role], allSites: true, sites: [], active: true }));
+      return { Authorization: `Bearer ${signToken(u.id, jwtSecret, '1h')}` };
+    };
+    const protection = await who('protection');
+    const tester = await who('tester');
+    const unit = await makeUnit(db, { siteId: (await makeSite(db)).id, designId: (await makeDesign(db)).id });
+    const json = async (url: string, auth: Record<string, string>, body: unknown) => {
+      const res = await fetch(`${base}${url}`, { method: 'POST', headers: { ...auth, 'Content-Type': 'application/json' }, body: JSON.stringify(body) });
+      if (res.status !== 201) throw new Error(`${url}: ${res.status} ${await res.text()}`);
+      return (await res.json()) as { id: number };
+    };
+    const cases: [string, Buffer, number][] = [
+      [`readings import, ${READINGS_MAX_ROWS} rows (the cap), ${(UPLOAD_LIMITS.readingsCsvBytes / 1048576).toFixed(0)} MiB`, readingsFile(READINGS_MAX_ROWS, UPLOAD_LIMITS.readingsCsvBytes - 1024), 200],
+      ['readings import, 2 MiB of 70 000 rows (refused)', readingsFile(70_000, UPLOAD_LIMITS.readingsCsvBytes - 1024), 400],
+    ];
+    for (const [name, file, expected] of cases) {
+      const event = await json('/api/events', protection, { unitId: unit.id, occurredAt: new Date(Date.now() - 3600_000).toISOString(), type: 'three-phase', side: 'lv', faultedPhases: 'ABC', shots: [{ currentKA: 1, durationS: 0.1 }], protectionOperated: ['overcurrent'] });
+      const session = await json(`/api/events/${event.id}/sessions`, tester, { takenAt: new Date().toISOString() });
+      const latencies: number[] = [];
+      let importing = true;
+      const poll = (async () => {
+        while (importing) {
+          const t = performance.now();
+          const res = await fetch(`${base}/api/health`);
+          await res.arrayBuffer();
+          latencies.push(performance.now() - t);
+          await new Promise((resolve) => setTimeout(resolve, 10));
+        }
+      })();
+      const form = new FormData();
+      form.append('file', new Blob([new Uint8Array(file)], { type: 'text/csv' }), 'readings.csv');
+      const start = performance.now();
+      const res = await fetch(`${base}/api/sessions/${session.id}/imports`, { method: 'POST', headers: tester, body: form });
+      await res.arrayBuffer();
+      const ms = performance.now() - start;
+      importing = false;
+      await poll;
+      if (res.status !== expected) throw new Error(`${name}: answered ${res.status}, expected ${expected}`);
+      const sorted = [...latencies].sort((a, b) => a - b);
+      const at = (q: number) => sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] ?? NaN;
+      console.log(`${name.padEnd(48)} ${ms.toFixed(0).padStart(7)} ms (answer ${res.status}; ${(file.length / 1048576).toFixed(2)} MiB)`);
+      console.log(`${'  GET /api/health during it'.padEnd(48)} p50 ${at(0.5).toFixed(1)} ms, p99 ${at(0.99).toFixed(1)} ms, max ${sorted[sorted.length - 1]?.toFixed(1)} ms (${sorted.length} answers)`);
+    }
+  } finally {
+    await new Promise((resolve) => server.close(resolve));
   }
 }

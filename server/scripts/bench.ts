@@ -7,7 +7,8 @@ import { screenCase } from '../../shared/screening/index.js';
 import { parseSweepCsv } from '../../shared/imports/sweep-csv.js';
 
 // npm run bench — speed of the pure engine on the example cases, of the sweep parser and of the demo seed into a fresh
-// database; `-- --db` adds API timings on a throw-away MariaDB with a 5 000-unit fleet. Figures go to the README.
+// database; `-- --db` adds API timings on a throw-away MariaDB with a 5 000-unit fleet, and the largest allowed readings
+// import with /api/health's latency during it (`-- --imports`: that alone, without the fleet). Figures go to the README.
 // Timing belongs here, never in tests.
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -27,8 +28,10 @@ function bench(name: string, fn: () => void, minMs = 1000): void {
   console.log(`${name.padEnd(44)} ${n.toString().padStart(7)} runs  ${per.toFixed(3).padStart(9)} ms/run  ${(1000 / per).toFixed(0).padStart(8)} /s`);
 }
 
+// `-- --imports` alone: only the import figures (the engine's are left out).
+const importsOnly = process.argv.includes('--imports') && !process.argv.includes('--db');
 const casesDir = path.join(root, 'examples', 'cases');
-for (const file of readdirSync(casesDir).filter((f) => f.endsWith('.json') && !f.endsWith('.result.json')).sort()) {
+for (const file of importsOnly ? [] : readdirSync(casesDir).filter((f) => f.endsWith('.json') && !f.endsWith('.result.json')).sort()) {
   const parsed = parseCase(JSON.parse(readFileSync(path.join(casesDir, file), 'utf8')));
   if (!parsed.ok) throw new Error(`${file} is not a valid case`);
   bench(`screenCase ${file}`, () => screenCase(parsed.value));
@@ -46,13 +49,13 @@ const denseCase = parseCase({
   sweeps: [{ label: 'HV-A-open', testType: 'open-circuit', baseline: dense, postFault: dense.map(([f, m]) => [f * 1.001, m + 0.1]) }],
 });
 if (!denseCase.ok) throw new Error('bench case invalid');
-bench('screenCase, one 20 000-point sweep pair', () => screenCase(denseCase.value));
+if (!importsOnly) bench('screenCase, one 20 000-point sweep pair', () => screenCase(denseCase.value));
 
 const csv = ['frequencyHz,magnitudeDb,phaseDeg', ...dense.map(([f, m]) => `${f},${m},0`)].join('\n');
 bench('parseSweepCsv, 20 000 rows', () => parseSweepCsv(csv));
 // The demo seed needs a throw-away MariaDB (installed when missing, as by `npm start`); `-- --no-db` skips it.
 if (!process.argv.includes('--no-db')) {
   const { benchDatabase } = await import('./bench-db.js');
-  await benchDatabase({ fleet: process.argv.includes('--db') });
+  await benchDatabase({ fleet: process.argv.includes('--db'), imports: process.argv.includes('--imports') });
 }
 console.log(`\nNode ${process.version}, ${process.platform}/${process.arch}`);

@@ -4,6 +4,7 @@ import { readingSetToRows, rowsToReadingSet, ROW_KEYS, SET_LEVEL_KEYS } from '..
 import type { ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
 import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
+import { insertReadingRows } from '../imports/insert-readings.js';
 import { Reading } from './reading.entity.js';
 import { ReadingSet, type ReadingSetKind } from './reading-set.entity.js';
 
@@ -77,7 +78,7 @@ export async function insertReadingSet(m: EntityManager, clock: Clock, input: Ne
     }),
   );
   const rows = readingSetToRows(b);
-  if (rows.length) await m.insert(Reading, rows.map((r) => ({ ...r, readingSetId: set.id })));
+  await insertReadingRows(m, set.id, rows);
   if (set.isReference) await unmarkOtherReferences(m, clock, input.userId, set);
   await audit(m, clock, {
     userId: input.userId,

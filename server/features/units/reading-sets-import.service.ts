@@ -12,7 +12,8 @@ import { AppError, badRequest } from '../../common/app-error.js';
 import type { Clock } from '../../common/clock.js';
 import { READING_SET_IMPORT_ROW_LIMIT } from '../../../shared/imports/reading-sets-sheet-fields.js';
 import { UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
-import { readSheetFile, unitIdsBySerial, yieldToEventLoop } from './units-import.service.js';
+import { yieldToEventLoop } from '../imports/insert-readings.js';
+import { readSheetFile, unitIdsBySerial } from './units-import.service.js';
 import { addUnitReadingSet } from './units.service.js';
 
 // Reading sets of many units from one .xlsx or CSV file (one reading a row): every row checked before anything is

@@ -25,6 +25,7 @@ import { fileExtension, UPLOAD_TYPES, type UploadType } from '../../../shared/up
 import { parseOr400 } from '../../common/validate.js';
 import { Design } from '../designs/design.entity.js';
 import { Site } from '../sites/site.entity.js';
+import { yieldToEventLoop } from '../imports/insert-readings.js';
 import { Unit } from './unit.entity.js';
 import { addUnitReadingSet, createUnit } from './units.service.js';
 
@@ -119,8 +120,6 @@ export function rowCapError(problem: string): AppError {
   return new AppError('invalid_file', `The file is too long; nothing was imported: ${problem}.`, 400, { file: problem });
 }
 
-/** Lets other requests run (health, reads) between the steps of a long import. */
-export const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /** Sheet rows as CSV text, each row on the line of its number (so errors name the sheet's rows). */
 function sheetRowsAsCsv(rows: readonly SheetRow[]): string {
