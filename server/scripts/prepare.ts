@@ -20,7 +20,16 @@ export async function migrateOn(db: DataSource, opts: MigrateOptions = {}): Prom
   if (ran.length) log(`Applied ${ran.length} migration(s): ${ran.map((m) => m.name).join(', ')}`);
   if (opts.grantTo) {
     const database = String(db.options.database);
-    await applyAppGrants((sql, params) => db.query(sql, params), database, opts.grantTo.user, opts.grantTo.host);
+    // The app account is taken to connect from where the migrator does (both made for one host, README).
+    const host = opts.grantTo.host ?? String((await db.query('SELECT CURRENT_USER() AS u'))[0].u).replace(/^.*@/, '');
+    try {
+      await applyAppGrants((sql, params) => db.query(sql, params), database, opts.grantTo.user, host);
+    } catch (err) {
+      throw new Error(
+        `The migrations ran, but the app account '${opts.grantTo.user}'@'${host}' could not be given its rights on ${database} ` +
+          `(${err instanceof Error ? err.message : String(err)}). See the README, "Database accounts".`,
+      );
+    }
   }
   return ran.map((m) => m.name);
 }

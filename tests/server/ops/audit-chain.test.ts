@@ -9,6 +9,7 @@ import { audit, verifyAuditChain } from '../../../server/common/audit.js';
 import { AUDIT_CHAIN_COLUMNS, auditEntryHash, factsFromRaw, type RawAuditRow } from '../../../server/common/audit-hash.js';
 import { systemClock } from '../../../server/common/clock.js';
 import { loadConfig } from '../../../server/config.js';
+import { createDataSource } from '../../../server/db/create-data-source.js';
 import { bearer, createTestUser } from '../../helpers/db.js';
 import { openMigratedDb, openOwnerDb } from '../../helpers/fixed-db.js';
 
@@ -72,6 +73,28 @@ describe('the app database account', () => {
     await expect(db.query('DROP TABLE audit_entry')).rejects.toMatchObject({ code: 'ER_TABLEACCESS_DENIED_ERROR' });
     await expect(db.query('CREATE TABLE probe_x (id int)')).rejects.toMatchObject({ code: 'ER_TABLEACCESS_DENIED_ERROR' });
     await expect(db.query('INSERT INTO migrations (timestamp, name) VALUES (1, ?)', ['Probe1'])).rejects.toMatchObject({ code: 'ER_TABLEACCESS_DENIED_ERROR' });
+  });
+
+  it('loses a database-wide grant (as an earlier provisioning gave it) at the next migration run', async () => {
+    const grants = async (d: DataSource) => ((await d.query('SHOW GRANTS')) as Record<string, string>[]).map((r) => Object.values(r)[0]).join('\n');
+    await owner.query(`GRANT ALL PRIVILEGES ON \`${database}\`.* TO '${config.DB_USER}'@'127.0.0.1'`);
+    const allOnDb = new RegExp(`GRANT ALL PRIVILEGES ON \`${database}\`\\.\\*`);
+    // New connections: database-wide rights are read when a connection opens its database.
+    const plain = createDataSource({ ...config, DB_NAME: database });
+    await plain.initialize();
+    try {
+      expect(await grants(plain)).toMatch(allOnDb);
+    } finally {
+      await plain.destroy();
+    }
+    const after = await openMigratedDb(database); // migrating re-applies the table grants and takes the wide one back
+    try {
+      expect(await grants(after)).not.toMatch(allOnDb);
+      expect(await grants(after)).toMatch(/GRANT SELECT, INSERT ON `[^`]+`\.`audit_entry`/);
+      await expect(after.query('DELETE FROM audit_entry WHERE id = 1')).rejects.toMatchObject({ code: 'ER_TABLEACCESS_DENIED_ERROR' });
+    } finally {
+      await after.destroy();
+    }
   });
 });
 
