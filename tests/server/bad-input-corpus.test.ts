@@ -24,7 +24,7 @@ import { Unit } from '../../server/features/units/unit.entity.js';
 import { routeTable } from '../../server/routes.js';
 import { bearer, createTestUser } from '../helpers/db.js';
 import { BASES, idParams, PHOTO_PNG, RELAY_TXT, SWEEP_CSV, type Base, type CorpusIds } from '../helpers/corpus/bases.js';
-import { mutationsOf, SeenSchemas, type Carrier, type FieldMutation, type Part } from '../helpers/corpus/mutations.js';
+import { jsonText, mutationsOf, SeenSchemas, type Carrier, type FieldMutation, type Part } from '../helpers/corpus/mutations.js';
 import { countChanges, countDecreases, countRows, entityTables, type RowCounts } from '../helpers/corpus/row-counts.js';
 import { routeKey, schemasOf, type RouteSchemas } from '../helpers/corpus/route-specs.js';
 import { fileMutations } from '../helpers/corpus/uploads.js';
@@ -138,16 +138,20 @@ async function send(c: Case, ids: CorpusIds, auth?: { Authorization: string }) {
     else if (!input.body || !Object.keys(input.body).length) req = req.field('file', '');
     return req;
   }
-  return input.body === undefined ? req : req.send(input.body);
+  return input.body === undefined ? req : req.set('Content-Type', 'application/json').send(jsonText(input.body));
 }
 
-/** Whether an error answer names the field: a `fields` key with that segment, or a message containing it. */
+/**
+ * Whether an error answer names the field: a `fields` key with that segment, or (names of three characters or more) a
+ * message with it as a word.
+ */
 function namesField(body: { error?: { message?: string; fields?: Record<string, string> } }, names: string[]): boolean {
   const e = body?.error;
   if (!e) return false;
-  return names.some(
-    (name) => Object.keys(e.fields ?? {}).some((k) => k === name || k.split('.').includes(name)) || [e.message, ...Object.values(e.fields ?? {})].some((t) => String(t).includes(name)),
-  );
+  const keys = Object.keys(e.fields ?? {});
+  const texts = [e.message, ...Object.values(e.fields ?? {})].map(String);
+  const word = (name: string) => new RegExp(`(^|[^A-Za-z0-9_])${name.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}($|[^A-Za-z0-9_])`);
+  return names.some((name) => keys.some((k) => k === name || k.split('.').includes(name)) || (name.length >= 3 && texts.some((t) => word(name).test(t))));
 }
 
 let ids: CorpusIds;
@@ -198,6 +202,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
+  if (process.env.CORPUS_DUMP) (await import('node:fs')).writeFileSync(process.env.CORPUS_DUMP, JSON.stringify((globalThis as any).DUMP));
   await new Promise((done) => server?.close(done));
   const failed = outcomes.filter((o) => o.problems.length);
   if (failed.length) {
@@ -285,6 +290,7 @@ for (const [key, cases] of byRoute) {
           else uncounted.push(title);
         } else problems.push(...(await recount('deleted')));
         outcomes.push({ key, c, status: res.status, problems });
+        if (process.env.CORPUS_DUMP) (globalThis as any).DUMP = [...((globalThis as any).DUMP ?? []), [key, `${c.part}.${c.field}`, c.kind, c.detail, res.status, JSON.stringify(res.body).slice(0, 160)]];
         expect(problems).toEqual([]);
       });
     });

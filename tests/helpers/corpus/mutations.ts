@@ -56,11 +56,15 @@ function setAt(root: unknown, path: Path, value: unknown): unknown {
 
 const getAt = (root: unknown, path: Path): unknown => path.reduce<unknown>((v, k) => (v && typeof v === 'object' ? (v as Record<string | number, unknown>)[k] : undefined), root);
 
-/** An object nested `depth` levels deep: { a: { a: … { a: 1 } } }. */
-export function nested(depth: number): unknown {
-  let v: unknown = 1;
-  for (let i = 0; i < depth; i++) v = { a: v };
-  return v;
+/**
+ * A stand-in for an object nested `depth` levels deep ({ "a": { "a": … 1 } }): JSON.stringify (and the test client's
+ * serializer) overflow the stack long before 5 000 levels, so the body is sent through `jsonText`, which writes it out.
+ */
+export const nested = (depth: number): string => `\u0000nested:${depth}`;
+
+/** A body as JSON text, each `nested()` stand-in written out as its nested object. */
+export function jsonText(body: unknown): string {
+  return JSON.stringify(body).replace(/"\\u0000nested:(\d+)"/g, (_, d: string) => '{"a":'.repeat(Number(d)) + '1' + '}'.repeat(Number(d)));
 }
 
 interface Walk {
