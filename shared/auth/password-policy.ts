@@ -64,7 +64,8 @@ function isDictionaryWord(result: ZxcvbnResult): boolean {
 export function passwordPolicyProblem(password: string, personal: readonly string[] = []): string | null {
   if (characters(password) < PASSWORD_MIN_LENGTH) return `at least ${PASSWORD_MIN_LENGTH} characters`;
   if (utf8Bytes(password) > PASSWORD_MAX_BYTES) return `at most ${PASSWORD_MAX_BYTES} bytes (fewer characters with accents or symbols)`;
-  const inputs = personal.flatMap((p) => [p, ...p.split(/[\s@.+_-]+/)]).map((p) => p.trim()).filter((p) => p.length >= 3);
+  // Each detail whole, an e-mail's part before the @, and their words.
+  const inputs = personal.flatMap((p) => [p, p.split('@')[0]!, ...p.split(/[\s@.+_-]+/)]).map((p) => p.trim()).filter((p) => p.length >= 3);
   const result = zxcvbn().check(password, inputs);
   if (isDictionaryWord(result)) {
     const own = result.sequence[0]!.dictionaryName === 'userInputs';

@@ -5,7 +5,7 @@ import { ApiError, readStoredToken, writeStoredToken } from '../api/client';
 import type { Role } from '../../shared/schemas/enums';
 import type { SessionUser } from '../../shared/schemas/responses';
 import type { PasswordChange } from '../../shared/schemas/auth';
-import { changePassword as postPassword, login, me } from '../api/auth';
+import { changePassword as postPassword, login, logout, me } from '../api/auth';
 
 export const useSessionStore = defineStore('session', () => {
   const token = ref<string | null>(readStoredToken());
@@ -40,15 +40,27 @@ export const useSessionStore = defineStore('session', () => {
   /** Signed in with a one-time password: a new one must be chosen before any other page. */
   const mustChangePassword = computed(() => user.value?.mustChangePassword === true);
 
-  // Replace one's own password; the answer is the user with the duty cleared. A refusal is thrown as ApiError.
+  // Replace one's own password; every older token ends, so the answer's new token replaces ours. Resolves to the user
+  // with the duty cleared; a refusal is thrown as ApiError.
   async function changePassword(body: PasswordChange): Promise<SessionUser> {
-    const updated = await postPassword(body);
-    user.value = updated;
-    return updated;
+    const answer = await postPassword(body);
+    writeStoredToken(answer.token);
+    token.value = answer.token;
+    user.value = answer.user;
+    return answer.user;
   }
 
-  // Forget the token and the user (the server keeps no session: a JWT simply stops being sent).
-  function signOut(): void {
+  // Sign out: forget the token and the user here at once, and ask the server to end every token of this person
+  // (POST /api/auth/logout). Signed out here even when the server cannot be reached or refuses.
+  function signOut(): Promise<void> {
+    const sent = token.value;
+    forget();
+    if (!sent) return Promise.resolve();
+    return logout(sent).catch(() => undefined);
+  }
+
+  // Forget the token and the user here only (the server already refused the token).
+  function forget(): void {
     writeStoredToken(null);
     token.value = null;
     user.value = null;
@@ -72,7 +84,7 @@ export const useSessionStore = defineStore('session', () => {
         restoreError.value = null;
       } catch (error) {
         if (error instanceof ApiError && error.status === 401) {
-          signOut();
+          forget();
         } else {
           // The server is down or answered oddly: keep the token so a reload can succeed, but stay signed out for now.
           restoreError.value = error instanceof ApiError ? error : new ApiError(0, 'unknown', String(error));

@@ -72,7 +72,7 @@ describe('PasswordPage (/password) and its guard', () => {
   });
 
   it('sends the current and new password, then continues to the page first asked for', async () => {
-    const { requests } = signedIn(true, { 'POST /api/auth/password': { body: makeUser({ roles: ['tester'], mustChangePassword: false }) } });
+    const { requests } = signedIn(true, { 'POST /api/auth/password': { body: { token: 'after-change', user: makeUser({ roles: ['tester'], mustChangePassword: false }) } } });
     const { wrapper, router } = await mountApp('/no-such-page');
     expect(router.currentRoute.value.name).toBe('password');
     await wrapper.get('input[data-test="password-current"]').setValue(ONE_TIME);
