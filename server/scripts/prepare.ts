@@ -9,7 +9,7 @@ import { applyAppGrants } from './mariadb.js';
 
 export interface MigrateOptions {
   log?: (l: string) => void;
-  /** The app account to give its table rights after the migrations (needs GRANT OPTION on the connection). */
+  /** The app account (user@host, host default 127.0.0.1) to give its table rights after the migrations (needs GRANT OPTION). */
   grantTo?: { user: string; host?: string };
 }
 
@@ -20,8 +20,8 @@ export async function migrateOn(db: DataSource, opts: MigrateOptions = {}): Prom
   if (ran.length) log(`Applied ${ran.length} migration(s): ${ran.map((m) => m.name).join(', ')}`);
   if (opts.grantTo) {
     const database = String(db.options.database);
-    // The app account is taken to connect from where the migrator does (both made for one host, README).
-    const host = opts.grantTo.host ?? String((await db.query('SELECT CURRENT_USER() AS u'))[0].u).replace(/^.*@/, '');
+    // Default: the host the provisioning makes the accounts for; migrateAsOwner passes the migrator's own host.
+    const host = opts.grantTo.host ?? '127.0.0.1';
     try {
       await applyAppGrants((sql, params) => db.query(sql, params), database, opts.grantTo.user, host);
     } catch (err) {
@@ -62,7 +62,10 @@ export async function migrateAsOwner(config: Config, log: (l: string) => void = 
   const db = createDataSource(asOwner ? { ...config, DB_USER: config.dbOwnerUser, dbPassword: config.dbOwnerPassword } : config);
   await db.initialize();
   try {
-    return await migrateOn(db, { log, grantTo: asOwner ? { user: config.DB_USER } : undefined });
+    if (!asOwner) return await migrateOn(db, { log });
+    // The app account is taken to connect from where the migrator does (both made for one host: README).
+    const host = String((await db.query('SELECT CURRENT_USER() AS u'))[0].u).replace(/^.*@/, '');
+    return await migrateOn(db, { log, grantTo: { user: config.DB_USER, host } });
   } finally {
     await db.destroy();
   }
