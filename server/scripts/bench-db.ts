@@ -3,7 +3,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
-import { performance } from 'node:perf_hooks';
+import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
 import { ensureDatabaseAndUser, mariaDbPaths, startMariaDb, stopMariaDb } from './mariadb.js';
 
 // npm run bench: the demo seed into fresh databases on a throw-away MariaDB; with `-- --db` also API timings on a
@@ -192,19 +192,22 @@ async function benchImports(
           await new Promise((resolve) => setTimeout(resolve, 10));
         }
       })();
+      const delay = monitorEventLoopDelay({ resolution: 5 });
+      delay.enable();
       const form = new FormData();
       form.append('file', new Blob([new Uint8Array(file)], { type: 'text/csv' }), 'readings.csv');
       const start = performance.now();
       const res = await fetch(`${base}/api/sessions/${session.id}/imports`, { method: 'POST', headers: tester, body: form });
       await res.arrayBuffer();
       const ms = performance.now() - start;
+      delay.disable();
       importing = false;
       await poll;
       if (res.status !== expected) throw new Error(`${name}: answered ${res.status}, expected ${expected}`);
       const sorted = [...latencies].sort((a, b) => a - b);
       const at = (q: number) => sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] ?? NaN;
       console.log(`${name.padEnd(48)} ${ms.toFixed(0).padStart(7)} ms (answer ${res.status}; ${(file.length / 1048576).toFixed(2)} MiB)`);
-      console.log(`${'  GET /api/health during it'.padEnd(48)} p50 ${at(0.5).toFixed(1)} ms, p99 ${at(0.99).toFixed(1)} ms, max ${sorted[sorted.length - 1]?.toFixed(1)} ms (${sorted.length} answers)`);
+      console.log(`${'  GET /api/health during it'.padEnd(48)} p50 ${at(0.5).toFixed(1)} ms, p99 ${at(0.99).toFixed(1)} ms, max ${sorted[sorted.length - 1]?.toFixed(1)} ms (${sorted.length} answers); longest event-loop stall ${(delay.max / 1e6).toFixed(0)} ms`);
     }
   } finally {
     await new Promise((resolve) => server.close(resolve));

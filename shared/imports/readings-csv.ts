@@ -170,10 +170,11 @@ const TERMINAL = /^[A-Za-z0-9](?:[A-Za-z0-9._-]{0,18}[A-Za-z0-9])?$/;
 /** Above this many bad rows the rest are counted, not listed, so a wrong file cannot produce a huge answer. */
 const MAX_LISTED_BAD_ROWS = 1000;
 /**
- * Readings a file may hold. A unit's full set (every configuration, phase, gas and bushing of a three-winding unit) is a
- * few hundred rows; 5 000 leaves room for any real file and keeps the largest one's check to tens of milliseconds.
+ * Readings a file may hold. A unit's full set is a few hundred rows at most (capacitance and dissipation of each
+ * configuration, four quantities a phase, seven gases, four readings a bushing terminal); 2 000 leaves room for any real
+ * file and keeps the check of the largest to milliseconds (figures: `npm run bench -- --imports`, README).
  */
-export const READINGS_MAX_ROWS = 5000;
+export const READINGS_MAX_ROWS = 2000;
 
 // ---------------------------------------------------------------------------------------------------------------------
 // Readings

@@ -145,6 +145,6 @@ describe('row cap', () => {
     const lines = Array.from({ length: n }, (_, i) => `capacitance,C${i.toString(26).replace(/\d/g, (d) => 'QRSTUVWXYZ'[Number(d)])},,${1000 + i},pF`);
     const res = await api().post(`/api/sessions/${sessionId}/imports`).set(tester).attach('file', Buffer.from(`quantity,configuration,phase,value,unit\n${lines.join('\n')}\n`), 'big.csv');
     await expectRefused(res, before, 400);
-    expect(res.body.error.fields.file).toMatch(/at most 5 000 rows a file; this file has 5 001/);
+    expect(res.body.error.fields.file).toMatch(/at most 2 000 rows a file; this file has 2 001/);
   });
 });

@@ -45,7 +45,7 @@ describe('row caps of the parsers', () => {
     expect(atCap.ok && atCap.rows.length).toBe(READINGS_MAX_ROWS);
     expect(parseReadingsCsv(readings(READINGS_MAX_ROWS + 1))).toEqual({
       ok: false,
-      fields: { file: 'at most 5 000 rows a file; this file has 5 001: split it into smaller files' },
+      fields: { file: 'at most 2 000 rows a file; this file has 2 001: split it into smaller files' },
     });
   });
 
