@@ -76,6 +76,9 @@ const DAY = 24 * HOUR;
 /** A body as the route takes it: parsed by the route's schema (defaults filled, bad demo data fails loudly). */
 const asRoute = <S extends z.ZodType>(schema: S, value: unknown): z.output<S> => schema.parse(value);
 
+/** A demo design without the demo's own keys (key, tap, nominal readings). */
+const designFieldsOf = ({ key: _key, tap: _tap, nominal: _nominal, ...design }: (typeof DEMO_DESIGNS)[keyof typeof DEMO_DESIGNS]) => design;
+
 export async function seedScenario(m: EntityManager, clock: FixedClock, users: DemoUserIds, now: Date): Promise<DemoScenarioResult> {
   const t = demoTimeline(now);
 
@@ -97,8 +100,8 @@ export async function seedScenario(m: EntityManager, clock: FixedClock, users: D
             m,
             clock,
             users.admin,
-            // The body schema keeps the design's own fields and drops the demo's (key, tap, nominal readings).
-            asRoute(designBodySchema, d),
+            // The design's own fields only: the body schema refuses unknown keys (the demo's key, tap, nominal readings).
+            asRoute(designBodySchema, designFieldsOf(d)),
           )
         ).id;
   }
