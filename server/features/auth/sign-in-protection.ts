@@ -16,9 +16,9 @@ export function trustProxySetting(value: string | undefined): boolean | number |
 }
 
 /**
- * POST /api/auth/login, per client address: at most LOGIN_RATE_LIMIT_MAX failed sign-ins (any accounts) in
+ * POST /api/auth/login, per client address: at most LOGIN_RATE_LIMIT_MAX failed sign-ins (401, any accounts) in
  * LOGIN_RATE_LIMIT_WINDOW_MINUTES, then 429 too_many_attempts with Retry-After until the window ends. Successful sign-ins
- * are not counted. The count is held in this process's memory (one app server; several would each count their own).
+ * and malformed requests (400) are not counted. The count is held in this process's memory (one app server; several would each count their own).
  */
 export function loginRateLimit(context: AppContext): RequestHandler {
   const { config } = context;
@@ -27,7 +27,9 @@ export function loginRateLimit(context: AppContext): RequestHandler {
     windowMs,
     limit: config.LOGIN_RATE_LIMIT_MAX ?? 20,
     skip: (req) => req.method !== 'POST',
+    // Only refused credentials (401) count: a sign-in, a malformed request (400) or a refusal by this limit does not.
     skipSuccessfulRequests: true,
+    requestWasSuccessful: (_req, res) => res.statusCode !== 401,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     // A client may send X-Forwarded-For when no proxy is trusted; it is simply not believed (TRUST_PROXY).

@@ -218,10 +218,15 @@ describe('throttling per client address', () => {
     expect(logged?.email).toBe(u.email);
   });
 
-  it('does not count successful sign-ins', async () => {
+  it('does not count successful sign-ins or malformed requests', async () => {
     const app = appWith({ LOGIN_RATE_LIMIT_MAX: 2 });
     const u = await createTestUser(env.db, ['tester']);
     for (let i = 0; i < 4; i++) expect((await login(u.email, TEST_PASSWORD, app)).status).toBe(200);
+    for (let i = 0; i < 4; i++) expect((await login('not an e-mail', 'x', app)).status).toBe(400);
+    expect((await login(u.email, 'wrong one', app)).status).toBe(401);
+    expect((await login(u.email, TEST_PASSWORD, app)).status).toBe(200);
+    expect((await login(u.email, 'wrong two', app)).status).toBe(401);
+    expect((await login(u.email, TEST_PASSWORD, app)).status).toBe(429);
   });
 });
 
