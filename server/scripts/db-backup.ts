@@ -37,7 +37,7 @@ const LOCAL_HOSTS = new Set(['127.0.0.1', 'localhost', '::1']);
 /**
  * The private server under DATA_DIR when DB_HOST is this machine and its socket answers (admin over the socket; an
  * error when its datadir is there but it does not answer); otherwise (no private server) the configured server over TCP
- * with DB_USER and its password.
+ * as the migrator when its password is set (it may read triggers and create tables), else as DB_USER.
  */
 export function targetFor(config: Config): { target: DbTarget; paths: MariaDbPaths | null } {
   if (LOCAL_HOSTS.has(config.DB_HOST)) {
@@ -47,15 +47,9 @@ export function targetFor(config: Config): { target: DbTarget; paths: MariaDbPat
       throw new ProvisionError(`The private MariaDB under ${p.baseDir} does not answer on ${p.socket}: start it with npm run db:start.`);
     }
   }
+  const [user, password] = config.dbOwnerPassword ? [config.dbOwnerUser, config.dbOwnerPassword] : [config.DB_USER, config.dbPassword];
   return {
-    target: {
-      kind: 'tcp',
-      host: config.DB_HOST,
-      port: config.DB_PORT,
-      user: config.DB_USER,
-      password: config.dbPassword,
-      what: `${config.DB_USER}@${config.DB_HOST}:${config.DB_PORT}`,
-    },
+    target: { kind: 'tcp', host: config.DB_HOST, port: config.DB_PORT, user, password, what: `${user}@${config.DB_HOST}:${config.DB_PORT}` },
     paths: null,
   };
 }

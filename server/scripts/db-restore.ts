@@ -11,8 +11,8 @@ import { loadConfig, type Config } from '../config.js';
 import { createDataSource } from '../db/create-data-source.js';
 import { CHECKSUM_SUFFIX, checksumProblem, databaseNameProblem, parseChecksumFile, parseRestoreArgs, restoreDatabaseName } from './backup-files.js';
 import { clientErrors, clientInvocation, querySql, targetFor, type DbTarget } from './db-backup.js';
-import { clientBinary } from './mariadb.js';
-import { migrateAndSeedOn } from './prepare.js';
+import { applyAppGrants, clientBinary } from './mariadb.js';
+import { migrateAsOwner, migrateOn } from './prepare.js';
 
 // npm run db:restore -- FILE [--into NAME] — checks the backup's checksum, loads it into a FRESH database (default
 // <DB_NAME>_restore_<UTC time>; an existing database with tables is refused), runs the migrations on it, and says how to
@@ -125,13 +125,25 @@ export function adminDataSource(t: Extract<DbTarget, { kind: 'socket' }>, config
   return new DataSource({ ...base.options, host: undefined, port: undefined, socketPath: t.socket, username: t.user, password: undefined } as typeof base.options);
 }
 
-/** Migrations through prepare.ts's migrate function: admin over the socket (private server) or the configured account. */
-export function migratorFor(t: DbTarget, config: Config): (database: string) => Promise<string[]> {
+/**
+ * The migrations of a restored database, through prepare.ts: on the private server as its admin over the socket, then
+ * the app account's table rights (as after every migration run; when that fails, a warning: `npm start` on it gives
+ * them); on a database of your own as the migrator (DB_OWNER_USER with DB_OWNER_PASSWORD, else DB_USER), as
+ * `npm run db:migrate` does.
+ */
+export function migratorFor(t: DbTarget, config: Config, warn: (line: string) => void = () => {}): (database: string) => Promise<string[]> {
   return async (database) => {
-    const db = t.kind === 'socket' ? adminDataSource(t, config, database) : createDataSource({ ...config, DB_NAME: database });
+    if (t.kind === 'tcp') return migrateAsOwner({ ...config, DB_NAME: database });
+    const db = adminDataSource(t, config, database);
     await db.initialize();
     try {
-      return (await migrateAndSeedOn(db, { seed: false })).migrations;
+      const ran = await migrateOn(db);
+      try {
+        await applyAppGrants((sql, params) => db.query(sql, params), database, config.DB_USER);
+      } catch (err) {
+        warn(`The app account ${config.DB_USER} was not given its rights on ${database} (${(err as Error).message}); DB_NAME=${database} npm start gives them.`);
+      }
+      return ran;
     } finally {
       await db.destroy();
     }
@@ -144,12 +156,13 @@ async function main(): Promise<void> {
   const { target } = targetFor(config);
   const abs = path.resolve(file);
   console.log(`Restoring ${abs} on ${target.what} …`);
-  const r = await runRestore({ target, file: abs, into, sourceDb: config.DB_NAME, migrate: migratorFor(target, config) });
+  const r = await runRestore({ target, file: abs, into, sourceDb: config.DB_NAME, migrate: migratorFor(target, config, (l) => console.warn(l)) });
   console.log(`Checksum: ${r.sha256} (matches ${path.basename(abs)}${CHECKSUM_SUFFIX})`);
   console.log(`Restored into the new database ${r.database}.`);
   console.log(r.migrations.length ? `Applied ${r.migrations.length} migration(s): ${r.migrations.join(', ')}` : 'Migrations: already up to date.');
   console.log(`${config.DB_NAME} is unchanged. To run the app on the restored data, stop it and start it with:`);
   console.log(`  DB_NAME=${r.database} npm start`);
+  console.log(`(check its audit trail first with DB_NAME=${r.database} npm run audit:verify)`);
 }
 
 if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {

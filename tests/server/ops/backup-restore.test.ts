@@ -157,6 +157,15 @@ describe('backup and restore', () => {
     expect(u.year).toBe(2010);
     const [gone] = await conn.query<mysql.RowDataPacket[]>(`SELECT id FROM \`${restored.database}\`.fault_event WHERE id = ?`, [added.body.id]);
     expect(gone).toHaveLength(0);
+    // The app's account may use the restored database at once, with the same rights as on any other (audit append-only).
+    const asApp = await mysql.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_USER, password: config.dbPassword, database: restored.database });
+    try {
+      const [[n]] = await asApp.query<mysql.RowDataPacket[]>('SELECT COUNT(*) AS n FROM unit');
+      expect(n.n).toBeGreaterThan(0);
+      await expect(asApp.query('DELETE FROM audit_entry')).rejects.toThrow(/denied/);
+    } finally {
+      await asApp.end();
+    }
     // The database in use is untouched.
     expect((await snapshot(SRC)).unit).toBe(changed.unit);
 
