@@ -221,14 +221,26 @@ export const UNKNOWN_FIELD = 'unknown field';
  * Zod issues as dotted field paths and messages, with one entry per unknown key (a strict object's `unrecognized_keys`
  * issue names the object; the path here names the key).
  */
-export function issueEntries(issues: readonly z.core.$ZodIssue[]): { path: string[]; message: string }[] {
+export function issueEntries(issues: readonly z.core.$ZodIssue[], base: string[] = []): { path: string[]; message: string }[] {
   const out: { path: string[]; message: string }[] = [];
   for (const issue of issues) {
-    const path = issue.path.map((p) => String(p));
+    const path = [...base, ...issue.path.map((p) => String(p))];
     if (issue.code === 'unrecognized_keys') for (const key of issue.keys.slice(0, 20)) out.push({ path: [...path, key], message: UNKNOWN_FIELD });
+    else if (issue.code === 'invalid_union' && issue.errors.length) out.push(...issueEntries(closestBranch(issue.errors), path));
     else out.push({ path, message: issue.message });
   }
   return out;
+}
+
+/**
+ * The issues of the union branch the value was closest to (a reactance phase `{ "percent": "11.6" }` is a percent with
+ * a bad number, not a volts/amps measurement missing both): the fewest issues, unknown keys and missing fields counting
+ * against a branch, so the message names the field itself ("reactance.A.percent") rather than "reactance.A".
+ */
+function closestBranch(branches: readonly (readonly z.core.$ZodIssue[])[]): readonly z.core.$ZodIssue[] {
+  const cost = (b: readonly z.core.$ZodIssue[]) =>
+    b.reduce((n, i) => n + (i.code === 'unrecognized_keys' ? 10 * i.keys.length : i.code === 'invalid_type' && i.input === undefined ? 5 : 1), 0);
+  return branches.reduce((best, b) => (cost(b) < cost(best) ? b : best));
 }
 
 /** The depth of a parsed JSON value (a scalar 0, `{}` 1, `{"a":{}}` 2), counted without recursion; stops past `limit`. */

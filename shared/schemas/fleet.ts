@@ -318,6 +318,10 @@ function dateOrInstant(endOfDay: boolean) {
     .trim()
     .transform((s, ctx) => {
       const d = parseDateOrInstant(s, endOfDay);
+      if (d && d.getUTCFullYear() < 1900) {
+        ctx.addIssue({ code: 'custom', message: 'a date from 1900-01-01 on' });
+        return z.NEVER;
+      }
       if (!d) {
         ctx.addIssue({ code: 'custom', message: 'an ISO date (2026-07-01) or date-time (2026-07-01T03:12:00Z)' });
         return z.NEVER;

@@ -181,6 +181,10 @@ describe('unknown fields and depth', () => {
     expect(r.ok ? [] : r.errors).toEqual([{ path: 'postFault.capacitanceModes.CHL.foo', message: 'unknown field' }]);
     expect(issuesAt(eventBodySchema, { unitId: 1, occurredAt: '2026-11-28', type: 'three-phase', side: 'lv', shots: [{ currentKA: 1, durationS: 0.1, extra: 1 }] }, 'shots.0').length).toBe(1);
   });
+  it('a bad value inside a union (a reactance phase) is named by its own field, not the phase', () => {
+    const r = parseCase({ ...cleanCase(), baseline: { reactance: { A: { percent: '11.6' }, B: { volts: 200 } } } });
+    expect(r.ok ? [] : r.errors.map((e) => e.path)).toEqual(['baseline.reactance.A.percent', 'baseline.reactance.B.amps']);
+  });
   it('jsonDepth counts levels without recursion (5 000 deep is fine)', () => {
     expect(jsonDepth(1, 32)).toBe(0);
     expect(jsonDepth({}, 32)).toBe(1);
