@@ -190,6 +190,8 @@ function walkString(w: Walk, s: z.ZodType, sample: unknown, path: Path) {
   if (w.carrier === 'json') add(w, path, 'lone-surrogate', 'a lone UTF-16 surrogate', () => LONE_SURROGATE);
   if (isDate) {
     add(w, path, 'out-of-range', 'year 0001', () => '0001-01-01T00:00:00Z');
+    // A stored date: an event or a test cannot lie decades ahead (a filter of a list may).
+    if (w.part === 'body') add(w, path, 'out-of-range', 'year 2099', () => '2099-01-01T00:00:00Z');
     add(w, path, 'out-of-range', 'year 10000', () => '+010000-01-01T00:00:00Z');
   } else add(w, path, 'formula', 'formula text', () => FORMULA, { expect: 'no-500' });
 }
@@ -259,6 +261,11 @@ function walkArray(w: Walk, s: z.ZodType, sample: unknown, path: Path) {
   const element = d.element as z.ZodType;
   const list = Array.isArray(sample) ? sample : [];
   const { max } = lengthBounds(s);
+  if (w.carrier === 'query' && defOf(unwrap(element)).type === 'string') {
+    // One or several values of a list (`status=testing,released`): an unknown one, and one too long for a URL's field.
+    add(w, path, 'out-of-range', '"not-an-option", not one of the choices', () => 'not-an-option');
+    add(w, path, 'too-long', `${UNBOUNDED_TEXT.query} characters`, () => 'k'.repeat(UNBOUNDED_TEXT.query));
+  }
   if (w.carrier !== 'json') return;
   add(w, path, 'wrong-type', 'text instead of a list', () => 'text');
   const item = list.length ? list[0] : sampleValue(element);
