@@ -10,6 +10,8 @@ import { AUDIT_CHAIN_COLUMNS, auditEntryHash, factsFromRaw, type RawAuditRow } f
 import { systemClock } from '../../../server/common/clock.js';
 import { loadConfig } from '../../../server/config.js';
 import { createDataSource } from '../../../server/db/create-data-source.js';
+import { AuditChain1796420000000 } from '../../../server/db/migrations/1796420000000-audit-chain.js';
+import { applyAppGrants } from '../../../server/scripts/mariadb.js';
 import { bearer, createTestUser } from '../../helpers/db.js';
 import { openMigratedDb, openOwnerDb } from '../../helpers/fixed-db.js';
 
@@ -218,6 +220,27 @@ describe('the hash chain', () => {
     await swap();
     expect(await verifyAuditChain(db.manager)).toMatchObject({ intact: false, broken: { id: a, kind: 'reordered', message: expect.stringContaining(`written as entry ${b}`) } });
     await swap();
+    expect((await verifyAuditChain(db.manager)).intact).toBe(true);
+  });
+});
+
+describe('the migration that adds the chain', () => {
+  it('chains existing entries in id order to the same hashes audit() gives them when writing', async () => {
+    const before: { id: number; prevHash: string; hash: string }[] = await db.query('SELECT id, prevHash, hash FROM audit_entry ORDER BY id');
+    expect(before.length).toBeGreaterThan(10);
+    const migration = new AuditChain1796420000000();
+    const qr = owner.createQueryRunner();
+    try {
+      await migration.down(qr); // entries without their hashes, as before the migration
+      expect((await qr.query('SHOW COLUMNS FROM audit_entry')).map((c: { Field: string }) => c.Field)).not.toContain('hash');
+      await migration.up(qr);
+      await applyAppGrants((sql, params) => qr.query(sql, params), database, config.DB_USER); // as after every migration run
+    } finally {
+      await qr.release();
+    }
+    expect(await db.query('SELECT id, prevHash, hash FROM audit_entry ORDER BY id')).toEqual(before);
+    expect(await verifyAuditChain(db.manager)).toEqual({ intact: true, entries: before.length });
+    await audit(db.manager, systemClock, { userId: null, action: 'create', entity: 'probe', entityId: 'after-backfill' });
     expect((await verifyAuditChain(db.manager)).intact).toBe(true);
   });
 });
