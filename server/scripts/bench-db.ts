@@ -209,6 +209,28 @@ async function benchImports(
       console.log(`${name.padEnd(48)} ${ms.toFixed(0).padStart(7)} ms (answer ${res.status}; ${(file.length / 1048576).toFixed(2)} MiB)`);
       console.log(`${'  GET /api/health during it'.padEnd(48)} p50 ${at(0.5).toFixed(1)} ms, p99 ${at(0.99).toFixed(1)} ms, max ${sorted[sorted.length - 1]?.toFixed(1)} ms (${sorted.length} answers); longest event-loop stall ${(delay.max / 1e6).toFixed(0)} ms`);
     }
+    // Storing the readings of a file at the cap: one query-builder INSERT (as the session import stores them) against
+    // 500-row statements with a turn of the event loop between (insertReadingRows), each in a transaction rolled back.
+    const { Reading } = await import('../features/readings/reading.entity.js');
+    const { insertReadingRows } = await import('../features/imports/insert-readings.js');
+    const [set] = await db.query('SELECT id FROM reading_set ORDER BY id DESC LIMIT 1');
+    const rows = Array.from({ length: READINGS_MAX_ROWS }, (_, i) => ({ quantity: 'capacitance', configuration: letters(i), phase: null, mode: null, frequencyHz: null, value: 1000 + i, unit: 'pF' }));
+    for (const [name, store] of [
+      ['one query-builder INSERT', (m: import('typeorm').EntityManager) => m.insert(Reading, rows.map((r) => ({ ...r, readingSetId: set.id })))],
+      ['500-row statements, yielding', (m: import('typeorm').EntityManager) => insertReadingRows(m, set.id, rows)],
+    ] as const) {
+      const delay = monitorEventLoopDelay({ resolution: 5 });
+      const start = performance.now();
+      delay.enable();
+      await db
+        .transaction(async (m) => {
+          await store(m);
+          throw new Error('rollback');
+        })
+        .catch(() => undefined);
+      delay.disable();
+      console.log(`${`store ${READINGS_MAX_ROWS} readings: ${name}`.padEnd(48)} ${(performance.now() - start).toFixed(0).padStart(7)} ms; longest event-loop stall ${(delay.max / 1e6).toFixed(0)} ms`);
+    }
   } finally {
     await new Promise((resolve) => server.close(resolve));
   }
