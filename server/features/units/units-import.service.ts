@@ -1,4 +1,4 @@
-import ExcelJS from 'exceljs';
+import { Worker } from 'node:worker_threads';
 import { In, type EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import { countNonBlankLines, normaliseCsvText, quoteCell, rowCapProblem } from '../../../shared/imports/csv.js';
@@ -37,50 +37,39 @@ const MAX_COLUMNS = 200;
 /** Rows shown in a dry run's preview. */
 const PREVIEW_ROWS = 50;
 
-type CellValue = ExcelJS.CellValue;
+/** The worker that reads a workbook's rows off the main thread (plain JavaScript: it needs only exceljs). */
+const SHEET_ROWS_WORKER = new URL('../../workers/sheet-rows.worker.mjs', import.meta.url);
+
+type WorkerAnswer =
+  | { sheet: string; rows: SheetRow[] }
+  | { error: 'unreadable'; message: string }
+  | { error: 'no-sheet' }
+  | { error: 'too-many'; count: number };
 
 /**
- * A cell's value as the text a person sees in it (a formula's result, rich text joined, a date as YYYY-MM-DD). A date
- * cell with a time of day keeps it (YYYY-MM-DDTHH:MM:SS.sssZ): a workbook has no time zone, so its clock reads as UTC.
+ * The worksheet of an .xlsx as rows of cell texts (a merged cell reads as its master cell's value), read in a worker
+ * thread: unpacking and parsing a large workbook would otherwise hold every other request. Over `maxRows` data rows
+ * (a header and a few title rows allowed for) → 400 naming `file`.
  */
-function cellText(value: CellValue): string {
-  if (value === null || value === undefined) return '';
-  if (typeof value === 'string') return value;
-  if (typeof value === 'number') return String(value);
-  if (typeof value === 'boolean') return value ? 'true' : 'false';
-  if (value instanceof Date) return value.getTime() % 86_400_000 === 0 ? value.toISOString().slice(0, 10) : value.toISOString();
-  if ('richText' in value) return value.richText.map((t) => t.text).join('');
-  if ('formula' in value || 'sharedFormula' in value) return cellText((value.result ?? null) as CellValue);
-  if ('hyperlink' in value) return typeof value.text === 'string' ? value.text : cellText(value.text as CellValue);
-  if ('error' in value) return String(value.error);
-  return '';
-}
-
-/** The worksheet of an .xlsx as rows of cell texts; a merged cell reads as its master cell's value. */
 async function workbookRows(bytes: Buffer, sheetName: string, maxRows: number, what: string): Promise<{ sheet: string; rows: SheetRow[] }> {
-  const wb = new ExcelJS.Workbook();
-  try {
-    await wb.xlsx.load(bytes as unknown as ArrayBuffer);
-  } catch (err) {
-    throw new AppError('invalid_file', 'The workbook cannot be read.', 400, { file: `the workbook cannot be read (${(err as Error).message})` });
-  }
-  // The sheet of the given name if there is one, else the first.
-  const ws = wb.worksheets.find((w) => w.name.trim().toLowerCase() === sheetName) ?? wb.worksheets[0];
-  if (!ws) throw new AppError('invalid_file', 'The workbook has no worksheet.', 400, { file: 'the workbook has no worksheet' });
-  // The row cap before any row is read (a header and a few title rows above it are allowed for).
-  const tooMany = rowCapProblem(ws.actualRowCount - 1, maxRows + HEADER_ALLOWANCE, what);
-  if (tooMany !== null) throw rowCapError(tooMany);
-  const columns = Math.min(ws.columnCount, MAX_COLUMNS);
-  const rows: SheetRow[] = [];
-  ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
-    const cells: string[] = [];
-    for (let c = 1; c <= columns; c += 1) {
-      const cell = row.getCell(c);
-      cells.push(cellText((cell.isMerged ? cell.master : cell).value));
-    }
-    rows.push({ row: rowNumber, cells });
-  });
-  return { sheet: ws.name, rows };
+  const answer = await new Promise<WorkerAnswer>((resolve, reject) => {
+    const worker = new Worker(SHEET_ROWS_WORKER, {
+      workerData: { bytes: new Uint8Array(bytes), sheetName, maxRows: maxRows + HEADER_ALLOWANCE, maxColumns: MAX_COLUMNS },
+      resourceLimits: { maxOldGenerationSizeMb: 512 },
+    });
+    worker.once('message', (m: WorkerAnswer) => {
+      resolve(m);
+      void worker.terminate();
+    });
+    worker.once('error', reject);
+    worker.once('exit', (code) => {
+      if (code !== 0) reject(new Error(`the workbook reader stopped (exit code ${code})`));
+    });
+  }).catch((err: Error) => ({ error: 'unreadable' as const, message: err.message }));
+  if (!('error' in answer)) return answer;
+  if (answer.error === 'unreadable') throw new AppError('invalid_file', 'The workbook cannot be read.', 400, { file: `the workbook cannot be read (${answer.message})` });
+  if (answer.error === 'no-sheet') throw new AppError('invalid_file', 'The workbook has no worksheet.', 400, { file: 'the workbook has no worksheet' });
+  throw rowCapError(rowCapProblem(answer.count, maxRows, what)!);
 }
 
 /**
@@ -105,8 +94,8 @@ export async function readSheetFile(
   if (check.kind === 'xlsx') return { ...(await workbookRows(file.buffer, sheetName, maxRows, rowWord)), fields: {}, kind: 'xlsx' };
   const text = file.buffer.toString('utf8');
   // The row cap by a cheap count of lines, before the text is parsed.
-  const tooMany = rowCapProblem(countNonBlankLines(normaliseCsvText(text)) - 1, maxRows + HEADER_ALLOWANCE, rowWord);
-  if (tooMany !== null) throw rowCapError(tooMany);
+  const lines = countNonBlankLines(normaliseCsvText(text)) - 1;
+  if (lines > maxRows + HEADER_ALLOWANCE) throw rowCapError(rowCapProblem(lines, maxRows, rowWord)!);
   // Parsed after a turn of the event loop, so requests waiting since the upload arrived answer first.
   await yieldToEventLoop();
   return { sheet: null, ...csvSheetRows(text), kind: 'csv' };

@@ -1,9 +1,11 @@
 // Malformed uploads answer 4xx naming the field `file` (never 500) on every upload route, and nothing is written: a cut-off
 // or boundary-less multipart body, no file part, two file parts, the file under another field name; and, for the CSV
 // importers, an empty file, a file of separators only, a header alone, a binary file named .csv, a file over the row cap.
+import ExcelJS from 'exceljs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { READINGS_MAX_ROWS } from '../../../shared/imports/readings-csv.js';
+import { UNIT_IMPORT_ROW_LIMIT } from '../../../shared/imports/units-sheet-fields.js';
 import { bearer, createTestUser, openTestEnv, type TestEnv } from '../../helpers/db.js';
 import { makeDesign, makeSite, makeUnit } from '../../helpers/factories.js';
 import { sweepCsv } from '../../helpers/sweep-csv.js';
@@ -146,5 +148,28 @@ describe('row cap', () => {
     const res = await api().post(`/api/sessions/${sessionId}/imports`).set(tester).attach('file', Buffer.from(`quantity,configuration,phase,value,unit\n${lines.join('\n')}\n`), 'big.csv');
     await expectRefused(res, before, 400);
     expect(res.body.error.fields.file).toMatch(/at most 2 000 rows a file; this file has 2 001/);
+  });
+
+  it('a units workbook (.xlsx, read in a worker thread) far over its cap → 400 naming file', async () => {
+    const before = await rowCounts();
+    const wb = new ExcelJS.Workbook();
+    const ws = wb.addWorksheet('units');
+    ws.addRow(['serial', 'site', 'design', 'position']);
+    // The cap plus the allowance for title rows (10), plus one: 5 011 data rows.
+    for (let i = 0; i < UNIT_IMPORT_ROW_LIMIT + 11; i++) ws.addRow([`X${i}`, 'Nowhere', 'None', 'T1']);
+    const bytes = Buffer.from(await wb.xlsx.writeBuffer());
+    const res = await api().post('/api/units/import').set(admin).attach('file', bytes, 'units.xlsx');
+    await expectRefused(res, before, 400);
+    expect(res.body.error.fields.file).toBe('at most 5 000 units a file; this file has 5 011: split it into smaller files');
+  });
+
+  it('a workbook that is not one (a ZIP named .xlsx with a broken workbook inside) → 4xx naming file', async () => {
+    const before = await rowCounts();
+    const wb = new ExcelJS.Workbook();
+    wb.addWorksheet('units').addRow(['serial']);
+    const bytes = Buffer.from(await wb.xlsx.writeBuffer());
+    // Cut the archive short: its directory still names xl/workbook.xml, its entries cannot be unpacked.
+    const broken = Buffer.concat([bytes.subarray(0, 200), Buffer.alloc(400, 0x41), bytes.subarray(bytes.length - 2000)]);
+    await expectRefused(await api().post('/api/units/import').set(admin).attach('file', broken, 'units.xlsx'), before);
   });
 });
