@@ -166,7 +166,9 @@ export function locateUnitSheet(rows: readonly SheetRow[], mapping: UnitSheetMap
 
 /** A row's texts per field ('' where the field has no column). */
 export function sheetRowCells<F extends string>(fields: readonly F[], row: SheetRow, columns: SheetColumns<F>): Record<F, string> {
-  return Object.fromEntries(fields.map((f) => [f, columns.index[f] >= 0 ? (row.cells[columns.index[f]] ?? '').trim() : ''])) as Record<F, string>;
+  return Object.fromEntries(
+    fields.map((f) => [f, columns.index[f] >= 0 ? fromFormulaSafe((row.cells[columns.index[f]] ?? '').trim()) : '']),
+  ) as Record<F, string>;
 }
 
 export function rowCells(row: SheetRow, columns: UnitColumns): Record<UnitSheetField, string> {
@@ -366,6 +368,14 @@ export function fleetExportRows(items: readonly UnitListItem[]): SheetCell[][] {
  */
 export function formulaSafe(text: string): string {
   return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
+}
+
+/**
+ * The text of an exported cell as it was before formulaSafe: an apostrophe followed by = + - @ (or a tab or carriage
+ * return) is the export's escape and is dropped, so a re-imported export keeps its names; any other apostrophe stays.
+ */
+export function fromFormulaSafe(text: string): string {
+  return /^'[=+\-@\t\r]/.test(text) ? text.slice(1) : text;
 }
 
 function csvCell(cell: SheetCell): string {

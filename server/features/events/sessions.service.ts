@@ -11,6 +11,7 @@ import { audit } from '../../common/audit.js';
 import type { Clock } from '../../common/clock.js';
 import { refuseOtherTypes, unsupportedType, utf8Name } from '../../common/upload.js';
 import { fileProblemList, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
+import { insertReadingRows } from '../imports/insert-readings.js';
 import { Reading } from '../readings/reading.entity.js';
 import { ReadingSet } from '../readings/reading-set.entity.js';
 import { applyReadingSetPatch } from '../readings/reading-set-correction.js';
@@ -101,7 +102,7 @@ export async function importReadingsCsv(m: EntityManager, clock: Clock, userId: 
   const { windingTemperatureC, ...values } = readingRowsToSet(parsed.rows);
   // Every bushing terminal has its C1 here or in the session (checked by the parser): the rows make a valid set.
   const rows = readingSetToRows(values as CaseReadingSet);
-  if (rows.length) await m.insert(Reading, rows.map((r) => ({ ...r, readingSetId: set.id })));
+  await insertReadingRows(m, set.id, rows);
   // The winding temperature is a condition of the set (a column), not a reading row.
   const before = set.windingTemperatureC;
   if (windingTemperatureC !== undefined) await m.getRepository(ReadingSet).update(set.id, { windingTemperatureC });

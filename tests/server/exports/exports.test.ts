@@ -6,6 +6,7 @@ import { In } from 'typeorm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { Reading } from '../../../server/features/readings/reading.entity.js';
 import { ReadingSet } from '../../../server/features/readings/reading-set.entity.js';
+import { formulaSafe } from '../../../shared/imports/units-sheet.js';
 import { AUDIT_EXPORT_COLUMNS, INDICATORS_EXPORT_COLUMNS, READINGS_EXPORT_COLUMNS } from '../../../shared/exports/sheets.js';
 import { fieldLabel, indicatorLabel } from '../../../shared/vocabulary.js';
 import { bearer, createTestUser } from '../../helpers/db.js';
@@ -129,11 +130,11 @@ describe('GET /api/events/:eventId/audit/export', () => {
     expect(rows).toHaveLength(ev.audit.length + 1);
     const at = (n: (typeof AUDIT_EXPORT_COLUMNS)[number]) => AUDIT_EXPORT_COLUMNS.indexOf(n);
     // The Action column is the audit trail's sentence, as the event file shows it (never "Created fault event").
-    expect(rows.slice(1).map((r) => r[at('Action')])).toEqual(ev.audit.map((a: { summary: string }) => a.summary));
+    expect(rows.slice(1).map((r) => r[at('Action')])).toEqual(ev.audit.map((a: { summary: string }) => formulaSafe(a.summary)));
     for (const r of rows.slice(1)) expect(String(r[at('Action')])).not.toMatch(/^(Created|Changed) (fault event|finding)$/);
     const finding = ev.audit.find((a: { entity: string; action: string }) => a.entity === 'finding' && a.action === 'create');
-    const findingRow = rows.find((r) => r[at('Action')] === finding.summary);
-    expect(findingRow?.[at('Who')]).toBe(oddName);
+    const findingRow = rows.find((r) => r[at('Action')] === formulaSafe(finding.summary));
+    expect(findingRow?.[at('Who')]).toBe(formulaSafe(oddName));
     // Before/after keep the values, with the fields named in words.
     expect(JSON.parse(String(findingRow?.[at('After')]))).toMatchObject({
       [fieldLabel('finding', 'eventId')]: eventId,

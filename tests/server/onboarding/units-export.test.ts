@@ -54,7 +54,8 @@ describe('GET /api/units/export', () => {
     expect([2, 3].map((r) => ws.getRow(r).getCell(serialCol).value)).toEqual([`${p}A`, `${p}B`]);
     // Numbers stay numbers; text stays text (never a formula).
     expect(ws.getRow(3).getCell(hvCol).value).toBe(132.5);
-    expect(ws.getRow(3).getCell(positionCol).value).toBe('=HYPERLINK("http://x")');
+    // A formula-like text is escaped with a leading apostrophe (OWASP "CSV injection", common practice).
+    expect(ws.getRow(3).getCell(positionCol).value).toBe('\'=HYPERLINK("http://x")');
     expect(ws.getRow(3).getCell(positionCol).type).toBe(ExcelJS.ValueType.String);
     expect(ws.rowCount).toBe(3);
   });

@@ -7,6 +7,7 @@ import {
   columnHeaders,
   csvSheetRows,
   formulaSafe,
+  fromFormulaSafe,
   headerKey,
   locateUnitSheet,
   matchUnitColumns,
@@ -156,6 +157,11 @@ describe('csvSheetRows', () => {
 describe('export CSV', () => {
   it('prefixes text cells that a spreadsheet would read as a formula', () => {
     expect(['=1+1', '+44', '-x', '@SUM(A1)', 'T1', '\tx'].map(formulaSafe)).toEqual(["'=1+1", "'+44", "'-x", "'@SUM(A1)", 'T1', "'\tx"]);
+  });
+
+  it('reads an escaped cell back as it was written, and leaves any other apostrophe alone', () => {
+    for (const t of ['=1+1', '+44', '-x', '@SUM(A1)', 'T1', "'quoted'", "'T1"]) expect(fromFormulaSafe(formulaSafe(t))).toBe(t);
+    expect(fromFormulaSafe("'T1")).toBe("'T1");
   });
 
   it('writes a BOM, quotes where needed, keeps numbers as numbers', () => {
