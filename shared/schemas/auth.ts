@@ -1,9 +1,15 @@
 import { z } from 'zod';
-import { roleSchema } from './roles.js';
+import { ROLES, roleSchema } from './roles.js';
 
-// Sign-in and user payloads shared by the server's validation and the client's forms.
+// Sign-in and user payloads shared by the server's validation and the client's forms. Strict: an unknown field is a 400
+// naming it; every list is bounded.
 
-export const loginBodySchema = z.object({
+/** Sites one person may cover by name (more: give them all sites). */
+export const USER_SITES_MAX = 200;
+const rolesSchema = z.array(roleSchema).min(1, 'at least one role').max(ROLES.length, `at most ${ROLES.length} roles`);
+const siteIdsSchema = z.array(z.number().int().positive()).max(USER_SITES_MAX, `at most ${USER_SITES_MAX} sites (or all sites)`);
+
+export const loginBodySchema = z.strictObject({
   email: z.string().trim().min(1, 'required').email('not an e-mail address'),
   password: z.string().min(1, 'required').max(200, 'too long'),
 });
@@ -23,7 +29,7 @@ export const passwordSchema = z
 
 /** POST /api/auth/password: the current password and a new one (12 characters or more, 72 bytes of UTF-8 at most). */
 export const passwordChangeSchema = z
-  .object({
+  .strictObject({
     // A stored password has 72 bytes at most: a longer one cannot be it (bcrypt would compare only its first 72).
     currentPassword: z.string().min(1, 'required').max(200, 'too long').refine(withinBytes, BYTES_MESSAGE),
     newPassword: passwordSchema,
@@ -31,12 +37,12 @@ export const passwordChangeSchema = z
   .refine((v) => v.newPassword !== v.currentPassword, { path: ['newPassword'], message: 'must differ from the current password' });
 export type PasswordChange = z.infer<typeof passwordChangeSchema>;
 
-export const userCreateSchema = z.object({
+export const userCreateSchema = z.strictObject({
   email: z.string().trim().email('not an e-mail address').max(254),
   name: z.string().trim().min(1, 'required').max(120),
   password: passwordSchema,
-  roles: z.array(roleSchema).min(1, 'at least one role'),
-  siteIds: z.array(z.number().int().positive()).default([]),
+  roles: rolesSchema,
+  siteIds: siteIdsSchema.default([]),
   allSites: z.boolean().default(false),
 });
 export type UserCreate = z.infer<typeof userCreateSchema>;
@@ -47,10 +53,10 @@ export type UserCreateBody = z.infer<typeof userCreateBodySchema>;
 
 /** PATCH /api/users/:id: name, roles, sites, active. A new password only through reset-password. */
 export const userPatchSchema = z
-  .object({
+  .strictObject({
     name: z.string().trim().min(1, 'required').max(120),
-    roles: z.array(roleSchema).min(1, 'at least one role'),
-    siteIds: z.array(z.number().int().positive()),
+    roles: rolesSchema,
+    siteIds: siteIdsSchema,
     allSites: z.boolean(),
     active: z.boolean(),
   })
