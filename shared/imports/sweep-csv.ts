@@ -1,6 +1,7 @@
 // Sweep files (POST /api/units/:id/sweeps, POST /api/sessions/:id/sweeps): frequency Hz, magnitude dB, optional phase deg.
 //
 // Row numbers in error keys are line numbers in the file: with a header the first point is "row 2", without one "row 1".
+import { RANGES } from '../schemas/bounds.js';
 import {
   DECIMAL_COMMA_MESSAGE,
   collectRowErrors,
@@ -121,8 +122,18 @@ export function parseSweepCsv(text: string): SweepCsvResult {
       if ('error' in r) errors[column] = r.error;
       else point[column] = r.value;
     });
+    // Each value within the range the case format takes (shared/schemas/bounds.ts): a sweep in kHz or a linear ratio
+    // read as dB is refused here, not stored and refused later by the case.
+    for (const column of columns) {
+      const v = point[column];
+      const range = RANGES[column];
+      if (v === undefined || errors[column] !== undefined) continue;
+      if (v > range.max || (column !== 'frequencyHz' && v < range.min)) {
+        errors[column] = `${v} ${range.unit} is outside ${range.min} … ${range.max} ${range.unit}`;
+      }
+    }
     const f = point.frequencyHz;
-    if (f !== undefined) {
+    if (f !== undefined && errors.frequencyHz === undefined) {
       if (f <= 0) errors.frequencyHz = 'must be greater than 0';
       else if (previous !== null && f <= previous.frequencyHz) {
         errors.frequencyHz = `${f} Hz is not above ${previous.frequencyHz} Hz in row ${previous.line}: frequencies must increase from row to row (sort the file)`;

@@ -139,7 +139,7 @@ export function keyedBy<T extends z.ZodType>(values: T, maxKey: number, kind: ke
     .record(z.string().min(1).max(maxKey), values, {
       error: (issue) => (issue.code === 'invalid_key' ? `a ${what} label of 1 to ${maxKey} characters` : undefined),
     })
-    .refine((r) => Object.keys(r).length <= max, { message: `at most ${max} ${what}s` });
+    .refine((r) => Object.keys(r).length <= max, { message: `at most ${max} ${kind}` });
 }
 
 /** Earliest event or test date taken. */

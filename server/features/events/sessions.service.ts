@@ -3,11 +3,12 @@ import type { EntityManager } from 'typeorm';
 import { parseReadingsCsv, readingRowsToSet } from '../../../shared/imports/readings-csv.js';
 import { looksLikeCsvText } from '../../../shared/imports/sniff.js';
 import { readingSetToRows } from '../../../shared/readings/rows.js';
-import type { ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
+import { readingSetSchema, type ReadingSet as CaseReadingSet } from '../../../shared/schemas/case.js';
 import type { SessionBody, SessionPatch } from '../../../shared/schemas/fleet.js';
 import type { CorrectedSession, CreatedSession, ImportAnswer } from '../../../shared/schemas/responses/index.js';
 import { AppError, notFound } from '../../common/app-error.js';
 import { audit } from '../../common/audit.js';
+import { zodFields } from '../../common/validate.js';
 import type { Clock } from '../../common/clock.js';
 import { refuseOtherTypes, unsupportedType, utf8Name } from '../../common/upload.js';
 import { fileProblemList, UPLOAD_TYPES } from '../../../shared/uploads/file-types.js';
@@ -98,8 +99,16 @@ export async function importReadingsCsv(m: EntityManager, clock: Clock, userId: 
   const knownBushingTerminals = (await m.getRepository(Reading).find({ where: { readingSetId: sessionId, quantity: 'bushing-c1' } })).map((r) => r.configuration ?? '');
   const parsed = parseReadingsCsv(file.buffer.toString('utf8'), { knownBushingTerminals });
   if (!parsed.ok) throw readingsFileProblems(parsed.fields);
-  const set = await openSession(m, clock, sessionId, userId, 'A readings import');
   const { windingTemperatureC, ...values } = readingRowsToSet(parsed.rows);
+  // The file's values within the case format's ranges, as a typed set would be (a value in the wrong unit is refused
+  // here, before anything is written, rather than stored and failing the report later).
+  const inRange = readingSetSchema.safeParse({ ...values, ...(windingTemperatureC !== undefined ? { windingTemperatureC } : {}) });
+  if (!inRange.success) {
+    const fields = zodFields(inRange.error);
+    const [path, message] = Object.entries(fields)[0] ?? ['file', 'a value is out of range'];
+    throw new AppError('invalid_file', `The file has a value out of range; nothing was imported: ${path}: ${message}.`, 400, fields);
+  }
+  const set = await openSession(m, clock, sessionId, userId, 'A readings import');
   // Every bushing terminal has its C1 here or in the session (checked by the parser): the rows make a valid set.
   const rows = readingSetToRows(values as CaseReadingSet);
   await insertReadingRows(m, set.id, rows);

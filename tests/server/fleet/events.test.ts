@@ -170,6 +170,19 @@ describe('sessions, imports and sweeps', () => {
     expect(await opened.env.db.getRepository(Reading).count({ where: { readingSetId: session.id } })).toBe(0);
   });
 
+  it('refuses a readings file whose value is outside the case format range (a capacitance in the wrong unit) and stores nothing', async () => {
+    const unit = await makeUnit(opened.env.db);
+    const ev = await logFault(unit.id);
+    const session = (await api().post(`/api/events/${ev.id}/sessions`).set(as.tester).send({ takenAt: '2026-11-29T08:00:00Z' })).body;
+    // 5e9 pF = 5 mF: far beyond the 1e8 pF upper bound of shared/schemas/bounds.ts (common practice).
+    const csv = 'quantity,configuration,phase,value,unit\ncapacitance,CH,,3131,pF\ncapacitance,CL,,5000000000,pF\n';
+    const res = await api().post(`/api/sessions/${session.id}/imports`).set(as.tester).attach('file', Buffer.from(csv), 'readings.csv');
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields)).toContain('capacitancePF.CL');
+    expect(res.body.error.message).toMatch(/^The file has a value out of range; nothing was imported: capacitancePF\.CL: /);
+    expect(await opened.env.db.getRepository(Reading).count({ where: { readingSetId: session.id } })).toBe(0);
+  });
+
   it('names the first problem of a bad readings file in its message (line, column in words, what is wrong) and how many more', async () => {
     const unit = await makeUnit(opened.env.db);
     const ev = await logFault(unit.id);

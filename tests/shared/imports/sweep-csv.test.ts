@@ -175,3 +175,21 @@ describe('example sweep files (examples/sweeps)', () => {
     expect(differing.every((f) => f >= 1000 && f < 100_000)).toBe(true);
   });
 });
+
+describe('parseSweepCsv — values outside the case format ranges', () => {
+  // Ranges of shared/schemas/bounds.ts (common practice): frequency up to 1e8 Hz, magnitude −200 … 100 dB, phase ±3600°.
+  it('refuses a magnitude above 100 dB, a phase beyond 3600° and a frequency above 1e8 Hz, naming the row and column', () => {
+    const lines = pointLines(12, true);
+    lines[3] = '1000,150,10';
+    lines[5] = '2000,-40,5000';
+    const fields = fieldsOf(['frequencyHz,magnitudeDb,phaseDeg', ...lines, '200000000,-40,1'].join('\n'));
+    expect(fields['row 5.magnitudeDb']).toBe('150 dB is outside -200 … 100 dB');
+    expect(fields['row 7.phaseDeg']).toBe('5000 ° is outside -3600 … 3600 °');
+    expect(fields['row 14.frequencyHz']).toBe('200000000 Hz is outside 0 … 100000000 Hz');
+  });
+  it('takes the edges of the ranges', () => {
+    const lines = pointLines(11, true);
+    const r = parseSweepCsv(['frequencyHz,magnitudeDb,phaseDeg', ...lines, '100000000,-200,3600'].join('\n'));
+    expect(r.ok).toBe(true);
+  });
+});
