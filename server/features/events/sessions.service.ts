@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
+import { z } from 'zod';
 import { parseReadingsCsv, readingRowsToSet } from '../../../shared/imports/readings-csv.js';
 import { looksLikeCsvText } from '../../../shared/imports/sniff.js';
 import { readingSetToRows } from '../../../shared/readings/rows.js';
@@ -102,9 +103,11 @@ export async function importReadingsCsv(m: EntityManager, clock: Clock, userId: 
   const { windingTemperatureC, ...values } = readingRowsToSet(parsed.rows);
   // The file's values within the case format's ranges, as a typed set would be (a value in the wrong unit is refused
   // here, before anything is written, rather than stored and failing the report later).
-  const inRange = readingSetSchema.safeParse({ ...values, ...(windingTemperatureC !== undefined ? { windingTemperatureC } : {}) });
-  if (!inRange.success) {
-    const fields = zodFields(inRange.error);
+  // Only values are checked here: a part the file may leave to the session (a bushing's C1 already there) is not missing.
+  const inRange = readingSetSchema.safeParse({ ...values, ...(windingTemperatureC !== undefined ? { windingTemperatureC } : {}) }, { reportInput: true });
+  const valueIssues = inRange.success ? [] : inRange.error.issues.filter((i) => !(i.code === 'invalid_type' && i.input === undefined));
+  if (!inRange.success && valueIssues.length > 0) {
+    const fields = zodFields(new z.ZodError(valueIssues));
     const [path, message] = Object.entries(fields)[0] ?? ['file', 'a value is out of range'];
     throw new AppError('invalid_file', `The file has a value out of range; nothing was imported: ${path}: ${message}.`, 400, fields);
   }
