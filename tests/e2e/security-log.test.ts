@@ -1,5 +1,6 @@
 import type { Browser } from 'playwright-core';
 import { mkdirSync } from 'node:fs';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Running } from '../../server/index.js';
 import { DEMO_PASSWORD } from '../../server/db/seed/demo-users.js';
@@ -13,7 +14,7 @@ import { demoApi, openAs, settled } from '../helpers/browser-pages.js';
 let running: Running;
 let browser: Browser;
 let api: ReturnType<typeof demoApi>;
-const SHOTS = '/tmp/shots-auth';
+const SHOTS = path.resolve('test-output/auth');
 
 beforeAll(async () => {
   ({ running } = await startTestServer());
