@@ -142,6 +142,23 @@ function readingsFile(rows: number, bytes: number): Buffer {
 }
 
 /**
+ * The largest readings file a session accepts: every list of a set at its cap (50 capacitance and 50 dissipation
+ * configurations, 30 bushing terminals with C1, C2 and their dissipation: 220 readings), padded like readingsFile.
+ */
+function fullSetFile(bytes: number): Buffer {
+  const header = 'quantity,configuration,phase,value,unit\n';
+  const plain: string[] = [];
+  for (let i = 0; i < 50; i++) plain.push(`capacitance,${letters(i)},,${3000 + i}.5,pF`, `dissipation,${letters(i)},,0.3${i % 10},%`);
+  for (let i = 0; i < 30; i++) {
+    const t = `H${i + 1}`;
+    plain.push(`bushing-c1,${t},,${400 + i}.5,pF`, `bushing-c1-dissipation,${t},,0.31,%`, `bushing-c2,${t},,${2000 + i},pF`, `bushing-c2-dissipation,${t},,0.42,%`);
+  }
+  const room = Math.max(0, bytes - header.length - plain.reduce((n, l) => n + l.length + 1, 0));
+  const pad = ' '.repeat(Math.floor(room / plain.length));
+  return Buffer.from(header + plain.map((l) => l.replace(/,(pF|%)$/, `${pad},$1`)).join('\n') + '\n');
+}
+
+/**
  * The largest allowed readings import (the row cap, padded to the byte limit) and a 2 MiB file far over the cap, each
  * through a listening server while another client asks GET /api/health every 10 ms: the import's time and the health
  * answers' latency (p50, p99, max) during it.
@@ -175,7 +192,9 @@ async function benchImports(
       return (await res.json()) as { id: number };
     };
     const cases: [string, Buffer, number][] = [
-      [`readings import, ${READINGS_MAX_ROWS} rows (the cap), ${(UPLOAD_LIMITS.readingsCsvBytes / 1048576).toFixed(0)} MiB`, readingsFile(READINGS_MAX_ROWS, UPLOAD_LIMITS.readingsCsvBytes - 1024), 200],
+      [`readings import, a full set (220 rows), ${(UPLOAD_LIMITS.readingsCsvBytes / 1048576).toFixed(0)} MiB`, fullSetFile(UPLOAD_LIMITS.readingsCsvBytes - 1024), 200],
+      // At the row cap, but 2 000 capacitance configurations: parsed, then refused by the set's list caps (400).
+      [`readings import, ${READINGS_MAX_ROWS} rows (the cap), 2 MiB (refused)`, readingsFile(READINGS_MAX_ROWS, UPLOAD_LIMITS.readingsCsvBytes - 1024), 400],
       ['readings import, 2 MiB of 70 000 rows (refused)', readingsFile(70_000, UPLOAD_LIMITS.readingsCsvBytes - 1024), 400],
     ];
     for (const [name, file, expected] of cases) {
