@@ -1,12 +1,11 @@
 import { spawn, spawnSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { buildClient } from '../server/scripts/build-client.js';
-import { ensureDatabaseAndUser, mariaDbPaths, startMariaDb, stopMariaDb, type MariaDbPaths } from '../server/scripts/mariadb.js';
+import { ensureDatabaseAndUser, freePort, mariaDbPaths, startMariaDb, stopMariaDb, type MariaDbPaths } from '../server/scripts/mariadb.js';
 
 // `npm test`: type checks, a throw-away MariaDB (temporary datadir, free port), migrations, the client built once,
 // then every Vitest project. This one outer process owns the database, so it is stopped even when vitest crashes.
@@ -14,17 +13,6 @@ import { ensureDatabaseAndUser, mariaDbPaths, startMariaDb, stopMariaDb, type Ma
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 process.chdir(root);
 const vitestArgs = process.argv.slice(2);
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const a = s.address();
-      s.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
-    });
-  });
-}
 
 function step(title: string): void {
   console.log(`\n▶ ${title}`);

@@ -4,19 +4,10 @@ import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
-import { ensureDatabaseAndUser, mariaDbPaths, startMariaDb, stopMariaDb } from './mariadb.js';
+import { ensureDatabaseAndUser, freePort, mariaDbPaths, startMariaDb, stopMariaDb } from './mariadb.js';
 
 // npm run bench: the demo seed into fresh databases on a throw-away MariaDB; with `-- --db` also API timings on a
 // database holding the demo scenario plus a 5 000-unit fleet with 10 000 events (figures go to the README).
-
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const a = s.address() as net.AddressInfo;
-      s.close(() => resolve(a.port));
-    });
-  });
-}
 
 const SEED_RUNS = 3;
 

@@ -141,6 +141,18 @@ export function portInUse(port: number, host = '127.0.0.1'): Promise<boolean> {
   });
 }
 
+/** A TCP port on 127.0.0.1 that was free a moment ago (bound to port 0, then released): for throw-away servers. */
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = net.createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const a = srv.address();
+      srv.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
+    });
+  });
+}
+
 /** Last lines of the server log, for error messages. */
 export function logTail(p: MariaDbPaths, lines = 15): string {
   if (!existsSync(p.logFile)) return '(no log)';

@@ -8,16 +8,12 @@ import { adjacencyGraphs, dictionary } from '@zxcvbn-ts/language-common';
 // list or one of the person's own details (e-mail, name). The dictionary is large: the client loads this module with a
 // dynamic import() so the first page does not grow.
 
-/** bcrypt reads at most 72 bytes of a password. */
-export const PASSWORD_MAX_BYTES = 72;
-export const PASSWORD_MIN_LENGTH = 12;
+// The length limits are the request schema's (shared/schemas/auth.ts, a leaf the first page may load).
+import { NEW_PASSWORD_MIN as PASSWORD_MIN_LENGTH, PASSWORD_MAX_BYTES, utf8Bytes } from '../schemas/auth.js';
+
+export { PASSWORD_MAX_BYTES, PASSWORD_MIN_LENGTH, utf8Bytes };
 /** The lowest zxcvbn score accepted (0 too guessable … 4 very unguessable). */
 export const PASSWORD_MIN_SCORE = 3;
-
-/** Bytes of a text in UTF-8 (what bcrypt sees). */
-export function utf8Bytes(text: string): number {
-  return new TextEncoder().encode(text).length;
-}
 
 let factory: ZxcvbnFactory | null = null;
 function zxcvbn(): ZxcvbnFactory {

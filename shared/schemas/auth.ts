@@ -15,10 +15,14 @@ export const loginBodySchema = z.strictObject({
 });
 export type LoginBody = z.infer<typeof loginBodySchema>;
 
-/** bcrypt reads at most 72 bytes of a password (the same limits as shared/auth/password-policy.ts, kept here as a leaf). */
+/** bcrypt reads at most 72 bytes of a password (shared/auth/password-policy.ts uses these limits too). */
 export const PASSWORD_MAX_BYTES = 72;
 export const NEW_PASSWORD_MIN = 12;
-const withinBytes = (v: string) => new TextEncoder().encode(v).length <= PASSWORD_MAX_BYTES;
+/** Bytes of a text in UTF-8 (what bcrypt sees). */
+export function utf8Bytes(text: string): number {
+  return new TextEncoder().encode(text).length;
+}
+const withinBytes = (v: string) => utf8Bytes(v) <= PASSWORD_MAX_BYTES;
 const BYTES_MESSAGE = `at most ${PASSWORD_MAX_BYTES} bytes (fewer characters with accents or symbols)`;
 
 /** A new password's length: 12 characters or more, 72 bytes of UTF-8 at most. Whether it is guessable: the policy. */

@@ -134,16 +134,28 @@ async function send(method: string, path: string, options: RequestOptions, heade
     if (signal?.aborted) throw cause;
     throw new ApiError(0, 'network_error', 'Cannot reach the Gapsight server. Check the connection and try again.');
   }
-  if (!response.ok) {
-    const error = await errorFromResponse(response);
-    // Only a token we sent that is still the current one ends the session: a wrong password at sign-in is
-    // an ordinary error, and a burst of parallel 401s for the same token is handled once.
-    if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) {
-      unauthorizedHandler(error);
-    }
-    throw error;
-  }
+  if (!response.ok) throw await refusal(response, sentToken);
   return response;
+}
+
+// The ApiError of a non-2xx answer. Only a token we sent that is still the current one ends the session: a wrong
+// password at sign-in is an ordinary error, and a burst of parallel 401s for the same token is handled once.
+async function refusal(response: Response, sentToken: string | null): Promise<ApiError> {
+  const error = await errorFromResponse(response);
+  if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) unauthorizedHandler(error);
+  return error;
+}
+
+// The parsed JSON of a 2xx answer (undefined when it has no body).
+async function readJson<T>(response: Response): Promise<T> {
+  if (response.status === 204) return undefined as T;
+  const text = await response.text();
+  if (!text) return undefined as T;
+  try {
+    return JSON.parse(text) as T;
+  } catch {
+    throw new ApiError(response.status, 'invalid_response', 'The server sent an answer the app could not read.');
+  }
 }
 
 // Send one request to the API and return its parsed JSON (undefined for 204); throws ApiError on anything else.
@@ -158,15 +170,7 @@ export async function apiRequest<T>(method: string, path: string, options: Reque
     payload = JSON.stringify(body);
   }
 
-  const response = await send(method, path, options, headers, payload);
-  if (response.status === 204) return undefined as T;
-  const text = await response.text();
-  if (!text) return undefined as T;
-  try {
-    return JSON.parse(text) as T;
-  } catch {
-    throw new ApiError(response.status, 'invalid_response', 'The server sent an answer the app could not read.');
-  }
+  return readJson<T>(await send(method, path, options, headers, payload));
 }
 
 /** A file to send in a multipart upload, with the name the server should see. */
@@ -244,18 +248,8 @@ async function uploadWithProgress<T>(path: string, options: Omit<RequestOptions,
     signal?.addEventListener('abort', () => xhr.abort(), { once: true });
     xhr.send(form);
   });
-  if (!response.ok) {
-    const error = await errorFromResponse(response);
-    if (response.status === 401 && sentToken && sentToken === readStoredToken() && unauthorizedHandler) unauthorizedHandler(error);
-    throw error;
-  }
-  const text = await response.text();
-  if (!text) return undefined as T;
-  try {
-    return JSON.parse(text) as T;
-  } catch {
-    throw new ApiError(response.status, 'invalid_response', 'The server sent an answer the app could not read.');
-  }
+  if (!response.ok) throw await refusal(response, sentToken);
+  return readJson<T>(response);
 }
 
 // GET a file (an attachment's bytes) with the bearer token; a plain link could not send the token.

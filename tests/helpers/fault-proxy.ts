@@ -1,4 +1,5 @@
 import net from 'node:net';
+import { freePort } from '../../server/scripts/mariadb.js';
 
 /**
  * A TCP relay in front of the test database that can be cut and restored: cut() closes the listening port and every
@@ -58,16 +59,7 @@ export async function startFaultProxy(target: { host: string; port: number }): P
 }
 
 /** A port nothing listens on (bound once, then released). */
-export function closedPort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const a = s.address();
-      s.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
-    });
-  });
-}
+export const closedPort = freePort;
 
 /** A TCP server that accepts connections and never says a word (a hung database), or closes each at once. */
 export async function silentServer(mode: 'silent' | 'hang-up'): Promise<{ port: number; close(): Promise<void> }> {

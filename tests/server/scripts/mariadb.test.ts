@@ -6,6 +6,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import {
   ensureDatabaseAndUser,
   ensureMariaDbInstalled,
+  freePort,
   mariaDbPaths,
   pingSocket,
   startMariaDb,
@@ -20,14 +21,6 @@ function tempDir(): string {
   const d = mkdtempSync(path.join(os.tmpdir(), 'gs-prov-'));
   dirs.push(d);
   return d;
-}
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const a = s.address() as net.AddressInfo;
-      s.close(() => resolve(a.port));
-    });
-  });
 }
 const pidGone = async (pid: number) => {
   for (let i = 0; i < 100; i++) {
