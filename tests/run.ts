@@ -4,7 +4,6 @@ import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { buildClient } from '../server/scripts/build-client.js';
 import { ensureDatabaseAndUser, freePort, mariaDbPaths, startMariaDb, stopMariaDb, type MariaDbPaths } from '../server/scripts/mariadb.js';
 
 // `npm test`: type checks, a throw-away MariaDB (temporary datadir, free port), migrations, the client built once,
@@ -52,14 +51,58 @@ function ensureChromium(): boolean {
   return true;
 }
 
+/** The whole suite's Vitest processes, run side by side (see main()). TEST_ONE_LANE=1 runs a single process instead. */
+const VITEST_LANES = [
+  { name: 'api', projects: ['server', 'shared', 'client'] },
+  { name: 'e2e', projects: ['e2e'] },
+] as const;
+
+/** Copies a stream line by line, each line starting with `prefix` (two processes' lines never mix). */
+function prefixLines(from: NodeJS.ReadableStream, to: NodeJS.WritableStream, prefix: string): void {
+  let rest = '';
+  from.setEncoding('utf8');
+  from.on('data', (d: string) => {
+    const lines = (rest + d).split('\n');
+    rest = lines.pop() ?? '';
+    if (lines.length) to.write(lines.map((l) => prefix + l + '\n').join(''));
+  });
+  from.on('end', () => {
+    if (rest) to.write(prefix + rest + '\n');
+  });
+}
+
 let tmp: string | null = null;
 let paths: MariaDbPaths | null = null;
-let child: ReturnType<typeof spawn> | null = null;
+/** Every child still running (type checks, the build, Vitest): stopped when the run is interrupted. */
+const children = new Set<ReturnType<typeof spawn>>();
 let cleaning: Promise<void> | null = null;
+
+interface Finished {
+  code: number;
+  output: string;
+  seconds: number;
+}
+
+/** Runs a command in the background, keeping its output (stdout and stderr in order) for the caller to print. */
+function runKeepingOutput(cmd: string, args: string[]): Promise<Finished> {
+  const started = Date.now();
+  return new Promise((resolve) => {
+    const c = spawn(cmd, args, { cwd: root, stdio: ['ignore', 'pipe', 'pipe'], env: process.env });
+    children.add(c);
+    const chunks: Buffer[] = [];
+    c.stdout!.on('data', (d: Buffer) => chunks.push(d));
+    c.stderr!.on('data', (d: Buffer) => chunks.push(d));
+    c.on('error', (err) => chunks.push(Buffer.from(`${String(err)}\n`)));
+    c.on('close', (code, sig) => {
+      children.delete(c);
+      resolve({ code: code ?? (sig ? 1 : 0), output: Buffer.concat(chunks).toString('utf8'), seconds: (Date.now() - started) / 1000 });
+    });
+  });
+}
 
 function cleanup(): Promise<void> {
   return (cleaning ??= (async () => {
-    if (child && child.exitCode === null) child.kill('SIGTERM');
+    for (const c of children) if (c.exitCode === null) c.kill('SIGTERM');
     if (paths) await stopMariaDb(paths).catch(() => undefined);
     if (tmp) rmSync(tmp, { recursive: true, force: true });
   })());
@@ -76,22 +119,28 @@ async function main(): Promise<number> {
   let failures = 0;
   const bin = (name: string) => path.join(root, 'node_modules', '.bin', name);
 
-  if (!process.env.SKIP_TYPECHECK) {
-    step('Type check: client (vue-tsc) and server (tsc)');
-    for (const [name, args] of [
-      ['vue-tsc', ['--noEmit', '-p', 'tsconfig.json']],
-      ['tsc', ['--noEmit', '-p', 'server/tsconfig.json']],
-    ] as const) {
-      const r = spawnSync(bin(name), [...args], { stdio: 'inherit' });
-      if (r.status !== 0) {
-        console.error(`✗ ${name} found type errors`);
-        failures++;
-      } else console.log(`✓ ${name}`);
-    }
+  // The type checks and the client build run in the background while the database starts and migrates (each keeps its
+  // output and prints it when awaited, so nothing interleaves).
+  const typechecks = process.env.SKIP_TYPECHECK
+    ? []
+    : ([
+        ['vue-tsc', ['--noEmit', '-p', 'tsconfig.json']],
+        ['tsc', ['--noEmit', '-p', 'server/tsconfig.json']],
+      ] as const).map(([name, args]) => ({ name, run: runKeepingOutput(bin(name), [...args]) }));
+
+  tmp = mkdtempSync(path.join(os.tmpdir(), 'gapsight-test-'));
+  let build: Promise<Finished> | null = null;
+  // E2E_DIST set by the caller to a folder holding a build: the browser tests use it as it is (no build).
+  const givenDist = process.env.E2E_DIST && existsSync(path.join(process.env.E2E_DIST, 'index.html')) ? process.env.E2E_DIST : null;
+  const out = givenDist ?? path.join(tmp, 'dist');
+  if (!process.env.SKIP_E2E_BUILD && !givenDist) {
+    const vite = path.join(root, 'node_modules', 'vite', 'bin', 'vite.js');
+    // --bypass-lock: Vite refuses a second build of the project while one runs (another `npm test` or `npm run build`);
+    // this one writes to its own temporary folder, so the two do not meet.
+    build = runKeepingOutput(process.execPath, [vite, 'build', '--outDir', out, '--emptyOutDir', '--logLevel', 'warn', '--bypass-lock']);
   }
 
   step('Throw-away MariaDB');
-  tmp = mkdtempSync(path.join(os.tmpdir(), 'gapsight-test-'));
   const dbPort = await freePort();
   paths = mariaDbPaths(path.join(tmp, 'db'), dbPort);
   await startMariaDb(paths, { bufferPoolMB: 128 });
@@ -144,22 +193,61 @@ async function main(): Promise<number> {
     step('Chromium for the browser tests');
     if (!ensureChromium()) failures++;
     step('Client build for the browser tests');
-    const out = path.join(tmp, 'dist');
-    if (!buildClient(root, out, true)) {
-      console.error('✗ client build failed');
-      failures++;
-    } else console.log('✓ built');
+    if (givenDist) console.log(`✓ the build in E2E_DIST=${givenDist}`);
+    else {
+      const b = await build!;
+      process.stdout.write(b.output);
+      if (b.code !== 0) {
+        console.error('✗ client build failed');
+        failures++;
+      } else console.log(`✓ built (${b.seconds.toFixed(0)} s)`);
+    }
     process.env.E2E_DIST = out;
   }
 
+  if (typechecks.length) {
+    step('Type check: client (vue-tsc) and server (tsc)');
+    for (const { name, run } of typechecks) {
+      const r = await run;
+      process.stdout.write(r.output);
+      if (r.code !== 0) {
+        console.error(`✗ ${name} found type errors`);
+        failures++;
+      } else console.log(`✓ ${name} (${r.seconds.toFixed(0)} s)`);
+    }
+  }
+
   step('Vitest');
-  const code: number = await new Promise((resolve) => {
-    child = spawn(process.execPath, [path.join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', ...vitestArgs], {
-      stdio: 'inherit',
-      env: process.env,
+  const vitest = path.join(root, 'node_modules', 'vitest', 'vitest.mjs');
+  const runVitest = (args: string[], prefix: string | null): Promise<number> =>
+    new Promise((resolve) => {
+      const c = spawn(process.execPath, [vitest, 'run', ...args], { stdio: prefix ? ['ignore', 'pipe', 'pipe'] : 'inherit', env: process.env });
+      children.add(c);
+      if (prefix) {
+        prefixLines(c.stdout!, process.stdout, prefix);
+        prefixLines(c.stderr!, process.stderr, prefix);
+      }
+      c.on('close', (code, sig) => {
+        children.delete(c);
+        resolve(code ?? (sig ? 1 : 0));
+      });
     });
-    child.on('exit', (c, sig) => resolve(c ?? (sig ? 1 : 0)));
-  });
+  let code: number;
+  if (vitestArgs.length > 0 || process.env.TEST_ONE_LANE) code = await runVitest(vitestArgs, null);
+  else {
+    // The whole suite: the server and the browser projects each run one file at a time (their own rule), but they use
+    // databases of their own, so the two run side by side in two Vitest processes; the shared and client projects go in
+    // the server's lane. Each line says its lane; each lane ends with its own summary.
+    const started = Date.now();
+    const lanes = VITEST_LANES.map(async ({ name, projects }) => {
+      const laneCode = await runVitest(projects.flatMap((p) => ['--project', p]), `[${name}] `);
+      console.log(`[${name}] ${laneCode === 0 ? '✓' : '✗'} lane ${name} (${projects.join(', ')}) done in ${((Date.now() - started) / 1000).toFixed(0)} s`);
+      return laneCode;
+    });
+    const codes = await Promise.all(lanes);
+    code = codes.some((c) => c !== 0) ? 1 : 0;
+    console.log(`\nVitest: ${VITEST_LANES.length} lanes in ${((Date.now() - started) / 1000).toFixed(0)} s`);
+  }
   if (code !== 0) failures++;
   return failures;
 }
