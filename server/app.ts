@@ -1,6 +1,7 @@
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express, { type Express } from 'express';
+import expressStaticGzip from 'express-static-gzip';
 import helmet from 'helmet';
 import type { AppContext } from './context.js';
 import { apiNotFound, errorHandler } from './common/error-handler.js';
@@ -52,7 +53,7 @@ export function createApp(context: AppContext, opts: AppOptions = {}): Express {
 
   const dir = opts.staticDir;
   if (dir && existsSync(path.join(dir, 'index.html'))) {
-    app.use(express.static(dir, { index: false, maxAge: '1h' }));
+    app.use(serveClientFiles(dir));
     // Single-page fallback: every non-API path gets the client, which routes itself.
     app.get('/{*splat}', (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache');
@@ -61,4 +62,24 @@ export function createApp(context: AppContext, opts: AppOptions = {}): Express {
   }
   app.use(errorHandler);
   return app;
+}
+
+/** The built client's files: the brotli or gzip copy the build wrote beside a file when the browser accepts it (brotli
+ * first), `Vary: Accept-Encoding`; hashed files under assets/ cached for a year, index.html revalidated every time. */
+function serveClientFiles(dir: string) {
+  const root = path.resolve(dir);
+  return expressStaticGzip(root, {
+    enableBrotli: true,
+    orderPreference: ['br', 'gzip'],
+    index: false,
+    serveStatic: {
+      index: false,
+      setHeaders(res, file) {
+        const name = path.relative(root, file).replace(/\.(br|gz)$/, '').split(path.sep).join('/');
+        if (name.startsWith('assets/')) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+        else if (name === 'index.html') res.setHeader('Cache-Control', 'no-cache');
+        else res.setHeader('Cache-Control', 'public, max-age=3600');
+      },
+    },
+  });
 }
