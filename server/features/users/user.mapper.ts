@@ -1,4 +1,5 @@
 import type { UserDto } from '../../../shared/schemas/auth.js';
+import type { Role } from '../../../shared/schemas/enums.js';
 import type { PersonView } from '../../../shared/schemas/responses/admin.js';
 import type { User } from './user.entity.js';
 
@@ -15,6 +16,46 @@ export function toUserDto(u: User): UserDto {
     demo: u.demo,
     mustChangePassword: u.mustChangePassword,
     lastSignInAt: u.lastSignInAt ? u.lastSignInAt.toISOString() : null,
+  };
+}
+
+/** The columns of `user` a session needs (UserDto, plus the token version), as one row of a raw query. */
+export interface SessionUserRow {
+  id: number;
+  email: string;
+  name: string;
+  roles: string | Role[];
+  siteIds: string | Buffer | null;
+  allSites: number | boolean;
+  active: number | boolean;
+  demo: number | boolean;
+  mustChangePassword: number | boolean;
+  tokenVersion: number;
+  lastSignInAt: Date | null;
+}
+
+/** The SELECT list of a SessionUserRow over `user` as `u` (its sites as one comma-separated, ordered text). */
+export const SESSION_USER_COLUMNS =
+  'u.id, u.email, u.name, u.roles, u.allSites, u.active, u.demo, u.mustChangePassword, u.tokenVersion, u.lastSignInAt, ' +
+  '(SELECT GROUP_CONCAT(us.siteId ORDER BY us.siteId SEPARATOR \',\') FROM user_site us WHERE us.userId = u.id) AS siteIds';
+
+/** A SessionUserRow as the API shows the user (the same answer as toUserDto of the entity) and its token version. */
+export function sessionUserFromRow(r: SessionUserRow): { dto: UserDto; tokenVersion: number } {
+  const sites = r.siteIds === null ? '' : String(r.siteIds);
+  return {
+    dto: {
+      id: Number(r.id),
+      email: r.email,
+      name: r.name,
+      roles: typeof r.roles === 'string' ? (JSON.parse(r.roles) as Role[]) : r.roles,
+      siteIds: sites ? sites.split(',').map(Number) : [],
+      allSites: Boolean(r.allSites),
+      active: Boolean(r.active),
+      demo: Boolean(r.demo),
+      mustChangePassword: Boolean(r.mustChangePassword),
+      lastSignInAt: r.lastSignInAt ? new Date(r.lastSignInAt).toISOString() : null,
+    },
+    tokenVersion: Number(r.tokenVersion),
   };
 }
 
