@@ -7,7 +7,7 @@ import { fileURLToPath } from 'node:url';
 import { brotliCompressSync, constants as zlib } from 'node:zlib';
 import { benchEngine } from './bench/engine.js';
 import { chromiumMissing, measureFirstLoad, type PageBytes } from './bench/first-load.js';
-import { compareShapes, loadRunInChild } from './bench/load.js';
+import { compareShapes, startLoadChild } from './bench/load.js';
 import { figure, figureProblems, textTable, writeReadmeTable, type BenchReport, type Figure } from './bench/report.js';
 import { FULL_FLEET, QUICK_FLEET } from './bench/seed.js';
 import { clientIsStale, buildClient } from './build-client.js';
@@ -33,7 +33,8 @@ const sizes = quick
 /** Full runs write bench/results.json (committed); quick runs the OS temp folder, so a smoke run never touches the repo. */
 const jsonPath = argValue('--json') ?? (quick ? path.join(os.tmpdir(), 'gapsight-bench-results.quick.json') : path.join(root, 'bench', 'results.json'));
 
-const log = (l: string) => console.log(l);
+const started = performance.now();
+const log = (l: string) => console.log(`[${((performance.now() - started) / 1000).toFixed(1).padStart(5)} s] ${l}`);
 const figures: Figure[] = [];
 const skipped: string[] = [];
 const setup: Record<string, unknown> = {};
@@ -53,6 +54,8 @@ process.once('SIGINT', () => {
   void cleanup().then(() => process.exit(130));
 });
 
+/** Keys of the event file the app computes (the floor answers their inputs: priorFaults, the audit rows). */
+const COMPUTED_IN_APP = /^(throughFault|dutyCase)(\.|$)|^audit\[\]\.summary$/;
 const fmtMs = (ms: number) => `${(ms / 1000).toFixed(1)} s`;
 
 async function main(): Promise<void> {
@@ -148,17 +151,23 @@ async function main(): Promise<void> {
     const f = await fetch(`${floor.url}${url}`);
     if (!a.ok || !f.ok) throw new Error(`${url}: app ${a.status}, floor ${f.status}`);
     const cmp = compareShapes(await a.json(), await f.json());
-    shapes[key] = cmp;
+    // Figures the app computes from rows the floor reads too (the duty from the earlier faults, the audit in words).
+    const computed = cmp.missingInFloor.filter((k) => COMPUTED_IN_APP.test(k));
+    cmp.missingInFloor = cmp.missingInFloor.filter((k) => !COMPUTED_IN_APP.test(k));
+    shapes[key] = { ...cmp, computedInApp: computed };
     if (cmp.missingInFloor.length) log(`  ${url}: in the app's answer, not the floor's: ${cmp.missingInFloor.join(', ')}`);
   }
   setup.shapes = shapes;
+  const loader = await startLoadChild(root);
+  cleanups.push(async () => loader.stop());
   for (const [key, url] of urls) {
     for (const c of sizes.connections) {
       log(`Load: GET ${url} at ${c} connections, ${sizes.loadSeconds} s each for the app and the floor…`);
-      const a = await loadRunInChild(root, `${base}${url}`, c, sizes.loadSeconds, auth);
-      const f = await loadRunInChild(root, `${floor.url}${url}`, c, sizes.loadSeconds);
+      const a = await loader.run(`${base}${url}`, c, sizes.loadSeconds, auth);
+      const f = await loader.run(`${floor.url}${url}`, c, sizes.loadSeconds);
       const missing = (shapes[key] as ReturnType<typeof compareShapes>).missingInFloor;
-      const same = missing.length ? `floor lacks ${missing.length} key(s): ${missing.slice(0, 4).join(', ')}${missing.length > 4 ? ', …' : ''}` : 'same keys';
+      const computed = (shapes[key] as { computedInApp: string[] }).computedInApp;
+      const same = `${missing.length ? `floor lacks ${missing.length} key(s): ${missing.slice(0, 4).join(', ')}${missing.length > 4 ? ', …' : ''}` : 'same keys'}${computed.length ? ' (besides the duty and audit sentences the app computes; the floor sends their input rows)' : ''}; ${(shapes[key] as { counts: string }).counts}`;
       const name = `GET ${url.replace(/\/\d+/, '/:id')} @${c}`;
       const rps = figure(`load.${key}.${c}.rps`, `${name}: requests/s`, a.rps, f.rps, 'req/s', '≥ 0.5 × floor', (r) => r >= 0.5, `${a.requests} requests (floor ${f.requests}); ${same}`);
       const p95 = figure(`load.${key}.${c}.p95`, `${name}: p95 latency`, a.p95, f.p95, 'ms', '≤ 2 × floor', (r) => r <= 2, `p50 ${a.p50.toFixed(1)} / p99 ${a.p99.toFixed(1)} ms; floor p50 ${f.p50.toFixed(1)} / p99 ${f.p99.toFixed(1)} ms`);
@@ -200,7 +209,7 @@ async function main(): Promise<void> {
   // 7. First load.
   if (staticDir && !chromiumProblem) {
     const [demoUnit] = (await db.query("SELECT id FROM unit WHERE serial NOT LIKE 'BENCH-%' ORDER BY id LIMIT 1")) as { id: number }[];
-    const pages = [
+    const all = [
       { page: 'desk', path: '/' },
       { page: 'fleet', path: '/units' },
       { page: 'unit file', path: `/units/${demoEvent.unitId ?? demoUnit.id}` },
@@ -209,6 +218,8 @@ async function main(): Promise<void> {
       { page: 'criteria', path: '/criteria' },
       { page: 'people', path: '/admin/people' },
     ];
+    // A quick run visits the desk and the heaviest page only.
+    const pages = quick ? all.filter((x) => x.page === 'desk' || x.page === 'event file') : all;
     log('First load: Chromium, one fresh context a page…');
     const fl = await measureFirstLoad(base, token, pages);
     // The floor of a visit: its static files compressed with brotli at the highest quality (what the same files could

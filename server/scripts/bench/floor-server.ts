@@ -1,6 +1,7 @@
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import mysql from 'mysql2/promise';
+import { rowsToReadingSet } from '../../../shared/readings/rows.js';
 import { DB_POOL_SIZE } from '../../db/create-data-source.js';
 
 // The floor of the read API: a bare node:http server over a bare mysql2 pool of the app's size (DB_POOL_SIZE) that
@@ -24,15 +25,16 @@ function eventRow(e: Row): Row {
   return { ...e, shots: json(e.shots), protectionOperated: json(e.protectionOperated), transformerTripped: bool(e.transformerTripped) };
 }
 
-/** Readings rows → values keyed as the case format keys them (capacitancePF.CH, reactance.A.percent, …). */
+/** Readings rows → values keyed as the case format keys them: the project's own one-pass row reader (pure). */
 function valuesOf(rows: Row[]): Row {
-  const KEY: Record<string, string> = { capacitance: 'capacitancePF', dissipation: 'dissipationPercent', reactance: 'reactance', 'excitation-current': 'excitationCurrentMA', 'winding-resistance': 'windingResistanceOhm', 'turns-ratio': 'turnsRatio', 'dissolved-gas': 'dissolvedGasPPM' };
-  const out: Record<string, Record<string, unknown>> = {};
-  for (const r of rows) {
-    const key = KEY[String(r.quantity)] ?? String(r.quantity);
-    const at = String(r.configuration ?? r.phase ?? r.mode ?? '');
-    (out[key] ??= {})[at] = key === 'reactance' ? { [String(r.mode ?? 'percent')]: r.value } : r.value;
-  }
+  return rowsToReadingSet(rows as unknown as Parameters<typeof rowsToReadingSet>[0]) as Row;
+}
+
+/** The set conditions the app's answers carry beside the values (case-format names). */
+function setConditions(s: Row): Row {
+  const out: Row = { takenAt: s.takenAt };
+  for (const [k, from] of [['temperatureC', 'temperatureC'], ['tapPosition', 'tapPosition'], ['demagnetised', 'demagnetised'], ['hoursDeEnergised', 'hoursDeenergised'], ['windingTemperatureC', 'windingTemperatureC']] as const)
+    if (s[from] !== null && s[from] !== undefined) out[k] = from === 'demagnetised' ? bool(s[from]) : s[from];
   return out;
 }
 
@@ -104,7 +106,7 @@ export async function startFloorServer(db: DbAddress): Promise<{ url: string; cl
       ...eventRow(e),
       unit: { ...unitOut, site: { id: u.s_id, name: u.s_name, timeZone: u.s_timeZone, locale: u.s_locale }, design: { ...d, coolingStages: json(d.coolingStages), requiredCapacitance: json(d.requiredCapacitance) } },
       priorFaults: prior.map((p) => ({ ...p, shots: json(p.shots) })),
-      sessions: sets.map((s) => ({ ...s, values: valuesOf(bySet.get(s.id) ?? []), sweeps: sweepsBySet.get(s.id) ?? [] })),
+      sessions: sets.map((s) => ({ ...s, values: { ...setConditions(s), ...valuesOf(bySet.get(s.id) ?? []) }, sweeps: sweepsBySet.get(s.id) ?? [] })),
       screenings: screenings.map((s) => ({ ...s, result: json(s.result) })),
       decision: decisions[0] ?? null,
       decisions,
@@ -130,22 +132,25 @@ export async function startFloorServer(db: DbAddress): Promise<{ url: string; cl
        SELECT * FROM reading_set WHERE unitId = ${unitOf} ORDER BY takenAt, id;
        SELECT r.readingSetId, r.quantity, r.configuration, r.phase, r.mode, r.frequencyHz, r.value, r.unit FROM reading r JOIN reading_set rs ON rs.id = r.readingSetId WHERE rs.unitId = ${unitOf} ORDER BY r.id;
        SELECT id, serial FROM unit WHERE designId = ${designOf} AND id <> ${unitOf} ORDER BY serial;
-       SELECT rs.unitId, rs.takenAt, r.quantity, r.configuration, r.phase, r.mode, r.frequencyHz, r.value, r.unit FROM reading r JOIN reading_set rs ON rs.id = r.readingSetId JOIN unit su ON su.id = rs.unitId
+       SELECT rs.unitId, rs.takenAt, rs.temperatureC, rs.tapPosition, rs.demagnetised, rs.hoursDeenergised, rs.windingTemperatureC, r.quantity, r.configuration, r.phase, r.mode, r.frequencyHz, r.value, r.unit FROM reading r JOIN reading_set rs ON rs.id = r.readingSetId JOIN unit su ON su.id = rs.unitId
          WHERE su.designId = ${designOf} AND su.id <> ${unitOf} AND rs.kind <> 'post-fault' ORDER BY rs.takenAt, rs.id, r.id;
-       SELECT t.readingSetId, t.label, t.testType, t.winding, t.phase, t.tapPosition, t.baselineTapPosition, t.demagnetised, t.points FROM sweep_trace t JOIN reading_set rs ON rs.id = t.readingSetId WHERE rs.unitId = ${unitOf}`,
+       SELECT t.id, t.readingSetId, rs.takenAt, t.label, t.testType, t.winding, t.phase, t.tapPosition, t.baselineTapPosition, t.demagnetised, t.points FROM sweep_trace t JOIN reading_set rs ON rs.id = t.readingSetId WHERE rs.unitId = ${unitOf}`,
       [id, id, id, id, id, id, id, id, id, id, id, id],
     );
     if (!e) return null;
     const before = (s: Row) => (s.takenAt as Date).getTime() < (e.occurredAt as Date).getTime();
     const bySet = groupBy(readings, 'readingSetId');
-    const merged = (ss: Row[]) => (ss.length ? { takenAt: ss[ss.length - 1].takenAt, temperatureC: ss[ss.length - 1].temperatureC, tapPosition: ss[ss.length - 1].tapPosition, ...valuesOf(ss.flatMap((s) => bySet.get(s.id) ?? [])) } : undefined);
+    const merged = (ss: Row[]) => (ss.length ? { ...setConditions(ss[ss.length - 1]), ...valuesOf(ss.flatMap((s) => bySet.get(s.id) ?? [])) } : undefined);
     const baseline = sets.filter((s) => s.kind !== 'post-fault' && (s.kind !== 'routine' || Number(s.isReference)) && before(s));
     const previous = sets.filter((s) => s.kind === 'routine' && !Number(s.isReference) && before(s));
     const sessions = sets.filter((s) => s.kind === 'post-fault' && s.eventId === e.id);
     const sisterRows = groupBy(sisterReadings, 'unitId');
     const sessionIds = new Set(sessions.map((s) => s.id));
-    const post = traces.filter((t) => sessionIds.has(t.readingSetId));
-    const refs = traces.filter((t) => !sessionIds.has(t.readingSetId));
+    // Newest trace first (its set's time, then its id); one post-fault trace a label, paired with the newest baseline trace of that label.
+    traces.sort((a, b) => (b.takenAt as Date).getTime() - (a.takenAt as Date).getTime() || Number(b.id) - Number(a.id));
+    const post = traces.filter((t, i) => sessionIds.has(t.readingSetId) && traces.findIndex((x) => sessionIds.has(x.readingSetId) && x.label === t.label) === i);
+    const ownIds = new Set([...baseline, ...previous].map((s) => s.id));
+    const refs = traces.filter((t) => ownIds.has(t.readingSetId));
     return {
       format: 'gapsight-case/1',
       unit: { serial: u.serial, phases: u.phases, ratedKVA: u.ratedKVA, hvKV: u.hvKV, lvKV: u.lvKV, impedancePercent: u.impedancePercent, systemImpedancePercent: u.systemImpedancePercent, windings: u.windings, vectorGroup: u.vectorGroup, conductor: u.conductor, requiredCapacitance: json(u.requiredCapacitance) },
@@ -154,7 +159,10 @@ export async function startFloorServer(db: DbAddress): Promise<{ url: string; cl
       baseline: merged(baseline),
       previous: merged(previous),
       postFault: merged(sessions),
-      sisters: sisters.filter((s) => sisterRows.has(s.id)).map((s) => ({ serial: s.serial, ...valuesOf(sisterRows.get(s.id)!) })),
+      sisters: sisters.filter((s) => sisterRows.has(s.id)).map((s) => {
+        const rows = sisterRows.get(s.id)!;
+        return { serial: s.serial, ...setConditions(rows[rows.length - 1]), ...valuesOf(rows) };
+      }),
       sweeps: post.map((p) => {
         const b = refs.find((t) => t.label === p.label);
         return { label: p.label, testType: p.testType, winding: p.winding, phase: p.phase, tapPosition: p.tapPosition, baselineTapPosition: p.baselineTapPosition ?? b?.tapPosition, demagnetised: bool(p.demagnetised), baseline: b ? json(b.points) : undefined, postFault: json(p.points) };

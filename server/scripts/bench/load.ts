@@ -76,7 +76,7 @@ export function compareShapes(app: unknown, floor: unknown): { missingInFloor: s
   const f = new Set(shapeKeys(floor));
   const lists = (v: unknown) =>
     Object.entries((v ?? {}) as Record<string, unknown>)
-      .filter(([, x]) => Array.isArray(x))
+      .filter(([k, x]) => Array.isArray(x) && a.has(k))
       .map(([k, x]) => `${k} ${(x as unknown[]).length}`)
       .join(', ');
   const la = lists(app);
@@ -85,23 +85,48 @@ export function compareShapes(app: unknown, floor: unknown): { missingInFloor: s
 }
 
 /**
- * The same run in a child process (server/scripts/bench/load-child.ts), so that the load generator does not share the
- * event loop of the server under test (the app and the floor both run in the bench's own process).
+ * Runs in a child process (server/scripts/bench/load-child.ts, started once and kept), so that the load generator does
+ * not share the event loop of the servers under test (the app and the floor both run in the bench's own process).
  */
-export async function loadRunInChild(root: string, url: string, connections: number, seconds: number, headers: Record<string, string> = {}): Promise<LoadFigure> {
+export async function startLoadChild(root: string): Promise<{ run: (url: string, connections: number, seconds: number, headers?: Record<string, string>) => Promise<LoadFigure>; stop: () => void }> {
   const { spawn } = await import('node:child_process');
   const path = await import('node:path');
   const tsx = path.join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs');
   const child = spawn(process.execPath, [tsx, '--tsconfig', path.join(root, 'server', 'tsconfig.json'), path.join(root, 'server', 'scripts', 'bench', 'load-child.ts')], {
     cwd: root,
-    stdio: ['pipe', 'pipe', 'pipe'],
+    stdio: ['pipe', 'pipe', 'inherit'],
   });
-  let out = '';
-  let err = '';
-  child.stdout.on('data', (d) => (out += d));
-  child.stderr.on('data', (d) => (err += d));
-  child.stdin.end(JSON.stringify({ url, connections, seconds, headers }));
-  const code = await new Promise<number | null>((resolve) => child.on('close', resolve));
-  if (code !== 0) throw new Error(`load run of ${url} at ${connections} connections failed (${code}): ${err.trim().split('\n').slice(-5).join(' / ')}`);
-  return JSON.parse(out.trim().split('\n').pop()!) as LoadFigure;
+  let buffer = '';
+  let waiting: ((line: string) => void) | null = null;
+  child.stdout.on('data', (d) => {
+    buffer += d;
+    let n;
+    while ((n = buffer.indexOf('\n')) >= 0) {
+      const line = buffer.slice(0, n);
+      buffer = buffer.slice(n + 1);
+      waiting?.(line);
+    }
+  });
+  let exited = false;
+  child.on('exit', () => {
+    exited = true;
+    waiting?.(JSON.stringify({ error: 'the load process ended' }));
+  });
+  return {
+    run: (url, connections, seconds, headers = {}) =>
+      new Promise((resolve, reject) => {
+        if (exited) return reject(new Error('the load process ended'));
+        waiting = (line) => {
+          waiting = null;
+          const answer = JSON.parse(line) as LoadFigure & { error?: string };
+          if (answer.error) reject(new Error(`GET ${url} at ${connections} connections: ${answer.error}`));
+          else resolve(answer);
+        };
+        child.stdin.write(`${JSON.stringify({ url, connections, seconds, headers })}\n`);
+      }),
+    stop: () => {
+      child.stdin.end();
+      if (!exited) child.kill();
+    },
+  };
 }
