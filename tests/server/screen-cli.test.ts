@@ -7,8 +7,10 @@ import { describe, expect, it } from 'vitest';
 
 const root = join(import.meta.dirname, '../..');
 const example = join(root, 'examples/cases/conditional.json');
+// As `npm run screen` runs it (tsx), started with node directly: npx would add a second or so to every run.
+const tsxCli = join(root, 'node_modules/tsx/dist/cli.mjs');
 const run = (...args: string[]) =>
-  spawnSync('npx', ['tsx', '--tsconfig', 'server/tsconfig.json', 'server/scripts/screen.ts', ...args], { cwd: root, encoding: 'utf8' });
+  spawnSync(process.execPath, [tsxCli, '--tsconfig', 'server/tsconfig.json', 'server/scripts/screen.ts', ...args], { cwd: root, encoding: 'utf8' });
 const tmp = mkdtempSync(join(tmpdir(), 'gapsight-cli-'));
 
 describe('screen CLI', () => {
