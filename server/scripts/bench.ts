@@ -227,7 +227,7 @@ async function main(): Promise<void> {
     const brotli = new Map<string, number>();
     const best = (items: PageBytes['items'], only?: (type: string) => boolean) =>
       items
-        .filter((i) => !only || only(i.type))
+        .filter((i) => i.bytes > 0 && (!only || only(i.type)))
         .reduce((sum, i) => {
           const u = new URL(i.url);
           if (u.pathname.startsWith('/api/')) return sum + i.bytes;
@@ -238,10 +238,10 @@ async function main(): Promise<void> {
         }, 0);
     const kB = (b: number) => b / 1000;
     const signIn = fl.pages[0];
-    const signInJsFloor = best(signIn.items, (t) => t === 'Script');
-    const deskJsFloor = best(fl.pages.find((x) => x.page === 'desk')!.items, (t) => t === 'Script');
+    const deskAfter = fl.pages.find((x) => x.page.startsWith('desk after'))!;
+    const jsFloor = best(signIn.items, (t) => t === 'Script') + best(deskAfter.items, (t) => t === 'Script');
     figures.push(
-      figure('firstLoad.signInDeskJs', 'First load: JS of sign-in + desk (compressed, desk after sign-in)', kB(fl.signInDeskJs), kB(Math.max(signInJsFloor, deskJsFloor)), 'kB', '≤ 200 kB', (_r, v) => v <= 200, `encodings: ${signIn.encodings.join(', ')}`),
+      figure('firstLoad.signInDeskJs', 'First load: JS of sign-in + desk (compressed, desk after sign-in)', kB(fl.signInDeskJs), kB(jsFloor), 'kB', '≤ 200 kB', (_r, v) => v <= 200, `encodings: ${signIn.encodings.join(', ')}`),
     );
     for (const pg of fl.pages.filter((x) => !x.page.startsWith('desk after'))) {
       figures.push(

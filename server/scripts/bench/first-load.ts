@@ -75,6 +75,7 @@ export async function measureFirstLoad(base: string, token: string, pages: { pag
     results.push(signIn);
     await first.addInitScript((t) => localStorage.setItem('gapsight.token', t), token);
     const deskAfter = await visit(first, 'desk after sign-in (cache warm)', '/');
+    results.push(deskAfter);
     await first.close();
     for (const pg of pages) {
       const ctx = await signedIn();
