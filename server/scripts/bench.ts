@@ -172,6 +172,7 @@ async function main(): Promise<void> {
       const rps = figure(`load.${key}.${c}.rps`, `${name}: requests/s`, a.rps, f.rps, 'req/s', '≥ 0.5 × floor', (r) => r >= 0.5, `${a.requests} requests (floor ${f.requests}); ${same}`);
       const p95 = figure(`load.${key}.${c}.p95`, `${name}: p95 latency`, a.p95, f.p95, 'ms', '≤ 2 × floor', (r) => r <= 2, `p50 ${a.p50.toFixed(1)} / p99 ${a.p99.toFixed(1)} ms; floor p50 ${f.p50.toFixed(1)} / p99 ${f.p99.toFixed(1)} ms`);
       figures.push(rps, p95);
+      ((setup.load ??= []) as unknown[]).push({ url, connections: c, app: a, floor: f });
       log(`  app ${a.rps.toFixed(0)} req/s p95 ${a.p95.toFixed(1)} ms; floor ${f.rps.toFixed(0)} req/s p95 ${f.p95.toFixed(1)} ms`);
     }
   }
