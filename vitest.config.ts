@@ -6,7 +6,8 @@ import { quasar, transformAssetUrls } from '@quasar/vite-plugin';
 export default defineConfig({
   test: {
     projects: [
-      { test: { name: 'shared', environment: 'node', include: ['tests/shared/**/*.test.ts'] } },
+      // Pure functions (no I/O, no mocks, no globals): every file in one worker without a fresh module graph each.
+      { test: { name: 'shared', environment: 'node', include: ['tests/shared/**/*.test.ts'], isolate: false } },
       {
         test: {
           name: 'server',
