@@ -39,6 +39,7 @@ const figures: Figure[] = [];
 const skipped: string[] = [];
 const setup: Record<string, unknown> = {};
 const loadAverageAtStart = os.loadavg();
+const startedAt = new Date().toISOString();
 const tmp = mkdtempSync(path.join(os.tmpdir(), 'gapsight-bench-'));
 const cleanups: (() => Promise<unknown>)[] = [];
 let cleaning: Promise<void> | null = null;
@@ -70,6 +71,7 @@ async function main(): Promise<void> {
   // The client, built before anything listens (the build is the slowest step of a quick run when dist/ is stale).
   const chromiumProblem = chromiumMissing();
   let staticDir: string | undefined = argValue('--dist');
+  const given = staticDir !== undefined;
   if (chromiumProblem) {
     skipped.push(`first load — ${chromiumProblem}`);
     console.warn(chromiumProblem);
@@ -82,7 +84,7 @@ async function main(): Promise<void> {
       staticDir = out;
     }
   }
-  setup.client = staticDir === path.join(root, 'dist') ? 'dist/ (fresh)' : staticDir ? 'built for this run' : 'none';
+  setup.client = given ? `given (--dist ${staticDir})` : staticDir === path.join(root, 'dist') ? 'dist/ (fresh)' : staticDir ? 'built for this run' : 'none';
 
   // 2. The throw-away MariaDB, migrations, demo seed, bulk fleet.
   const p = mariaDbPaths(path.join(tmp, 'db'), await freePort());
@@ -254,7 +256,7 @@ async function main(): Promise<void> {
 
 const machine = () => {
   const cpus = os.cpus();
-  return { cpus: cpus[0]?.model ?? 'unknown', cpuCount: cpus.length, node: process.version, date: new Date().toISOString(), loadAverageAtStart, platform: `${process.platform}/${process.arch}` };
+  return { cpus: cpus[0]?.model ?? 'unknown', cpuCount: cpus.length, node: process.version, date: startedAt, loadAverageAtStart, platform: `${process.platform}/${process.arch}` };
 };
 
 let failed: unknown = null;
