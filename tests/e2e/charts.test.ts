@@ -174,8 +174,22 @@ async function unfoldAll(page: Page): Promise<void> {
 async function drawnChart(chart: Locator): Promise<{ marks: number; titles: string[]; svgWidth: number; plotWidth: number }> {
   await chart.scrollIntoViewIfNeeded();
   await chart.locator('svg.apexcharts-svg').first().waitFor({ timeout: 20_000 });
-  // The library draws in the next frames after its svg appears.
-  await chart.page().waitForTimeout(300);
+  // The library draws in the next frames after its svg appears: wait for a series mark with a size (5 s at most; the
+  // count below says whether one came), then two more frames for the rest of the drawing.
+  await chart.evaluate(
+    (el) =>
+      new Promise<void>((resolve) => {
+        const until = Date.now() + 5_000;
+        const drawn = () =>
+          Array.from(el.querySelectorAll('svg.apexcharts-svg .apexcharts-series path, svg.apexcharts-svg .apexcharts-series circle, svg.apexcharts-svg .apexcharts-series rect, svg.apexcharts-svg .apexcharts-series-markers path, svg.apexcharts-svg .apexcharts-series-markers circle')).some((m) => {
+            const box = (m as SVGGraphicsElement).getBBox();
+            return box.width > 0 || box.height > 0;
+          });
+        const frame = (n: number) => requestAnimationFrame(() => (n > 1 ? frame(n - 1) : resolve()));
+        const check = () => (drawn() || Date.now() > until ? frame(2) : setTimeout(check, 25));
+        check();
+      }),
+  );
   return chart.evaluate((el) => {
     const marks = Array.from(el.querySelectorAll('svg.apexcharts-svg .apexcharts-series path, svg.apexcharts-svg .apexcharts-series circle, svg.apexcharts-svg .apexcharts-series rect, svg.apexcharts-svg .apexcharts-series-markers path, svg.apexcharts-svg .apexcharts-series-markers circle')).filter((m) => {
       const box = (m as SVGGraphicsElement).getBBox();

@@ -1,4 +1,4 @@
-import type { Browser, Page } from 'playwright-core';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { DEMO_PASSWORD } from '../../server/db/seed/demo-users.js';
 
 // Shared steps of the layout and accessibility browser tests: demo tokens, a signed-in page at a width, the API.
@@ -34,34 +34,96 @@ export function demoApi(baseUrl: string) {
   return { token, call };
 }
 
+/**
+ * One browser context per browser, role and width, kept until the browser closes: a page opened in it finds the app's
+ * scripts in the context's cache (compiled once) instead of fetching them again. Each new tab starts as in a fresh
+ * context: on its first load its local storage is emptied (no other page's drafts) and holds only the role's token.
+ */
+const contexts = new WeakMap<Browser, Map<string, Promise<BrowserContext>>>();
+
+async function contextFor(browser: Browser, api: ReturnType<typeof demoApi>, role: DemoRole | null, width: number): Promise<BrowserContext> {
+  let byKey = contexts.get(browser);
+  if (!byKey) contexts.set(browser, (byKey = new Map()));
+  const key = `${role ?? '-'}@${width}`;
+  let made = byKey.get(key);
+  if (!made) {
+    made = (async () => {
+      // bypassCSP: the app's Content-Security-Policy (script-src 'self') would refuse the axe-core script the test injects.
+      const context = await browser.newContext({ viewport: { width, height: 900 }, bypassCSP: true });
+      // The token is in local storage before the app's first script runs (one page load instead of two); only on the
+      // tab's first load, so that a sign-out or a draft within a test stays as the test left it through reloads.
+      const token = role ? await api.token(role) : null;
+      await context.addInitScript((t) => {
+        if (sessionStorage.getItem('gapsight.test-signed-in')) return;
+        sessionStorage.setItem('gapsight.test-signed-in', '1');
+        localStorage.clear();
+        if (t) localStorage.setItem('gapsight.token', t);
+      }, token);
+      return context;
+    })();
+    byKey.set(key, made);
+    made.catch(() => byKey.delete(key));
+  }
+  return made;
+}
+
 /** A page signed in as `role` (token in local storage, as the client keeps it), at `width` × 900, opened on `path`. */
 export async function openAs(browser: Browser, baseUrl: string, api: ReturnType<typeof demoApi>, role: DemoRole | null, path: string, width = 1440): Promise<Page> {
-  // bypassCSP: the app's Content-Security-Policy (script-src 'self') would refuse the axe-core script the test injects.
-  const context = await browser.newContext({ viewport: { width, height: 900 }, bypassCSP: true });
+  const context = await contextFor(browser, api, role, width);
   const page = await context.newPage();
-  // The page's own context goes with it. When the browser is closing too (a file's afterAll right after its last test),
-  // closing the context is refused with "Target page, context or browser has been closed": nothing is left to close.
-  page.on('close', () => {
-    context.close().catch(() => undefined);
-  });
-  if (role) {
-    // The token is in local storage before the app's first script runs (one page load instead of two); only on the
-    // tab's first load, so that a sign-out within a test stays signed out.
-    const token = await api.token(role);
-    await context.addInitScript((t) => {
-      if (sessionStorage.getItem('gapsight.test-signed-in')) return;
-      sessionStorage.setItem('gapsight.test-signed-in', '1');
-      localStorage.setItem('gapsight.token', t);
-    }, token);
-  }
+  trackRequests(page);
   await page.goto(`${baseUrl}${path}`);
   await settled(page);
   return page;
 }
 
+interface RequestTracker {
+  inFlight: number;
+  lastChange: number;
+}
+
+const trackers = new WeakMap<Page, RequestTracker>();
+
+/** Counts the page's requests still waiting for their answer (from now on). */
+function trackRequests(page: Page): RequestTracker {
+  const known = trackers.get(page);
+  if (known) return known;
+  const tracker: RequestTracker = { inFlight: 0, lastChange: Date.now() };
+  page.on('request', () => {
+    tracker.inFlight += 1;
+    tracker.lastChange = Date.now();
+  });
+  const done = () => {
+    tracker.inFlight = Math.max(0, tracker.inFlight - 1);
+    tracker.lastChange = Date.now();
+  };
+  page.on('requestfinished', done);
+  page.on('requestfailed', done);
+  trackers.set(page, tracker);
+  return tracker;
+}
+
+/** How long no request may be open before the page counts as loaded (Playwright's "networkidle" waits 500 ms). */
+const QUIET_MS = 250;
+
+/** Waits until none of the page's requests has been open for QUIET_MS (30 s at most, as "networkidle"). */
+async function requestsQuiet(page: Page): Promise<void> {
+  const tracker = trackers.get(page);
+  if (!tracker) {
+    await page.waitForLoadState('networkidle');
+    return;
+  }
+  await page.waitForLoadState('load');
+  const deadline = Date.now() + 30_000;
+  while (tracker.inFlight > 0 || Date.now() - tracker.lastChange < QUIET_MS) {
+    if (Date.now() > deadline) throw new Error(`${page.url()}: ${tracker.inFlight} request(s) still open after 30 s`);
+    await new Promise((r) => setTimeout(r, 25));
+  }
+}
+
 /** Waits until the page's requests are answered and no load spinner is left. */
 export async function settled(page: Page): Promise<void> {
-  await page.waitForLoadState('networkidle');
+  await requestsQuiet(page);
   await page.waitForSelector('main');
   await page.waitForFunction(() => !document.querySelector('[data-test$="-loading"], .q-table__linear-progress'), null, { timeout: 15_000 });
 }
