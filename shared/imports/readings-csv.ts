@@ -17,9 +17,9 @@ import {
   separatorProblem,
 } from './csv.js';
 
-import { READINGS_COLUMNS, type ReadingsColumn } from './readings-columns.js';
-
-export { READINGS_COLUMNS, type ReadingsColumn };
+/** Column names of the canonical readings CSV, in the order written by `mapColumns`. */
+export const READINGS_COLUMNS = ['quantity', 'configuration', 'phase', 'value', 'unit'] as const;
+export type ReadingsColumn = (typeof READINGS_COLUMNS)[number];
 
 export const READING_QUANTITIES = [
   'capacitance',

@@ -194,12 +194,12 @@ describe('the first page', () => {
   });
 
   // The sign-in form checks its fields with the shared login schema (the server's own rules), so zod may load with
-  // sign-in; nothing else heavy may, and the desk's own chunks may not hold zod either. The event file's forms and
-  // figures need zod and the engine; the CSV parser and the chart library load only when used there.
+  // sign-in; nothing else heavy may, and the desk's own chunks may not hold zod either. The event file's forms, figures
+  // and readings import need zod, the engine and the CSV parser; the chart library loads only when a chart shows.
   it.each([
     ['sign-in', SIGN_IN, ['zod']],
     ['desk', DESK, []],
-    ['event file', ['index.html', 'src/layouts/AppShellLayout.vue', 'src/pages/EventFilePage.vue'], ['zod', 'the screening engine']],
+    ['event file', ['index.html', 'src/layouts/AppShellLayout.vue', 'src/pages/EventFilePage.vue'], ['zod', 'papaparse', 'the screening engine']],
   ])('%s: its chunks hold no heavy library and no screening engine', (_page, keys, allowed) => {
     for (const key of keys) expect(manifest[key], key).toBeDefined();
     const { js } = firstLoad(keys);
