@@ -121,8 +121,9 @@ async function main(): Promise<number> {
   let failures = 0;
   const bin = (name: string) => path.join(root, 'node_modules', '.bin', name);
 
-  // The type checks and the client build run in the background while the database starts and migrates (each keeps its
-  // output and prints it when awaited, so nothing interleaves).
+  // The type checks run in the background from the start, beside the database, the build and the tests (on two cores
+  // they fill the moments the tests wait); their output is printed after Vitest's. The client build runs while the
+  // database starts and migrates. Each keeps its output and prints it when awaited, so nothing interleaves.
   const typechecks = process.env.SKIP_TYPECHECK
     ? []
     : ([
@@ -207,18 +208,6 @@ async function main(): Promise<number> {
     process.env.E2E_DIST = out;
   }
 
-  if (typechecks.length) {
-    step('Type check: client (vue-tsc) and server (tsc)');
-    for (const { name, run } of typechecks) {
-      const r = await run;
-      process.stdout.write(r.output);
-      if (r.code !== 0) {
-        console.error(`✗ ${name} found type errors`);
-        failures++;
-      } else console.log(`✓ ${name} (${r.seconds.toFixed(0)} s)`);
-    }
-  }
-
   step('Vitest');
   const vitest = path.join(root, 'node_modules', 'vitest', 'vitest.mjs');
   const runVitest = (args: string[], prefix: string | null): Promise<number> =>
@@ -255,6 +244,18 @@ async function main(): Promise<number> {
     console.log(`\nVitest: ${VITEST_LANES.length} lanes in ${((Date.now() - started) / 1000).toFixed(0)} s`);
   }
   if (code !== 0) failures++;
+
+  if (typechecks.length) {
+    step('Type check: client (vue-tsc) and server (tsc)');
+    for (const { name, run } of typechecks) {
+      const r = await run;
+      process.stdout.write(r.output);
+      if (r.code !== 0) {
+        console.error(`✗ ${name} found type errors`);
+        failures++;
+      } else console.log(`✓ ${name} (${r.seconds.toFixed(0)} s)`);
+    }
+  }
   return failures;
 }
 
