@@ -233,7 +233,8 @@ async function main(): Promise<number> {
     const lanes = VITEST_LANES.map(async ({ name, runs }) => {
       let laneCode = 0;
       for (const args of runs) {
-        const c = await runVitest(args, `[${name}] `);
+        // --no-cache: two Vitest processes would read and write the same results file (node_modules/.vite) at once.
+        const c = await runVitest([...args, '--no-cache'], `[${name}] `);
         console.log(`[${name}] ${c === 0 ? '✓' : '✗'} vitest run ${args.join(' ')}: done at ${((Date.now() - started) / 1000).toFixed(0)} s`);
         if (c !== 0) laneCode = c;
       }

@@ -128,7 +128,8 @@ describe("the chart library's chunk", () => {
     for (const f of files) expect(index, `index.html loads or preloads ${f}`).not.toContain(f);
   });
 
-  it.each(DEMO_USERS.map((u) => [u.roles[0], u.email] as const))('is not requested when the %s signs in and the desk loads', async (_role, email) => {
+  // The five people side by side (a context each; most of each case is waiting for the desk and the quiet second after it).
+  it.concurrent.for(DEMO_USERS.map((u) => [u.roles[0], u.email] as const))('is not requested when the %s signs in and the desk loads', async ([_role, email], { expect }) => {
     const files = chartLibraryFiles();
     const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
     const page = await context.newPage();
