@@ -7,8 +7,12 @@ import { Site } from '../sites/site.entity.js';
 @Entity({ name: 'unit' })
 @Index(['siteId', 'serial'])
 @Index(['designId', 'serial'])
-@Index(['lastEventAt'])
+// The fleet's sorts by last event and by recommendation, ties by serial, in both directions from an index: the
+// descending twins are created with the first column DESC by their migration (TypeORM's decorator cannot say so).
+@Index(['lastEventAt', 'serial'])
+@Index('IDX_unit_lastEventAt_desc_serial', ['lastEventAt', 'serial'])
 @Index(['lastRecommendation', 'serial'])
+@Index('IDX_unit_lastRecommendation_desc_serial', ['lastRecommendation', 'serial'])
 export class Unit {
   @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
   id!: number;

@@ -1,4 +1,4 @@
-import { In, type EntityManager } from 'typeorm';
+import { In, type EntityManager, type ObjectLiteral, type SelectQueryBuilder } from 'typeorm';
 import type { z } from 'zod';
 import type { ReadingSetBody, unitBodySchema, unitListQuerySchema, unitPatchSchema } from '../../../shared/schemas/fleet.js';
 import type { CreatedReadingSet, ReadingSetConditions, UnitDetail, UnitListPage, UnitView } from '../../../shared/schemas/responses/index.js';
@@ -50,19 +50,40 @@ const SORT_COLUMNS: Record<string, string> = {
   lastRecommendation: 'u.lastRecommendation',
 };
 
+/** The list's filters on the unit table under `alias` (the page and its count apply the same ones). */
+function unitFilters<T extends ObjectLiteral>(qb: SelectQueryBuilder<T>, alias: string, q: UnitListQuery): SelectQueryBuilder<T> {
+  if (q.siteId) qb.andWhere(`${alias}.siteId = :siteId`, { siteId: q.siteId });
+  if (q.designId) qb.andWhere(`${alias}.designId = :designId`, { designId: q.designId });
+  if (q.recommendation) qb.andWhere(`${alias}.lastRecommendation = :rec`, { rec: q.recommendation });
+  if (q.q) qb.andWhere(`(${alias}.serial LIKE :q OR ${alias}.position LIKE :q)`, { q: `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+  return qb;
+}
+
 /**
- * The fleet query of one page (exported so a test can EXPLAIN it). Sorting by serial, last event or recommendation
- * reads the unit table alone through its indexes and stops at the page; sorting by site or design name joins them.
+ * The columns of a fleet row: the unit's own, and its site (name, zone, locale) and design reference read by primary
+ * key in subqueries, so the unit table alone drives the plan (its index order, stopping at the page).
+ */
+const UNIT_ROW_COLUMNS = [
+  ...['id', 'serial', 'position', 'siteId', 'designId', 'year', 'phases', 'hvKV', 'lvKV', 'ratedKVA', 'impedancePercent', 'systemImpedancePercent', 'conductor', 'lastEventId', 'lastEventAt', 'lastEventStatus', 'lastRecommendation'].map(
+    (c) => `u.${c} AS ${c}`,
+  ),
+  "(SELECT JSON_OBJECT('name', rs.name, 'timeZone', rs.timeZone, 'locale', rs.locale) FROM site rs WHERE rs.id = u.siteId) AS site",
+  '(SELECT rd.reference FROM design rd WHERE rd.id = u.designId) AS designReference',
+];
+
+type UnitRow = Omit<UnitView, 'lastEventAt'> & { lastEventAt: Date | null; site: string | null; designReference: string | null; total: number | string };
+
+/**
+ * The fleet query of one page (exported so a test can EXPLAIN it): only the columns a row shows. Sorting by serial,
+ * last event or recommendation reads the unit table through its indexes and stops at the page; sorting by site or
+ * design name joins them.
  */
 export function unitListQuery(m: EntityManager, q: UnitListQuery) {
   const key = q.sort.replace(/^-/, '');
-  const qb = m.getRepository(Unit).createQueryBuilder('u');
+  const qb = m.getRepository(Unit).createQueryBuilder('u').select(UNIT_ROW_COLUMNS);
   if (key === 'site') qb.innerJoin('u.site', 's');
   if (key === 'design') qb.innerJoin('u.design', 'd');
-  if (q.siteId) qb.andWhere('u.siteId = :siteId', { siteId: q.siteId });
-  if (q.designId) qb.andWhere('u.designId = :designId', { designId: q.designId });
-  if (q.recommendation) qb.andWhere('u.lastRecommendation = :rec', { rec: q.recommendation });
-  if (q.q) qb.andWhere('(u.serial LIKE :q OR u.position LIKE :q)', { q: `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+  unitFilters(qb, 'u', q);
   const desc = q.sort.startsWith('-');
   const column = SORT_COLUMNS[key];
   qb.orderBy(column, desc ? 'DESC' : 'ASC');
@@ -71,23 +92,44 @@ export function unitListQuery(m: EntityManager, q: UnitListQuery) {
   return qb;
 }
 
-/** One page of the fleet, filtered and sorted on the server. */
+/** One page of the fleet, filtered and sorted on the server: one query for the rows and the total, one for restrictions. */
 export async function listUnits(m: EntityManager, q: UnitListQuery) {
-  const [units, total] = await unitListQuery(m, q).getManyAndCount();
-  const sites = await m.getRepository(Site).findBy({ id: In([...new Set(units.map((u) => u.siteId))]) });
-  const designs = await m.getRepository(Design).findBy({ id: In([...new Set(units.map((u) => u.designId))]) });
-  const site = new Map(sites.map((x) => [x.id, x]));
-  const design = new Map(designs.map((x) => [x.id, x]));
-  const restrictions = await activeRestrictionsByUnit(m, units.map((u) => u.id));
+  // The page and, in the same round trip, the number of units matching the filters (an uncorrelated subquery,
+  // evaluated once).
+  const rows = await unitListQuery(m, q)
+    .addSelect((sub) => unitFilters(sub.select('COUNT(*)').from(Unit, 'cu'), 'cu', q), 'total')
+    .getRawMany<UnitRow>();
+  // A page past the end has no row to carry the total: count alone then.
+  const total = rows.length ? Number(rows[0].total) : q.page === 1 ? 0 : await unitFilters(m.getRepository(Unit).createQueryBuilder('cu'), 'cu', q).getCount();
+  const restrictions = await activeRestrictionsByUnit(m, rows.map((u) => u.id));
   return {
-    items: units.map((u) => ({
-      ...unitView(u),
-      siteName: site.get(u.siteId)?.name ?? '',
-      siteTimeZone: site.get(u.siteId)?.timeZone ?? 'UTC',
-      siteLocale: site.get(u.siteId)?.locale ?? null,
-      designReference: design.get(u.designId)?.reference ?? '',
+    items: rows.map((u) => {
+      const site = (typeof u.site === 'string' ? JSON.parse(u.site) : u.site) as { name: string; timeZone: string; locale: string | null } | null;
+      return {
+      id: u.id,
+      serial: u.serial,
+      position: u.position,
+      siteId: u.siteId,
+      designId: u.designId,
+      year: u.year,
+      phases: u.phases,
+      hvKV: u.hvKV,
+      lvKV: u.lvKV,
+      ratedKVA: u.ratedKVA,
+      impedancePercent: u.impedancePercent,
+      systemImpedancePercent: u.systemImpedancePercent,
+      conductor: u.conductor,
+      lastEventId: u.lastEventId,
+      lastEventAt: u.lastEventAt ? new Date(u.lastEventAt).toISOString() : null,
+      lastEventStatus: u.lastEventStatus,
+      lastRecommendation: u.lastRecommendation,
+      siteName: site?.name ?? '',
+      siteTimeZone: site?.timeZone ?? 'UTC',
+      siteLocale: site?.locale ?? null,
+      designReference: u.designReference ?? '',
       activeRestrictions: restrictions.get(u.id) ?? null,
-    })),
+      };
+    }),
     total,
     page: q.page,
     pageSize: q.pageSize,
