@@ -17,12 +17,24 @@ export const pad2 = (n: number) => String(n).padStart(2, '0');
 /** The zone when the runtime knows it, else UTC. */
 export function validZone(timeZone: string | null | undefined): string {
   if (!timeZone) return 'UTC';
+  if (zoneFormats.has(timeZone)) return timeZone;
   try {
     new Intl.DateTimeFormat('en', { timeZone });
     return timeZone;
   } catch {
     return 'UTC';
   }
+}
+
+// One wall-clock formatter per zone, made once (making an Intl.DateTimeFormat costs far more than using one).
+const zoneFormats = new Map<string, Intl.DateTimeFormat>();
+function zoneFormat(timeZone: string): Intl.DateTimeFormat {
+  let f = zoneFormats.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-GB', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
+    if (zoneFormats.size < 500) zoneFormats.set(timeZone, f);
+  }
+  return f;
 }
 
 export interface WallClock {
@@ -36,16 +48,7 @@ export interface WallClock {
 
 /** What a clock in the zone shows at that instant. */
 export function wallClock(date: Date, timeZone: string): WallClock {
-  const parts = new Intl.DateTimeFormat('en-GB', {
-    timeZone,
-    hourCycle: 'h23',
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    second: '2-digit',
-  }).formatToParts(date);
+  const parts = zoneFormat(timeZone).formatToParts(date);
   const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? 0);
   return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour') % 24, minute: get('minute'), second: get('second') };
 }

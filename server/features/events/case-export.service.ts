@@ -58,7 +58,7 @@ function isEmptySet(s: CaseReadingSet | undefined): boolean {
 export async function buildEventCase(m: EntityManager, eventId: number): Promise<GapsightCase> {
   const event = await m.getRepository(FaultEvent).findOne({ where: { id: eventId } });
   if (!event) throw notFound('Event');
-  const unit = await m.getRepository(Unit).findOneOrFail({ where: { id: event.unitId }, relations: { design: true } });
+  const unit = await m.getRepository(Unit).createQueryBuilder('u').innerJoinAndSelect('u.design', 'd').where('u.id = :id', { id: event.unitId }).getOneOrFail();
 
   const ownSets = await m.getRepository(ReadingSet).find({ where: { unitId: unit.id }, order: { takenAt: 'ASC', id: 'ASC' } });
   const before = (s: ReadingSet) => s.takenAt.getTime() < event.occurredAt.getTime();
@@ -72,7 +72,15 @@ export async function buildEventCase(m: EntityManager, eventId: number): Promise
     order: { occurredAt: 'ASC', id: 'ASC' },
   });
 
-  const sisterUnits = await m.getRepository(Unit).find({ where: { designId: unit.designId, id: Not(unit.id) }, order: { serial: 'ASC' } });
+  // Only sisters with a reading set that is not post-fault can add a sister block: the others are not read at all.
+  const sisterUnits: { id: number; serial: string }[] = await m
+    .getRepository(Unit)
+    .createQueryBuilder('u')
+    .select(['u.id AS id', 'u.serial AS serial'])
+    .where('u.designId = :designId AND u.id <> :id', { designId: unit.designId, id: unit.id })
+    .andWhere("EXISTS (SELECT 1 FROM reading_set rs WHERE rs.unitId = u.id AND rs.kind <> 'post-fault')")
+    .orderBy('u.serial', 'ASC')
+    .getRawMany();
   const sisterSets = sisterUnits.length
     ? await m.getRepository(ReadingSet).find({ where: { unitId: In(sisterUnits.map((u) => u.id)), kind: Not('post-fault') }, order: { takenAt: 'ASC', id: 'ASC' } })
     : [];

@@ -1,4 +1,4 @@
-import { In, LessThan, Not, type EntityManager } from 'typeorm';
+import { In, LessThan, Not, type EntityManager, type ObjectLiteral, type SelectQueryBuilder } from 'typeorm';
 import type { z } from 'zod';
 import type { Recommendation } from '../../../shared/schemas/enums.js';
 import type { eventListQuerySchema } from '../../../shared/schemas/fleet.js';
@@ -62,25 +62,69 @@ async function eventDuty(m: EntityManager, e: FaultEvent, unit: Unit) {
 
 const EVENT_SORT_COLUMNS: Record<string, string> = { occurredAt: 'e.occurredAt', serial: 'u.serial', status: 'e.status' };
 
+type EventListQuery = z.infer<typeof eventListQuerySchema>;
+
+/** The list's filters on the event table under `alias` (the page and its count apply the same ones). */
+function eventFilters<T extends ObjectLiteral>(qb: SelectQueryBuilder<T>, alias: string, q: EventListQuery): SelectQueryBuilder<T> {
+  const e = alias;
+  if (q.status?.length) qb.andWhere(`${e}.status IN (:...statuses)`, { statuses: q.status });
+  if (q.type?.length) qb.andWhere(`${e}.type IN (:...types)`, { types: q.type });
+  if (q.unitId) qb.andWhere(`${e}.unitId = :unitId`, { unitId: q.unitId });
+  if (q.siteId) qb.andWhere(`${e}.unitId IN (SELECT su.id FROM unit su WHERE su.siteId = :siteId)`, { siteId: q.siteId });
+  if (q.q) qb.andWhere(`${e}.unitId IN (SELECT qu.id FROM unit qu WHERE qu.serial LIKE :serial)`, { serial: `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+  if (q.from) qb.andWhere(`${e}.occurredAt >= :from`, { from: q.from });
+  if (q.to) qb.andWhere(`${e}.occurredAt <= :to`, { to: q.to });
+  if (q.withoutAttachments !== undefined) {
+    qb.andWhere(`${q.withoutAttachments ? 'NOT ' : ''}EXISTS (SELECT 1 FROM attachment a WHERE a.ownerType = 'event' AND a.ownerId = ${e}.id)`);
+  }
+  return qb;
+}
+
+/** The columns of an event's own record (EventView) under `e`, as raw columns of the same names. */
+export const EVENT_VIEW_COLUMNS = ['id', 'unitId', 'occurredAt', 'type', 'faultedPhases', 'side', 'location', 'currentIs', 'shots', 'transformerTripped', 'protectionOperated', 'notes', 'status', 'createdById', 'createdAt'].map(
+  (c) => `e.${c} AS ${c}`,
+);
+
+/** A raw row of EVENT_VIEW_COLUMNS as the API shows the event (JSON and boolean columns read as TypeORM reads them). */
+export function eventViewOfRow(r: Record<string, unknown>): EventView {
+  const json = <T>(v: unknown) => (typeof v === 'string' ? (JSON.parse(v) as T) : (v as T));
+  return {
+    id: Number(r.id),
+    unitId: Number(r.unitId),
+    occurredAt: new Date(r.occurredAt as Date).toISOString(),
+    type: r.type as EventView['type'],
+    faultedPhases: (r.faultedPhases as string | null) ?? null,
+    side: r.side as EventView['side'],
+    location: (r.location as EventView['location']) ?? null,
+    currentIs: (r.currentIs as EventView['currentIs']) ?? null,
+    shots: json<EventView['shots']>(r.shots),
+    transformerTripped: Boolean(r.transformerTripped),
+    protectionOperated: json<EventView['protectionOperated']>(r.protectionOperated),
+    notes: (r.notes as string | null) ?? null,
+    status: r.status as EventView['status'],
+    createdById: r.createdById === null || r.createdById === undefined ? null : Number(r.createdById),
+    createdAt: new Date(r.createdAt as Date).toISOString(),
+  } satisfies EventView;
+}
+
 /**
- * The event-list query of one page (exported so a test can EXPLAIN it): the event table through its indexes, the unit
- * table only when sorting by serial; unit, site and serial filters are subqueries on the unit table's indexes.
+ * The event-list query of one page (exported so a test can EXPLAIN it): the event table through its indexes, its unit
+ * and site by primary key (a subquery), the newest recommendation of each event (a subquery on the screening index).
+ * Unit, site and serial filters are subqueries on the unit table's indexes.
  */
-export function eventListQuery(m: EntityManager, q: z.infer<typeof eventListQuerySchema>) {
+export function eventListQuery(m: EntityManager, q: EventListQuery) {
   const qb = m.getRepository(FaultEvent).createQueryBuilder('e');
   const key = q.sort.replace(/^-/, '');
   const dir = q.sort.startsWith('-') ? 'DESC' : 'ASC';
   if (key === 'serial') qb.innerJoin('e.unit', 'u');
-  if (q.status?.length) qb.andWhere('e.status IN (:...statuses)', { statuses: q.status });
-  if (q.type?.length) qb.andWhere('e.type IN (:...types)', { types: q.type });
-  if (q.unitId) qb.andWhere('e.unitId = :unitId', { unitId: q.unitId });
-  if (q.siteId) qb.andWhere('e.unitId IN (SELECT su.id FROM unit su WHERE su.siteId = :siteId)', { siteId: q.siteId });
-  if (q.q) qb.andWhere('e.unitId IN (SELECT qu.id FROM unit qu WHERE qu.serial LIKE :serial)', { serial: `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
-  if (q.from) qb.andWhere('e.occurredAt >= :from', { from: q.from });
-  if (q.to) qb.andWhere('e.occurredAt <= :to', { to: q.to });
-  if (q.withoutAttachments !== undefined) {
-    qb.andWhere(`${q.withoutAttachments ? 'NOT ' : ''}EXISTS (SELECT 1 FROM attachment a WHERE a.ownerType = 'event' AND a.ownerId = e.id)`);
-  }
+  qb.select(EVENT_VIEW_COLUMNS);
+  // The unit's serial and site by primary key (a subquery, so the event table alone drives the plan).
+  qb.addSelect(
+    "(SELECT JSON_OBJECT('serial', ru.serial, 'siteId', ru.siteId, 'name', rs.name, 'timeZone', rs.timeZone, 'locale', rs.locale) FROM unit ru INNER JOIN site rs ON rs.id = ru.siteId WHERE ru.id = e.unitId)",
+    'unit',
+  );
+  qb.addSelect('(SELECT sc.recommendation FROM screening sc WHERE sc.id = (SELECT MAX(sm.id) FROM screening sm WHERE sm.eventId = e.id AND sm.comparison = 0))', 'recommendation');
+  eventFilters(qb, 'e', q);
   qb.orderBy(EVENT_SORT_COLUMNS[key], dir);
   // Within one serial or status, newest first; by time, the id breaks ties the same way.
   if (key === 'occurredAt') qb.addOrderBy('e.id', dir);
@@ -90,21 +134,26 @@ export function eventListQuery(m: EntityManager, q: z.infer<typeof eventListQuer
 }
 
 /** One page of events, newest first by default, filtered (unit serial, site, unit, statuses, fault types, dates, relay records) and sorted; each with its unit, site and newest recommendation. */
-export async function listEvents(m: EntityManager, q: z.infer<typeof eventListQuerySchema>) {
-  const [events, total] = await eventListQuery(m, q).getManyAndCount();
-  const units = events.length ? await m.getRepository(Unit).find({ where: { id: In([...new Set(events.map((e) => e.unitId))]) }, relations: { site: true } }) : [];
-  const unit = new Map(units.map((u) => [u.id, u]));
-  const latest: { eventId: number; recommendation: Recommendation }[] = events.length
-    ? await m.query(
-        'SELECT s.eventId, s.recommendation FROM screening s JOIN (SELECT eventId, MAX(id) AS id FROM screening WHERE comparison = 0 AND eventId IN (?) GROUP BY eventId) m ON m.id = s.id',
-        [events.map((e) => e.id)],
-      )
-    : [];
-  const rec = new Map(latest.map((r) => [Number(r.eventId), r.recommendation]));
+export async function listEvents(m: EntityManager, q: EventListQuery) {
+  // The page and, in the same round trip, the number of events matching the filters (an uncorrelated subquery,
+  // evaluated once: the filters' index where one applies, as a separate count would).
+  const rows = await eventListQuery(m, q)
+    .addSelect((sub) => eventFilters(sub.select('COUNT(*)').from(FaultEvent, 'ce'), 'ce', q), 'total')
+    .getRawMany<Record<string, unknown>>();
+  // A page past the end has no row to carry the total: count alone then.
+  const total = rows.length ? Number(rows[0].total) : q.page === 1 ? 0 : await eventFilters(m.getRepository(FaultEvent).createQueryBuilder('ce'), 'ce', q).getCount();
   return {
-    items: events.map((e) => {
-      const u = unit.get(e.unitId)!;
-      return { ...eventView(e), unitSerial: u.serial, siteId: u.siteId, siteName: u.site.name, siteTimeZone: u.site.timeZone, siteLocale: u.site.locale, recommendation: rec.get(e.id) ?? null };
+    items: rows.map((r) => {
+      const u = (typeof r.unit === 'string' ? JSON.parse(r.unit) : r.unit) as { serial: string; siteId: number; name: string; timeZone: string; locale: string | null };
+      return {
+        ...eventViewOfRow(r),
+        unitSerial: u.serial,
+        siteId: Number(u.siteId),
+        siteName: u.name,
+        siteTimeZone: u.timeZone,
+        siteLocale: u.locale ?? null,
+        recommendation: (r.recommendation as Recommendation | null) ?? null,
+      };
     }),
     total,
     page: q.page,
@@ -114,33 +163,48 @@ export async function listEvents(m: EntityManager, q: z.infer<typeof eventListQu
 
 /** An event with its unit, duty, sessions (values and sweeps), screenings (newest first), decision, follow-ups, findings, attachments and audit trail. */
 export async function getEvent(m: EntityManager, id: number) {
-  const e = await m.getRepository(FaultEvent).findOne({ where: { id } });
+  // The event with its unit, site and design in one query; then everything that hangs on the event id, at once.
+  const e = await m.getRepository(FaultEvent).createQueryBuilder('e').innerJoinAndSelect('e.unit', 'u').innerJoinAndSelect('u.site', 's').innerJoinAndSelect('u.design', 'd').where('e.id = :id', { id }).getOne();
   if (!e) throw notFound('Event');
-  const unit = await m.getRepository(Unit).findOneOrFail({ where: { id: e.unitId }, relations: { site: true, design: true } });
-  const sessions = await m.getRepository(ReadingSet).find({ where: { eventId: id }, order: { takenAt: 'ASC', id: 'ASC' } });
-  const values = await loadCaseReadingSets(m, sessions);
-  const sweeps = sessions.length ? await m.getRepository(SweepTrace).find({ where: { readingSetId: In(sessions.map((s) => s.id)) }, order: { id: 'ASC' } }) : [];
-  const screenings = await m.getRepository(Screening).find({ where: { eventId: id }, order: { computedAt: 'DESC', id: 'DESC' } });
-  const decisions = screenings.length ? await m.getRepository(Decision).find({ where: { screeningId: In(screenings.map((s) => s.id)) }, order: { signedAt: 'DESC', id: 'DESC' } }) : [];
-  const followUps = await m.getRepository(FollowUp).find({ where: { eventId: id }, order: { dueAt: 'ASC', id: 'ASC' } });
-  const findings = await m.getRepository(Finding).find({ where: { eventId: id }, order: { recordedAt: 'ASC', id: 'ASC' } });
-  const notifications = await m.getRepository(Notification).find({ where: { eventId: id }, order: { id: 'DESC' }, take: 200 });
-  const attachments = await m.getRepository(Attachment).find({ where: { ownerType: 'event', ownerId: id }, order: { id: 'ASC' } });
-  const findingFiles = findings.length ? await m.getRepository(Attachment).find({ where: { ownerType: 'finding', ownerId: In(findings.map((f) => f.id)) }, order: { id: 'ASC' } }) : [];
-  const auditRows = await m.getRepository(AuditEntry).find({
-    where: [
-      { entity: 'fault_event', entityId: String(id) },
-      ...(sessions.length ? [{ entity: 'reading_set', entityId: In(sessions.map((s) => String(s.id))) }] : []),
-      ...(screenings.length ? [{ entity: 'screening', entityId: In(screenings.map((s) => String(s.id))) }] : []),
-      ...(followUps.length ? [{ entity: 'follow_up', entityId: In(followUps.map((f) => String(f.id))) }] : []),
-      ...(findings.length ? [{ entity: 'finding', entityId: In(findings.map((f) => String(f.id))) }] : []),
-      ...(attachments.length + findingFiles.length ? [{ entity: 'attachment', entityId: In([...attachments, ...findingFiles].map((a) => String(a.id))) }] : []),
-    ],
-    order: { at: 'ASC', id: 'ASC' },
-    take: 500,
-  });
+  const unit = e.unit;
+  const [sessions, screenings, decisions, followUps, findings, notifications, files, duty] = await Promise.all([
+    m.getRepository(ReadingSet).find({ where: { eventId: id }, order: { takenAt: 'ASC', id: 'ASC' } }),
+    m.getRepository(Screening).find({ where: { eventId: id }, order: { computedAt: 'DESC', id: 'DESC' } }),
+    // The decisions on the event's screenings (the screening table's event index, then the decision's unique screening).
+    m.getRepository(Decision).createQueryBuilder('dc').innerJoin(Screening, 'sc', 'sc.id = dc.screeningId').where('sc.eventId = :id', { id }).orderBy('dc.signedAt', 'DESC').addOrderBy('dc.id', 'DESC').getMany(),
+    m.getRepository(FollowUp).find({ where: { eventId: id }, order: { dueAt: 'ASC', id: 'ASC' } }),
+    m.getRepository(Finding).find({ where: { eventId: id }, order: { recordedAt: 'ASC', id: 'ASC' } }),
+    m.getRepository(Notification).find({ where: { eventId: id }, order: { id: 'DESC' }, take: 200 }),
+    // The event's relay records and its findings' files in one query.
+    m
+      .getRepository(Attachment)
+      .createQueryBuilder('a')
+      .where("a.ownerType = 'event' AND a.ownerId = :id", { id })
+      .orWhere("a.ownerType = 'finding' AND a.ownerId IN (SELECT f.id FROM finding f WHERE f.eventId = :id)", { id })
+      .orderBy('a.id', 'ASC')
+      .getMany(),
+    eventDuty(m, e, unit),
+  ]);
+  const attachments = files.filter((a) => a.ownerType === 'event');
+  const findingFiles = files.filter((a) => a.ownerType === 'finding');
+  const [values, sweeps, auditRows] = await Promise.all([
+    loadCaseReadingSets(m, sessions),
+    sessions.length ? m.getRepository(SweepTrace).find({ where: { readingSetId: In(sessions.map((s) => s.id)) }, order: { id: 'ASC' } }) : [],
+    m.getRepository(AuditEntry).find({
+      where: [
+        { entity: 'fault_event', entityId: String(id) },
+        ...(sessions.length ? [{ entity: 'reading_set', entityId: In(sessions.map((s) => String(s.id))) }] : []),
+        ...(screenings.length ? [{ entity: 'screening', entityId: In(screenings.map((s) => String(s.id))) }] : []),
+        ...(followUps.length ? [{ entity: 'follow_up', entityId: In(followUps.map((f) => String(f.id))) }] : []),
+        ...(findings.length ? [{ entity: 'finding', entityId: In(findings.map((f) => String(f.id))) }] : []),
+        ...(files.length ? [{ entity: 'attachment', entityId: In(files.map((a) => String(a.id))) }] : []),
+      ],
+      order: { at: 'ASC', id: 'ASC' },
+      take: 500,
+    }),
+  ]);
   const userIds = [...new Set([e.createdById, ...sessions.map((s) => s.createdById), ...screenings.map((s) => s.computedById), ...decisions.map((d) => d.managerId), ...decisions.map((d) => d.restrictionsLiftedById), ...followUps.map((f) => f.closedById), ...findings.map((f) => f.recordedById), ...auditRows.map((a) => a.userId)].filter((x): x is number => typeof x === 'number'))];
-  const users = userIds.length ? await m.getRepository(User).find({ where: { id: In(userIds) } }) : [];
+  const users = userIds.length ? await m.getRepository(User).find({ select: { id: true, name: true, email: true }, where: { id: In(userIds) } }) : [];
   const people = Object.fromEntries(users.map((u) => [u.id, { id: u.id, name: u.name, email: u.email }]));
   // The audit trail in words: people by name, sessions by time and tester, follow-ups by task, on the site's clock.
   const zone = unit.site.timeZone;
@@ -156,7 +220,7 @@ export async function getEvent(m: EntityManager, id: number) {
   return {
     ...eventView(e),
     unit: { ...unitView(unit), site: { id: unit.site.id, name: unit.site.name, timeZone: unit.site.timeZone, locale: unit.site.locale }, design: designView(unit.design) },
-    ...(await eventDuty(m, e, unit)),
+    ...duty,
     sessions: sessions.map((s) => ({ ...readingSetConditions(s), values: values.get(s.id), sweeps: sweeps.filter((t) => t.readingSetId === s.id).map(sweepMeta) })),
     screenings: screenings.map((s) => ({
       id: s.id,
