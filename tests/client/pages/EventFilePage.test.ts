@@ -130,6 +130,8 @@ describe('EventFilePage (/events/:id)', () => {
     const { wrapper } = await mountApp('/events/11');
 
     await wrapper.get('[data-test="import-31"]').trigger('click');
+    // The import form loads when first opened.
+    await vi.waitFor(() => expect(wrapper.find('[data-test="import-file"]').exists()).toBe(true));
     await settle();
     await pickFile(
       wrapper,
@@ -158,6 +160,8 @@ describe('EventFilePage (/events/:id)', () => {
     const { wrapper } = await mountApp('/events/11');
 
     await wrapper.get('[data-test="import-31"]').trigger('click');
+    // The import form loads when first opened.
+    await vi.waitFor(() => expect(wrapper.find('[data-test="import-file"]').exists()).toBe(true));
     await settle();
     await pickFile(wrapper, 'import-file', csv('testset-export.csv', 'Test,Insulation,Ph,Reading,UOM\ncapacitance,CH,,3131,pF\nreactance,,B,11.60,%\n'));
 
@@ -187,6 +191,8 @@ describe('EventFilePage (/events/:id)', () => {
     expect(wrapper.find('[data-test="attachment-upload"]').exists()).toBe(false);
 
     await wrapper.get('[data-test="new-session"]').trigger('click');
+    // The session form loads when first opened.
+    await vi.waitFor(() => expect(wrapper.find('input[data-test="session-takenAt"]').exists()).toBe(true));
     await settle();
     const fill = async (id: string, value: string) => {
       await wrapper.get(`input[data-test="${id}"]`).setValue(value);
@@ -244,6 +250,8 @@ describe('EventFilePage (/events/:id)', () => {
     expect(requests.some((r) => r.url === '/api/events/11/case')).toBe(false);
 
     await wrapper.get('[data-test="new-session"]').trigger('click');
+    // The session form loads when first opened.
+    await vi.waitFor(() => expect(wrapper.find('input[data-test="session-takenAt"]').exists()).toBe(true));
     await settle();
     expect(requests.filter((r) => r.url === '/api/events/11/case')).toHaveLength(1);
     expect(wrapper.get('[data-test="session-references"]').text()).toContain('2019-05-02 baseline');
@@ -286,6 +294,8 @@ describe('EventFilePage (/events/:id)', () => {
     const { wrapper } = await mountApp('/events/11');
 
     await wrapper.get('[data-test="sweep-31"]').trigger('click');
+    // The sweep form loads when first opened.
+    await vi.waitFor(() => expect(wrapper.find('input[data-test="sweep-label"]').exists()).toBe(true));
     await settle();
     expect(wrapper.get('[data-test="sweep-baseline-labels"]').text()).toContain('HV-A-open');
     await wrapper.get('input[data-test="sweep-label"]').setValue('HV-B-open');
@@ -298,6 +308,8 @@ describe('EventFilePage (/events/:id)', () => {
     const { wrapper } = await mountApp('/events/11');
 
     await wrapper.get('[data-test="new-session"]').trigger('click');
+    // The session form loads when first opened.
+    await vi.waitFor(() => expect(wrapper.find('input[data-test="session-takenAt"]').exists()).toBe(true));
     await settle();
     await wrapper.get('input[data-test="session-humidityPercent"]').setValue('140');
     await settle();

@@ -153,6 +153,8 @@ describe('UnitFilePage (/units/:id)', () => {
     signedInAs(['tester']);
     const { wrapper } = await mountApp('/units/3');
     await wrapper.get('[data-test="add-reading-set"]').trigger('click');
+    // The reading set form loads when first opened.
+    await vi.waitFor(() => expect(wrapper.find('[data-test="set-kind"]').exists()).toBe(true));
     await settle();
     expect(wrapper.find('[data-test="set-kind"]').exists()).toBe(true);
     expect(wrapper.find('[data-test="session-pre-fault-gas"]').exists()).toBe(false);
