@@ -37,7 +37,15 @@ beforeAll(async () => {
   else {
     ownBuild = mkdtempSync(path.join(os.tmpdir(), 'gs-dist-'));
     dist = path.join(ownBuild, 'dist');
-    if (!buildClient(root, dist, true)) throw new Error('the client build failed');
+    // As `npm run build` makes it: Vitest sets NODE_ENV=test, which the build would inherit (Vue's development build).
+    const nodeEnv = process.env.NODE_ENV;
+    process.env.NODE_ENV = 'production';
+    try {
+      if (!buildClient(root, dist, true)) throw new Error('the client build failed');
+    } finally {
+      if (nodeEnv === undefined) delete process.env.NODE_ENV;
+      else process.env.NODE_ENV = nodeEnv;
+    }
   }
   manifest = JSON.parse(readFileSync(path.join(dist, '.vite/manifest.json'), 'utf8'));
   chunkModules = JSON.parse(readFileSync(path.join(dist, '.vite/chunk-modules.json'), 'utf8'));
@@ -148,13 +156,17 @@ describe('the client files as served', () => {
 
 // ---- what the first page loads ---------------------------------------------------------------------------------------
 
-/** The chunks a page needs before it can show: its own chunk and everything it imports statically, with their CSS. */
-function firstLoad(keys: string[]): { js: string[]; css: string[] } {
+/**
+ * The chunks a page needs before it can show: its own chunk and everything it imports statically, with their CSS; with
+ * `follow`, also the chunks it loads later (dynamic imports) that `follow` picks, and what they import.
+ */
+function firstLoad(keys: string[], follow: (key: string) => boolean = () => false): { js: string[]; css: string[] } {
   const seen = new Set<string>();
   const visit = (key: string) => {
     if (seen.has(key)) return;
     seen.add(key);
     for (const i of manifest[key].imports ?? []) visit(i);
+    for (const i of manifest[key].dynamicImports ?? []) if (follow(i)) visit(i);
   };
   keys.forEach(visit);
   const js = [...seen].map((k) => manifest[k].file);
@@ -170,6 +182,10 @@ const brotliSize = (file: string) => {
 
 const SIGN_IN = ['index.html', 'src/pages/SignInPage.vue'];
 const DESK = ['index.html', 'src/layouts/AppShellLayout.vue', 'src/pages/DeskPage.vue'];
+const EVENT_FILE = ['index.html', 'src/layouts/AppShellLayout.vue', 'src/pages/EventFilePage.vue'];
+const UNIT_FILE = ['index.html', 'src/layouts/AppShellLayout.vue', 'src/pages/UnitFilePage.vue'];
+/** The parts a page loads once it shows a chart: the chart components, the screening's chart parts, the chart library. */
+const CHART_PART = /^(src\/components\/charts\/|src\/components\/screening\/Screening(SweepCharts|SisterComparison)\.vue$|node_modules\/(apexcharts|vue3-apexcharts)\/)/;
 
 /** A module of the engine's folder that imports nothing (texts and constants, such as the cautions) is no engine. */
 const engineLeaf = (module: string) => !/^\s*(import|export)\b[^;]*\bfrom\s/m.test(readFileSync(path.join(root, module), 'utf8'));
@@ -194,12 +210,15 @@ describe('the first page', () => {
   });
 
   // The sign-in form checks its fields with the shared login schema (the server's own rules), so zod may load with
-  // sign-in; nothing else heavy may, and the desk's own chunks may not hold zod either. The event file's forms, figures
-  // and readings import need zod, the engine and the CSV parser; the chart library loads only when a chart shows.
+  // sign-in; nothing else heavy may, and the desk's own chunks may not hold zod either. The event file's decision,
+  // findings and follow-up forms need zod, its figures the engine; its session, sweep and readings import forms (and the
+  // CSV parser) load when opened. The unit file's reading set forms load when opened, so it needs no zod; the chart
+  // library loads only when a chart shows.
   it.each([
     ['sign-in', SIGN_IN, ['zod']],
     ['desk', DESK, []],
-    ['event file', ['index.html', 'src/layouts/AppShellLayout.vue', 'src/pages/EventFilePage.vue'], ['zod', 'papaparse', 'the screening engine']],
+    ['event file', EVENT_FILE, ['zod', 'the screening engine']],
+    ['unit file', UNIT_FILE, ['the screening engine']],
   ])('%s: its chunks hold no heavy library and no screening engine', (_page, keys, allowed) => {
     for (const key of keys) expect(manifest[key], key).toBeDefined();
     const { js } = firstLoad(keys);
@@ -209,6 +228,22 @@ describe('the first page', () => {
         expect(chunkModules[file].filter(holds), `${file} holds ${name}`).toEqual([]);
       }
     }
+  });
+
+  // A page's first visit: its script and style sheets and, once they show, its charts with the chart library (fonts
+  // not counted). The goal is 350 kB; the event file misses it (about 396 kB with every chart: the chart library alone
+  // is about 125 kB, and the decision, findings and follow-up forms bring zod), so its ceiling here only stops growth.
+  it.each([
+    ['unit file', UNIT_FILE, 350],
+    ['event file', EVENT_FILE, 400],
+  ])('%s: the first visit with its charts moves at most %i kB, brotli-compressed', (_page, keys, limitKb) => {
+    const plain = firstLoad(keys);
+    const { js, css } = firstLoad(keys, (key) => CHART_PART.test(key));
+    expect(js.some((f) => chunkModules[f].some((m) => m.startsWith('node_modules/vue3-apexcharts/'))), 'the chart library is counted').toBe(true);
+    expect(js.length).toBeGreaterThan(plain.js.length);
+    const total = [...js, ...css].reduce((sum, f) => sum + brotliSize(f), 0);
+    expect(total).toBeGreaterThan(150 * 1024); // the sizes are real
+    expect(total).toBeLessThanOrEqual(limitKb * 1024);
   });
 
   it('sign-in and then the desk move at most 200 kB of script, brotli-compressed', () => {
