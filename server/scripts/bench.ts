@@ -171,7 +171,7 @@ async function main(): Promise<void> {
       const computed = (shapes[key] as { computedInApp: string[] }).computedInApp;
       const same = `${missing.length ? `floor lacks ${missing.length} key(s): ${missing.slice(0, 4).join(', ')}${missing.length > 4 ? ', …' : ''}` : 'same keys'}${computed.length ? ' (besides the duty and audit sentences the app computes; the floor sends their input rows)' : ''}; ${(shapes[key] as { counts: string }).counts}`;
       const name = `GET ${url.replace(/\/\d+/, '/:id')} @${c}`;
-      const rps = figure(`load.${key}.${c}.rps`, `${name}: requests/s`, a.rps, f.rps, 'req/s', '≥ 0.5 × floor', (r) => r >= 0.5, `${a.requests} requests (floor ${f.requests}); ${same}`);
+      const rps = figure(`load.${key}.${c}.rps`, `${name}: requests/s`, a.rps, f.rps, 'req/s', '≥ 0.5 × floor', (r) => r >= 0.5 && a.errors === 0, `${a.requests} requests (floor ${f.requests})${a.errors || f.errors ? `; failed answers: app ${a.errors} (${JSON.stringify(a.statuses)}), floor ${f.errors}` : ''}; ${same}`);
       const p95 = figure(`load.${key}.${c}.p95`, `${name}: p95 latency`, a.p95, f.p95, 'ms', '≤ 2 × floor', (r) => r <= 2, `p50 ${a.p50.toFixed(1)} / p99 ${a.p99.toFixed(1)} ms; floor p50 ${f.p50.toFixed(1)} / p99 ${f.p99.toFixed(1)} ms`);
       figures.push(rps, p95);
       ((setup.load ??= []) as unknown[]).push({ url, connections: c, app: a, floor: f });
