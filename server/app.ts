@@ -1,5 +1,6 @@
 import { existsSync } from 'node:fs';
 import path from 'node:path';
+import compression from 'compression';
 import express, { type Express } from 'express';
 import expressStaticGzip from 'express-static-gzip';
 import helmet from 'helmet';
@@ -45,6 +46,9 @@ export function createApp(context: AppContext, opts: AppOptions = {}): Express {
       strictTransportSecurity: false,
     }),
   );
+  // JSON answers over 1 kB gzip-compressed for a client that accepts it (the event file's answers shrink to about a
+  // tenth on a slow site link); files (PDF, CSV, workbooks, attachments) are sent as they are.
+  app.use('/api', compression({ threshold: 1024, filter: (req, res) => /^application\/json\b/.test(String(res.getHeader('Content-Type') ?? '')) && compression.filter(req, res) }));
   app.use('/api', express.json({ limit: '5mb' }));
   app.use('/api/auth/login', loginRateLimit(context));
   app.use('/api', buildApiRouter(opts.routes ?? routeTable));
