@@ -1,4 +1,4 @@
-// The client's entry point: Quasar with Gapsight's brand, Pinia, the router; fonts and icons bundled (no CDN).
+// The client's entry point: Quasar with Gapsight's brand, Pinia, the router; fonts bundled (no CDN); icons are inline SVG (quasar-options.ts).
 import { createApp } from 'vue';
 import { createPinia } from 'pinia';
 import { Quasar } from 'quasar';
@@ -6,7 +6,6 @@ import { Quasar } from 'quasar';
 import '@fontsource/roboto-condensed/400.css';
 import '@fontsource/roboto-condensed/500.css';
 import '@fontsource/roboto-condensed/700.css';
-import '@quasar/extras/material-icons/material-icons.css';
 import 'quasar/dist/quasar.css';
 import './css/app.css';
 

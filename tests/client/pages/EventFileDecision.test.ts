@@ -6,6 +6,13 @@ import type { Role } from '../../../src/api/auth';
 import type { DecisionView, EventDetail } from '../../../src/api/events';
 import { healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken } from '../helpers';
 import { screenedEvent, screeningResult, storedScreening } from './fixtures';
+import { ICON_SVGS } from '../../../src/icons';
+
+// Which icon a q-icon draws (inline SVG, no ligature word): its SVG paths, named back through src/icons.ts.
+const iconOf = (el: Element) => {
+  const drawn = [...el.querySelectorAll('path')].map((p) => p.getAttribute('d')).join('&&');
+  return Object.keys(ICON_SVGS).find((name) => ICON_SVGS[name].split('&&').map((p) => p.split('@@')[0]).join('&&') === drawn);
+};
 
 enableAutoUnmount(afterEach);
 
@@ -235,7 +242,7 @@ describe('EventFilePage — decision panel', () => {
     expect(shown.get('[data-test="decision-outcome"]').text()).toBe('Hold');
     const against = shown.get('[data-test="decision-against"]');
     expect(against.text()).toContain('Against the recommendation');
-    expect(against.get('.q-icon').text()).toBe('report');
+    expect(iconOf(against.get('.q-icon').element)).toBe('report');
     expect(shown.get('[data-test="recommendation-badge"]').attributes('data-recommendation')).toBe('go');
     expect(shown.get('[data-test="decision-signed"]').text()).toContain('by Priya Nair');
   });
@@ -267,7 +274,7 @@ describe('EventFilePage — follow-ups, findings and e-mail log', () => {
 
     const items = wrapper.findAll('[data-test="follow-up"]');
     expect(items.map((i) => i.attributes('data-state'))).toEqual(['overdue', 'scheduled', 'undated', 'closed']);
-    expect(items.map((i) => i.get('[data-test="follow-up-state"]').text())).toEqual(['alarm Overdue', 'event Scheduled', 'event_busy No date', 'task_alt Closed']);
+    expect(items.map((i) => i.get('[data-test="follow-up-state"]')).map((s) => `${iconOf(s.get('.q-icon').element)} ${s.text()}`)).toEqual(['alarm Overdue', 'event Scheduled', 'event_busy No date', 'task_alt Closed']);
     expect(wrapper.get('[data-test="follow-up-summary"]').text()).toContain('3 open, 1 overdue');
     expect(items[3].get('[data-test="follow-up-result"]').text()).toContain('by Ruth Okafor: C2H2 0 ppm');
     // An engineer may not close follow-ups.

@@ -6,6 +6,13 @@ import type { Role } from '../../../src/api/auth';
 import type { EventDetail } from '../../../src/api/events';
 import { captureDownloads, healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken } from '../helpers';
 import { eventDetail, screenedEvent, screeningResult, storedScreening } from './fixtures';
+import { ICON_SVGS } from '../../../src/icons';
+
+// Which icon a q-icon draws (inline SVG, no ligature word): its SVG paths, named back through src/icons.ts.
+const iconOf = (el: Element) => {
+  const drawn = [...el.querySelectorAll('path')].map((p) => p.getAttribute('d')).join('&&');
+  return Object.keys(ICON_SVGS).find((name) => ICON_SVGS[name].split('&&').map((p) => p.split('@@')[0]).join('&&') === drawn);
+};
 
 enableAutoUnmount(afterEach);
 
@@ -35,7 +42,7 @@ describe('EventFilePage — screening panel', () => {
     const banner = wrapper.get('[data-test="verdict-banner"]');
     expect(banner.attributes('data-recommendation')).toBe('conditional');
     expect(banner.get('[data-test="verdict-word"]').text()).toContain('Conditional');
-    expect(banner.get('.q-icon').text()).toBe('warning');
+    expect(iconOf(banner.get('.q-icon').element)).toBe('warning');
     expect(banner.get('[data-test="verdict-reason"]').text()).toBe('CHL capacitance shifted +3.74 % against the 2019-05-02 baseline (investigate from 3 %)');
     const meta = banner.get('[data-test="verdict-meta"]').text();
     expect(meta).toContain('2026-07-03 10:00 +01:00 Europe/London');

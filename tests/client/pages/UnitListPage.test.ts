@@ -2,6 +2,13 @@ import { enableAutoUnmount } from '@vue/test-utils';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { captureDownloads, healthy, makeUser, mountApp, resetClientState, scriptFetch, settle, storeToken, type RecordedRequest } from '../helpers';
 import { unitItem } from './fixtures';
+import { ICON_SVGS } from '../../../src/icons';
+
+// Which icon a q-icon draws (inline SVG, no ligature word): its SVG paths, named back through src/icons.ts.
+const iconOf = (el: Element) => {
+  const drawn = [...el.querySelectorAll('path')].map((p) => p.getAttribute('d')).join('&&');
+  return Object.keys(ICON_SVGS).find((name) => ICON_SVGS[name].split('&&').map((p) => p.split('@@')[0]).join('&&') === drawn);
+};
 
 enableAutoUnmount(afterEach);
 
@@ -46,7 +53,7 @@ describe('UnitListPage (/units)', () => {
     const badge = row.get('[data-test="recommendation-badge"]');
     expect(badge.attributes('data-recommendation')).toBe('conditional');
     expect(badge.text()).toContain('Conditional');
-    expect(badge.get('.q-icon').text()).toBe('warning');
+    expect(iconOf(badge.get('.q-icon').element)).toBe('warning');
   });
 
   it('requests the sort of a clicked column, then the reverse order on a second click', async () => {
