@@ -51,7 +51,7 @@ function ensureChromium(): boolean {
   return true;
 }
 
-/** The whole suite's Vitest processes, run side by side (see main()). TEST_ONE_LANE=1 runs a single process instead. */
+/** With TEST_LANES=2: the whole suite's Vitest processes, run side by side (see main()). By default one process. */
 // Each lane runs its Vitest processes one after the other; the client and shared files are split in two halves
 // (Vitest's --shard), one after each of the long projects, so that both lanes end at about the same time.
 const VITEST_LANES: { name: string; runs: string[][] }[] = [
@@ -60,18 +60,49 @@ const VITEST_LANES: { name: string; runs: string[][] }[] = [
 ];
 
 /** Copies a stream line by line, each line starting with `prefix` (two processes' lines never mix). */
-function prefixLines(from: NodeJS.ReadableStream, to: NodeJS.WritableStream, prefix: string): void {
+function prefixLines(from: NodeJS.ReadableStream, to: NodeJS.WritableStream, prefix: string, onLine?: (line: string) => void): void {
   let rest = '';
   from.setEncoding('utf8');
   from.on('data', (d: string) => {
     const lines = (rest + d).split('\n');
     rest = lines.pop() ?? '';
+    lines.forEach((l) => onLine?.(l));
     if (lines.length) to.write(lines.map((l) => prefix + l + '\n').join(''));
   });
   from.on('end', () => {
-    if (rest) to.write(prefix + rest + '\n');
+    if (rest) {
+      onLine?.(rest);
+      to.write(prefix + rest + '\n');
+    }
   });
 }
+
+/**
+ * The lanes' Vitest summaries added up, printed last in Vitest's own words ("Test Files  201 passed (201)", "Tests  …"),
+ * so the end of the output says the whole suite's result in one place, as a single Vitest process would.
+ */
+const summary = {
+  counts: { 'Test Files': new Map<string, number>(), Tests: new Map<string, number>() } as Record<'Test Files' | 'Tests', Map<string, number>>,
+  totals: { 'Test Files': 0, Tests: 0 } as Record<'Test Files' | 'Tests', number>,
+  read(line: string): void {
+    // eslint-disable-next-line no-control-regex
+    const m = /^\s*(Test Files|Tests)\s{2,}(.+?)\s*\((\d+)\)\s*$/.exec(line.replace(/\x1b\[[0-9;]*m/g, ''));
+    if (!m) return;
+    const kind = m[1] as 'Test Files' | 'Tests';
+    for (const part of m[2].split('|')) {
+      const p = /(\d+)\s+(\w+)/.exec(part.trim());
+      if (p) this.counts[kind].set(p[2], (this.counts[kind].get(p[2]) ?? 0) + Number(p[1]));
+    }
+    this.totals[kind] += Number(m[3]);
+  },
+  lines(): string[] {
+    const order = ['failed', 'passed', 'skipped', 'todo'];
+    return (['Test Files', 'Tests'] as const).map((kind) => {
+      const parts = [...this.counts[kind].entries()].sort((a, b) => order.indexOf(a[0]) - order.indexOf(b[0])).map(([word, n]) => `${n} ${word}`);
+      return `${kind.padStart(11)}  ${parts.join(' | ') || '0 passed'} (${this.totals[kind]})`;
+    });
+  },
+};
 
 let tmp: string | null = null;
 let paths: MariaDbPaths | null = null;
@@ -215,7 +246,7 @@ async function main(): Promise<number> {
       const c = spawn(process.execPath, [vitest, 'run', ...args], { stdio: prefix ? ['ignore', 'pipe', 'pipe'] : 'inherit', env: process.env });
       children.add(c);
       if (prefix) {
-        prefixLines(c.stdout!, process.stdout, prefix);
+        prefixLines(c.stdout!, process.stdout, prefix, (line) => summary.read(line));
         prefixLines(c.stderr!, process.stderr, prefix);
       }
       c.on('close', (code, sig) => {
@@ -224,7 +255,9 @@ async function main(): Promise<number> {
       });
     });
   let code: number;
-  if (vitestArgs.length > 0 || process.env.TEST_ONE_LANE) code = await runVitest(vitestArgs, null);
+  // One Vitest process by default: on two cores the lanes took as long as one process (the tests are CPU-bound: the
+  // server lane's files took four times as long beside the browser tests) and made slow starts time out.
+  if (vitestArgs.length > 0 || process.env.TEST_LANES !== '2') code = await runVitest(vitestArgs, null);
   else {
     // The whole suite: the server and the browser projects each run one file at a time (their own rule), but they use
     // databases of their own, so the two run side by side in two lanes (VITEST_LANES). Each line says its lane; each
@@ -242,7 +275,9 @@ async function main(): Promise<number> {
     });
     const codes = await Promise.all(lanes);
     code = codes.some((c) => c !== 0) ? 1 : 0;
-    console.log(`\nVitest: ${VITEST_LANES.length} lanes in ${((Date.now() - started) / 1000).toFixed(0)} s`);
+    console.log(`\nVitest, ${VITEST_LANES.length} lanes together:\n`);
+    for (const line of summary.lines()) console.log(line);
+    console.log(`   Duration  ${((Date.now() - started) / 1000).toFixed(2)}s`);
   }
   if (code !== 0) failures++;
 
