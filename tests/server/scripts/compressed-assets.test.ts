@@ -231,12 +231,13 @@ describe('the first page', () => {
   });
 
   // A page's first visit: its script and style sheets and, once they show, its charts with the chart library (fonts
-  // not counted). The goal is 350 kB; the event file misses it (about 396 kB with every chart: the chart library alone
-  // is about 125 kB, and the decision, findings and follow-up forms bring zod), so its ceiling here only stops growth.
+  // not counted). The goal is 350 kB; the event file misses it (about 405 kB with every chart: the chart library alone
+  // is about 125 kB, the decision, findings and follow-up forms bring zod, and the app's icons are SVG paths in the entry
+  // chunk — about 10 kB that replaced a 128 kB icon font not counted here), so its ceiling here only stops growth.
   it.each([
-    ['unit file', UNIT_FILE, 350],
-    ['event file', EVENT_FILE, 400],
-  ])('%s: the first visit with its charts moves at most %i kB, brotli-compressed', (_page, keys, limitKb) => {
+    { page: 'unit file', keys: UNIT_FILE, limitKb: 350 },
+    { page: 'event file', keys: EVENT_FILE, limitKb: 420 },
+  ])('$page: the first visit with its charts moves at most $limitKb kB, brotli-compressed', ({ keys, limitKb }) => {
     const plain = firstLoad(keys);
     const { js, css } = firstLoad(keys, (key) => CHART_PART.test(key));
     expect(js.some((f) => chunkModules[f].some((m) => m.startsWith('node_modules/vue3-apexcharts/'))), 'the chart library is counted').toBe(true);
