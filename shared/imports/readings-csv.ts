@@ -172,7 +172,7 @@ const MAX_LISTED_BAD_ROWS = 1000;
 /**
  * Readings a file may hold. A unit's full set is a few hundred rows at most (capacitance and dissipation of each
  * configuration, four quantities a phase, seven gases, four readings a bushing terminal); 2 000 leaves room for any real
- * file and keeps the check of the largest to milliseconds (figures: `npm run bench -- --imports`, README).
+ * file and keeps the check of the largest to milliseconds (figures: `npm run bench`, README "Benchmarks").
  */
 export const READINGS_MAX_ROWS = 2000;
 
