@@ -20,7 +20,8 @@ import { Unit } from './unit.entity.js';
 
 type UnitListQuery = z.infer<typeof unitListQuerySchema>;
 
-export function unitView(u: Unit) {
+/** A unit's answer fields, from an entity or from a raw row of the same columns (its time as a Date or a string). */
+export function unitView(u: Omit<UnitView, 'lastEventAt'> & { lastEventAt: Date | string | null }) {
   return {
     id: u.id,
     serial: u.serial,
@@ -36,7 +37,7 @@ export function unitView(u: Unit) {
     systemImpedancePercent: u.systemImpedancePercent,
     conductor: u.conductor,
     lastEventId: u.lastEventId,
-    lastEventAt: u.lastEventAt ? u.lastEventAt.toISOString() : null,
+    lastEventAt: u.lastEventAt ? new Date(u.lastEventAt).toISOString() : null,
     lastEventStatus: u.lastEventStatus,
     lastRecommendation: u.lastRecommendation,
   } satisfies UnitView;
@@ -106,28 +107,12 @@ export async function listUnits(m: EntityManager, q: UnitListQuery) {
     items: rows.map((u) => {
       const site = (typeof u.site === 'string' ? JSON.parse(u.site) : u.site) as { name: string; timeZone: string; locale: string | null } | null;
       return {
-      id: u.id,
-      serial: u.serial,
-      position: u.position,
-      siteId: u.siteId,
-      designId: u.designId,
-      year: u.year,
-      phases: u.phases,
-      hvKV: u.hvKV,
-      lvKV: u.lvKV,
-      ratedKVA: u.ratedKVA,
-      impedancePercent: u.impedancePercent,
-      systemImpedancePercent: u.systemImpedancePercent,
-      conductor: u.conductor,
-      lastEventId: u.lastEventId,
-      lastEventAt: u.lastEventAt ? new Date(u.lastEventAt).toISOString() : null,
-      lastEventStatus: u.lastEventStatus,
-      lastRecommendation: u.lastRecommendation,
-      siteName: site?.name ?? '',
-      siteTimeZone: site?.timeZone ?? 'UTC',
-      siteLocale: site?.locale ?? null,
-      designReference: u.designReference ?? '',
-      activeRestrictions: restrictions.get(u.id) ?? null,
+        ...unitView(u),
+        siteName: site?.name ?? '',
+        siteTimeZone: site?.timeZone ?? 'UTC',
+        siteLocale: site?.locale ?? null,
+        designReference: u.designReference ?? '',
+        activeRestrictions: restrictions.get(u.id) ?? null,
       };
     }),
     total,
