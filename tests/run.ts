@@ -51,59 +51,6 @@ function ensureChromium(): boolean {
   return true;
 }
 
-/** With TEST_LANES=2: the whole suite's Vitest processes, run side by side (see main()). By default one process. */
-// Each lane runs its Vitest processes one after the other; the client and shared files are split in two halves
-// (Vitest's --shard), one after each of the long projects, so that both lanes end at about the same time.
-const VITEST_LANES: { name: string; runs: string[][] }[] = [
-  { name: 'api', runs: [['--project', 'server'], ['--project', 'client', '--project', 'shared', '--shard=1/2']] },
-  { name: 'e2e', runs: [['--project', 'e2e'], ['--project', 'client', '--project', 'shared', '--shard=2/2']] },
-];
-
-/** Copies a stream line by line, each line starting with `prefix` (two processes' lines never mix). */
-function prefixLines(from: NodeJS.ReadableStream, to: NodeJS.WritableStream, prefix: string, onLine?: (line: string) => void): void {
-  let rest = '';
-  from.setEncoding('utf8');
-  from.on('data', (d: string) => {
-    const lines = (rest + d).split('\n');
-    rest = lines.pop() ?? '';
-    lines.forEach((l) => onLine?.(l));
-    if (lines.length) to.write(lines.map((l) => prefix + l + '\n').join(''));
-  });
-  from.on('end', () => {
-    if (rest) {
-      onLine?.(rest);
-      to.write(prefix + rest + '\n');
-    }
-  });
-}
-
-/**
- * The lanes' Vitest summaries added up, printed last in Vitest's own words ("Test Files  201 passed (201)", "Tests  …"),
- * so the end of the output says the whole suite's result in one place, as a single Vitest process would.
- */
-const summary = {
-  counts: { 'Test Files': new Map<string, number>(), Tests: new Map<string, number>() } as Record<'Test Files' | 'Tests', Map<string, number>>,
-  totals: { 'Test Files': 0, Tests: 0 } as Record<'Test Files' | 'Tests', number>,
-  read(line: string): void {
-    // eslint-disable-next-line no-control-regex
-    const m = /^\s*(Test Files|Tests)\s{2,}(.+?)\s*\((\d+)\)\s*$/.exec(line.replace(/\x1b\[[0-9;]*m/g, ''));
-    if (!m) return;
-    const kind = m[1] as 'Test Files' | 'Tests';
-    for (const part of m[2].split('|')) {
-      const p = /(\d+)\s+(\w+)/.exec(part.trim());
-      if (p) this.counts[kind].set(p[2], (this.counts[kind].get(p[2]) ?? 0) + Number(p[1]));
-    }
-    this.totals[kind] += Number(m[3]);
-  },
-  lines(): string[] {
-    const order = ['failed', 'passed', 'skipped', 'todo'];
-    return (['Test Files', 'Tests'] as const).map((kind) => {
-      const parts = [...this.counts[kind].entries()].sort((a, b) => order.indexOf(a[0]) - order.indexOf(b[0])).map(([word, n]) => `${n} ${word}`);
-      return `${kind.padStart(11)}  ${parts.join(' | ') || '0 passed'} (${this.totals[kind]})`;
-    });
-  },
-};
-
 let tmp: string | null = null;
 let paths: MariaDbPaths | null = null;
 /** Every child still running (type checks, the build, Vitest): stopped when the run is interrupted. */
@@ -241,44 +188,16 @@ async function main(): Promise<number> {
 
   step('Vitest');
   const vitest = path.join(root, 'node_modules', 'vitest', 'vitest.mjs');
-  const runVitest = (args: string[], prefix: string | null): Promise<number> =>
-    new Promise((resolve) => {
-      const c = spawn(process.execPath, [vitest, 'run', ...args], { stdio: prefix ? ['ignore', 'pipe', 'pipe'] : 'inherit', env: process.env });
-      children.add(c);
-      if (prefix) {
-        prefixLines(c.stdout!, process.stdout, prefix, (line) => summary.read(line));
-        prefixLines(c.stderr!, process.stderr, prefix);
-      }
-      c.on('close', (code, sig) => {
-        children.delete(c);
-        resolve(code ?? (sig ? 1 : 0));
-      });
+  // One Vitest process: running the API and browser projects side by side in two processes was measured no faster on
+  // two cores (the tests are CPU-bound) and made slow app starts time out.
+  const code: number = await new Promise((resolve) => {
+    const c = spawn(process.execPath, [vitest, 'run', ...vitestArgs], { stdio: 'inherit', env: process.env });
+    children.add(c);
+    c.on('close', (exit, sig) => {
+      children.delete(c);
+      resolve(exit ?? (sig ? 1 : 0));
     });
-  let code: number;
-  // One Vitest process by default: on two cores the lanes took as long as one process (the tests are CPU-bound: the
-  // server lane's files took four times as long beside the browser tests) and made slow starts time out.
-  if (vitestArgs.length > 0 || process.env.TEST_LANES !== '2') code = await runVitest(vitestArgs, null);
-  else {
-    // The whole suite: the server and the browser projects each run one file at a time (their own rule), but they use
-    // databases of their own, so the two run side by side in two lanes (VITEST_LANES). Each line says its lane; each
-    // Vitest process ends with its own summary.
-    const started = Date.now();
-    const lanes = VITEST_LANES.map(async ({ name, runs }) => {
-      let laneCode = 0;
-      for (const args of runs) {
-        // --no-cache: two Vitest processes would read and write the same results file (node_modules/.vite) at once.
-        const c = await runVitest([...args, '--no-cache'], `[${name}] `);
-        console.log(`[${name}] ${c === 0 ? '✓' : '✗'} vitest run ${args.join(' ')}: done at ${((Date.now() - started) / 1000).toFixed(0)} s`);
-        if (c !== 0) laneCode = c;
-      }
-      return laneCode;
-    });
-    const codes = await Promise.all(lanes);
-    code = codes.some((c) => c !== 0) ? 1 : 0;
-    console.log(`\nVitest, ${VITEST_LANES.length} lanes together:\n`);
-    for (const line of summary.lines()) console.log(line);
-    console.log(`   Duration  ${((Date.now() - started) / 1000).toFixed(2)}s`);
-  }
+  });
   if (code !== 0) failures++;
 
   if (typechecks.length) {

@@ -1,18 +1,2 @@
-import { chromium, type Browser } from 'playwright-core';
-
-// Debian's Chromium driven by playwright-core (no browser download). CHROMIUM_PATH overrides the binary.
-export function launchChromium(): Promise<Browser> {
-  return chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    args: [
-      '--headless',
-      '--no-sandbox',
-      '--disable-gpu',
-      '--disable-quic',
-      '--no-first-run',
-      '--disable-background-networking',
-      '--disable-component-update',
-      '--disable-sync',
-    ],
-  });
-}
+// Debian's Chromium driven by playwright-core (no browser download), launched as the bench launches it.
+export { launchChromium } from '../../server/scripts/chromium.js';

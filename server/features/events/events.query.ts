@@ -27,7 +27,10 @@ import { User } from '../users/user.entity.js';
 import { caseFault, casePriorFault, caseUnit } from './case-export.service.js';
 import { FaultEvent } from './fault-event.entity.js';
 
-export function eventView(e: FaultEvent) {
+type EventFields = Pick<FaultEvent, 'id' | 'unitId' | 'occurredAt' | 'type' | 'faultedPhases' | 'side' | 'location' | 'currentIs' | 'shots' | 'transformerTripped' | 'protectionOperated' | 'notes' | 'status' | 'createdById' | 'createdAt'>;
+
+/** The event's own record as the API shows it, from the entity or a raw row's fields (eventViewOfRow). */
+export function eventView(e: EventFields) {
   return {
     id: e.id,
     unitId: e.unitId,
@@ -88,23 +91,23 @@ export const EVENT_VIEW_COLUMNS = ['id', 'unitId', 'occurredAt', 'type', 'faulte
 /** A raw row of EVENT_VIEW_COLUMNS as the API shows the event (JSON and boolean columns read as TypeORM reads them). */
 export function eventViewOfRow(r: Record<string, unknown>): EventView {
   const json = <T>(v: unknown) => (typeof v === 'string' ? (JSON.parse(v) as T) : (v as T));
-  return {
+  return eventView({
     id: Number(r.id),
     unitId: Number(r.unitId),
-    occurredAt: new Date(r.occurredAt as Date).toISOString(),
-    type: r.type as EventView['type'],
-    faultedPhases: (r.faultedPhases as string | null) ?? null,
-    side: r.side as EventView['side'],
-    location: (r.location as EventView['location']) ?? null,
-    currentIs: (r.currentIs as EventView['currentIs']) ?? null,
-    shots: json<EventView['shots']>(r.shots),
+    occurredAt: new Date(r.occurredAt as Date),
+    type: r.type as FaultEvent['type'],
+    faultedPhases: (r.faultedPhases as FaultEvent['faultedPhases']) ?? null,
+    side: r.side as FaultEvent['side'],
+    location: (r.location as FaultEvent['location']) ?? null,
+    currentIs: (r.currentIs as FaultEvent['currentIs']) ?? null,
+    shots: json<FaultEvent['shots']>(r.shots),
     transformerTripped: Boolean(r.transformerTripped),
-    protectionOperated: json<EventView['protectionOperated']>(r.protectionOperated),
+    protectionOperated: json<FaultEvent['protectionOperated']>(r.protectionOperated),
     notes: (r.notes as string | null) ?? null,
-    status: r.status as EventView['status'],
+    status: r.status as FaultEvent['status'],
     createdById: r.createdById === null || r.createdById === undefined ? null : Number(r.createdById),
-    createdAt: new Date(r.createdAt as Date).toISOString(),
-  } satisfies EventView;
+    createdAt: new Date(r.createdAt as Date),
+  });
 }
 
 /**

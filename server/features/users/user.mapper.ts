@@ -3,8 +3,10 @@ import type { Role } from '../../../shared/schemas/enums.js';
 import type { PersonView } from '../../../shared/schemas/responses/admin.js';
 import type { User } from './user.entity.js';
 
-/** The user as the API shows it (never the hash or the counters). */
-export function toUserDto(u: User): UserDto {
+/** The user as the API shows it (never the hash or the counters), from the entity or a session row's fields. */
+export function toUserDto(
+  u: Pick<User, 'id' | 'email' | 'name' | 'roles' | 'allSites' | 'active' | 'demo' | 'mustChangePassword' | 'lastSignInAt'> & { sites?: { id: number }[] },
+): UserDto {
   return {
     id: u.id,
     email: u.email,
@@ -43,18 +45,18 @@ export const SESSION_USER_COLUMNS =
 export function sessionUserFromRow(r: SessionUserRow): { dto: UserDto; tokenVersion: number } {
   const sites = r.siteIds === null ? '' : String(r.siteIds);
   return {
-    dto: {
+    dto: toUserDto({
       id: Number(r.id),
       email: r.email,
       name: r.name,
       roles: typeof r.roles === 'string' ? (JSON.parse(r.roles) as Role[]) : r.roles,
-      siteIds: sites ? sites.split(',').map(Number) : [],
+      sites: sites ? sites.split(',').map((id) => ({ id: Number(id) })) : [],
       allSites: Boolean(r.allSites),
       active: Boolean(r.active),
       demo: Boolean(r.demo),
       mustChangePassword: Boolean(r.mustChangePassword),
-      lastSignInAt: r.lastSignInAt ? new Date(r.lastSignInAt).toISOString() : null,
-    },
+      lastSignInAt: r.lastSignInAt ? new Date(r.lastSignInAt) : null,
+    }),
     tokenVersion: Number(r.tokenVersion),
   };
 }

@@ -1,5 +1,6 @@
 import { parseCase } from '../../../shared/schemas/case.js';
 import { screenCase } from '../../../shared/screening/index.js';
+import { median } from 'simple-statistics';
 
 // The engine figure: one full case (3 capacitance configurations, 3 phases of reactance, 3 × 1 000-point sweeps with
 // their baseline traces, 50 sisters) through parseCase → screenCase, against the floor: one hand-written pass over the
@@ -42,12 +43,8 @@ export function fullCaseJson(): Record<string, unknown> {
   };
 }
 
-/** Median of a list of numbers (sorted copy). */
-export function medianOf(xs: readonly number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const n = s.length;
-  return n % 2 ? s[(n - 1) / 2] : (s[n / 2 - 1] + s[n / 2]) / 2;
-}
+/** Median of a list of numbers (simple-statistics). */
+export const medianOf = (xs: readonly number[]): number => median([...xs]);
 
 type Json = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
 

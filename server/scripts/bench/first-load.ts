@@ -1,4 +1,4 @@
-import { existsSync } from 'node:fs';
+import { chromiumMissing as missing, launchChromium } from '../chromium.js';
 
 // First load: bytes on the wire per page visit, as Chromium (playwright-core, Debian's binary) receives them with
 // `Accept-Encoding: br, gzip`: the sum of Network.loadingFinished encodedDataLength (headers and body as transferred)
@@ -19,16 +19,14 @@ export interface PageBytes {
   items: { url: string; type: string; bytes: number }[];
 }
 
-export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-
+/** Why the first-load figures cannot be measured, or null. */
 export function chromiumMissing(): string | null {
-  if (existsSync(CHROMIUM)) return null;
-  return `Chromium not found at ${CHROMIUM}: install it (Debian/Ubuntu: sudo apt-get install chromium) or set CHROMIUM_PATH; the first-load figures are skipped.`;
+  const why = missing();
+  return why && `${why}; the first-load figures are skipped.`;
 }
 
 export async function measureFirstLoad(base: string, token: string, pages: { page: string; path: string }[]): Promise<{ pages: PageBytes[]; signInDeskJs: number }> {
-  const { chromium } = await import('playwright-core');
-  const browser = await chromium.launch({ executablePath: CHROMIUM, args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
+  const browser = await launchChromium();
   try {
     type Ctx = Awaited<ReturnType<typeof browser.newContext>>;
     const visit = async (ctx: Ctx, page: string, path: string): Promise<PageBytes> => {
