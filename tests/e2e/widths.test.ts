@@ -174,3 +174,19 @@ describe('at 390 px wide (a phone)', () => {
     await page.close();
   });
 });
+
+describe('a stacked list on a phone', () => {
+  it('keeps every cell’s column name on a hovered (tapped) row', async () => {
+    const page = await openAs(browser, running.url, api, 'tester', '/events', 390);
+    const row = page.locator('.gs-stack-table tbody tr').first();
+    await row.waitFor();
+    const labels = () => row.locator('td[data-label]').evaluateAll((tds) => tds.map((td) => [td.getAttribute('data-label'), getComputedStyle(td, '::before').content]));
+    const before = await labels();
+    expect(before.length).toBeGreaterThan(3);
+    await row.hover();
+    const hovered = await labels();
+    // The name shown beside each value is the cell's data-label, hovered or not (Quasar draws its hover veil there).
+    for (const [label, content] of [...before, ...hovered]) expect(content).toBe(JSON.stringify(label));
+    await page.close();
+  });
+});
